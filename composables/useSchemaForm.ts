@@ -1,0 +1,56 @@
+import type { ZodType } from 'zod'
+
+interface ServerIssue {
+  path: string
+  message: string
+}
+
+/** Pulls per-field issues out of a failed $fetch; falls back to the error's message. */
+export function issuesFromError(error: unknown): { fields: Record<string, string>; message: string } {
+  const body = (error as { data?: { message?: string; data?: { issues?: ServerIssue[] } } })?.data
+  const fields: Record<string, string> = {}
+  for (const issue of body?.data?.issues ?? []) fields[issue.path] ??= issue.message
+  return { fields, message: body?.message ?? (error instanceof Error ? error.message : 'Something went wrong') }
+}
+
+/**
+ * Form state checked by the same zod schema the server uses: `check()` fills per-field errors
+ * before sending, `fail(error)` maps the server's 4xx answer onto the same fields.
+ */
+export function useSchemaForm<T extends Record<string, unknown>>(schema: ZodType<T>, initial: T) {
+  const values = reactive({ ...initial }) as T
+  const errors = ref<Record<string, string>>({})
+  const formError = ref('')
+  const busy = ref(false)
+
+  function check(): T | null {
+    const result = schema.safeParse(values)
+    errors.value = {}
+    formError.value = ''
+    if (result.success) return result.data
+    for (const issue of result.error.issues) errors.value[issue.path.join('.')] ??= issue.message
+    return null
+  }
+
+  function fail(error: unknown) {
+    const { fields, message } = issuesFromError(error)
+    errors.value = fields
+    formError.value = Object.keys(fields).length ? '' : message
+  }
+
+  /** Validates, then runs `send` with the parsed values, keeping `busy` and errors up to date. */
+  async function submit(send: (data: T) => Promise<void>) {
+    const data = check()
+    if (!data) return
+    busy.value = true
+    try {
+      await send(data)
+    } catch (error) {
+      fail(error)
+    } finally {
+      busy.value = false
+    }
+  }
+
+  return { values, errors, formError, busy, check, fail, submit }
+}

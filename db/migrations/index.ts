@@ -1,0 +1,16 @@
+import type { Migration, MigrationProvider } from 'kysely'
+import * as m0001 from './0001_foundation'
+
+// Listed by hand: a folder scan does not survive bundling into the built server.
+// Add each new migration here, in order; never rename or edit one that has shipped.
+export const migrations: Record<string, Migration> = {
+  '0001_foundation': m0001,
+}
+
+/** Kysely migration provider over the static list above. */
+export const migrationProvider: MigrationProvider = {
+  getMigrations: async () => migrations,
+}
+
+/** Name of the newest migration this build knows. */
+export const LATEST_MIGRATION = Object.keys(migrations).at(-1)!

@@ -1,0 +1,43 @@
+// Gillwatt keeps app.vue, pages/, components/, stores/ at the repo root (srcDir '.'), not in app/.
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  srcDir: '.',
+  serverDir: 'server',
+  dir: { app: '.', public: 'public' },
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils'],
+  tailwindcss: { cssPath: '~/assets/css/main.css', viewer: false },
+  pinia: { storesDirs: ['./stores/**'] },
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Gillwatt',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1' },
+        { name: 'description', content: 'Screening river sites for throat-suction venturi installations.' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  runtimeConfig: {
+    // Path of the SQLite file; env DATABASE_PATH (read in server/utils/db.ts) wins.
+    databasePath: '.data/gillwatt.sqlite',
+    session: {
+      name: 'gillwatt-session',
+      maxAge: 60 * 60 * 24 * 7,
+      cookie: { sameSite: 'lax', httpOnly: true },
+    },
+    public: {
+      mapTilesUrl: '',
+      mapTilesAttribution: '',
+    },
+  },
+  typescript: { strict: true },
+  vite: {
+    resolve: { alias: [{ find: /^leaflet$/, replacement: 'leaflet/dist/leaflet-src.esm.js' }] },
+  },
+  nitro: {
+    experimental: { tasks: false },
+  },
+})

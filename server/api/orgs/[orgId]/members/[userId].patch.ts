@@ -1,0 +1,32 @@
+import { z } from 'zod'
+import { MemberRoleSchema } from '../../../../../shared/schemas/auth'
+import { IdSchema } from '../../../../../shared/schemas/common'
+
+const Params = z.object({ orgId: IdSchema, userId: IdSchema })
+
+// Admins change a member's role; the last admin cannot step down (409), so no organisation is orphaned.
+export default defineEventHandler(async (event) => {
+  const { orgId, userId } = await getValidatedRouterParams(event, validator(Params, 'params'))
+  const { user } = await requireRole(event, orgId, ['admin'])
+  const { role } = await readValidatedBody(event, validator(MemberRoleSchema, 'body'))
+  const db = useDb()
+  const result = await db.transaction().execute(async (trx) => {
+    const current = await trx.selectFrom('memberships').select('role').where('org_id', '=', orgId).where('user_id', '=', userId).executeTakeFirst()
+    if (!current) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'userId: no such member in this organisation' })
+    if (current.role === 'admin' && role !== 'admin') {
+      const { admins } = await trx
+        .selectFrom('memberships')
+        .select((eb) => eb.fn.countAll<number>().as('admins'))
+        .where('org_id', '=', orgId)
+        .where('role', '=', 'admin')
+        .executeTakeFirstOrThrow()
+      if (Number(admins) <= 1) {
+        throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'role: the organisation must keep at least one admin' })
+      }
+    }
+    await trx.updateTable('memberships').set({ role }).where('org_id', '=', orgId).where('user_id', '=', userId).execute()
+    return { from: current.role, to: role }
+  })
+  await audit({ orgId, userId: user.id, action: 'member.role-changed', targetType: 'user', targetId: userId, detail: result })
+  return { userId, role }
+})

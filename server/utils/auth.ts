@@ -1,0 +1,37 @@
+import type { H3Event } from 'h3'
+import type { Role } from '../../shared/utils/roles'
+
+/** The signed-in user, or a 401. */
+export async function requireUser(event: H3Event) {
+  const { user } = await requireUserSession(event, { message: 'Sign in to continue' })
+  return user
+}
+
+/** The role the user holds in the organisation, or null when not a member. */
+export async function roleIn(userId: number, orgId: number): Promise<Role | null> {
+  const row = await useDb()
+    .selectFrom('memberships')
+    .select('role')
+    .where('user_id', '=', userId)
+    .where('org_id', '=', orgId)
+    .executeTakeFirst()
+  return row?.role ?? null
+}
+
+/**
+ * Gate for every organisation-scoped route: 401 when signed out, 404 when the user is not a
+ * member (so ids do not leak across organisations), 403 when their role is not in `roles`.
+ */
+export async function requireRole(event: H3Event, orgId: number, roles: readonly Role[]) {
+  const user = await requireUser(event)
+  const role = await roleIn(user.id, orgId)
+  if (!role) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Organisation not found' })
+  if (!roles.includes(role)) {
+    throw createError({
+      statusCode: 403,
+      statusMessage: 'Forbidden',
+      message: `This needs the ${roles.join(' or ')} role; you are ${role}`,
+    })
+  }
+  return { user, role }
+}
