@@ -1,0 +1,44 @@
+import fc from 'fast-check'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { Client, signUp } from './client'
+
+// Whatever JSON arrives, the foundation routes answer with a 4xx and a message, never a 5xx.
+let admin: Client
+let orgId: number
+let userId: number
+
+beforeAll(async () => {
+  const owner = await signUp('hostile')
+  admin = owner.client
+  orgId = owner.orgId
+  userId = owner.user.id
+})
+
+const anyBody = fc.oneof(
+  fc.jsonValue(),
+  fc.record({ email: fc.jsonValue(), password: fc.jsonValue(), name: fc.jsonValue(), organisationName: fc.jsonValue(), role: fc.jsonValue() }, { requiredKeys: [] }),
+  fc.record({ email: fc.string({ maxLength: 400 }), password: fc.string({ maxLength: 400 }) }),
+)
+
+describe('hostile request bodies', () => {
+  it('never make a route answer 5xx', async () => {
+    const routes: [string, string][] = [
+      ['POST', '/api/auth/signup'],
+      ['POST', '/api/auth/login'],
+      ['POST', '/api/orgs'],
+      ['POST', `/api/orgs/${orgId}/members`],
+      ['PATCH', `/api/orgs/${orgId}/members/${userId}`],
+    ]
+    await fc.assert(
+      fc.asyncProperty(fc.constantFrom(...routes), anyBody, async ([method, path], body) => {
+        const res = await admin.request(method, path, JSON.stringify(body))
+        expect(res.status, `${method} ${path} ${JSON.stringify(body)}`).toBeLessThan(500)
+        if (res.status >= 400) expect(typeof res.body?.message).toBe('string')
+      }),
+      { numRuns: 150 },
+    )
+    // The admin is still the admin afterwards.
+    const me = await admin.get('/api/me')
+    expect(me.body.memberships.find((m: { orgId: number }) => m.orgId === orgId).role).toBe('admin')
+  })
+})
