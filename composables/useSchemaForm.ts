@@ -1,4 +1,4 @@
-import type { ZodType } from 'zod'
+import type { z, ZodType } from 'zod'
 
 interface ServerIssue {
   path: string
@@ -17,8 +17,9 @@ export function issuesFromError(error: unknown): { fields: Record<string, string
  * Form state checked by the same zod schema the server uses: `check()` fills per-field errors
  * before sending, `fail(error)` maps the server's 4xx answer onto the same fields.
  */
-export function useSchemaForm<T extends Record<string, unknown>>(schema: ZodType<T>, initial: T) {
-  const values = reactive({ ...initial }) as T
+export function useSchemaForm<S extends ZodType<Record<string, unknown>>>(schema: S, initial: z.input<S>) {
+  type T = z.output<S>
+  const values = reactive({ ...(initial as Record<string, unknown>) }) as z.input<S>
   const errors = ref<Record<string, string>>({})
   const formError = ref('')
   const busy = ref(false)
@@ -27,7 +28,7 @@ export function useSchemaForm<T extends Record<string, unknown>>(schema: ZodType
     const result = schema.safeParse(values)
     errors.value = {}
     formError.value = ''
-    if (result.success) return result.data
+    if (result.success) return result.data as T
     for (const issue of result.error.issues) errors.value[issue.path.join('.')] ??= issue.message
     return null
   }

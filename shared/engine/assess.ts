@@ -1,0 +1,374 @@
+// The single entry point: one option at one site → energy, oxygen, safety flags, money.
+import type { AssessInput } from '../schemas/assess'
+import { defaultsUsed, type DefaultUsed } from './defaultsUsed'
+import { annualEnergyFromFdc, annualEnergyFromRecord, DAYS_IN_MONTH, type AnnualEnergy, type PowerAt } from './energy'
+import {
+  exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, monthOf, reservedFlow,
+  scaleFdcByAreaRatio, scaleRecordByAreaRatio, type DailyFlow, type Fdc, type FdcStats,
+} from './hydrology'
+import { moneySummary, type MoneySummary } from './money'
+import { buildScheme, flowState, powerState, type Conditions, type FlowState, type Scheme } from './scheme'
+import { ENGINE_VERSION } from './version'
+
+/** Names of the flags an assessment raises. */
+export type FlagId = 'cavitation' | 'gas-supersaturation' | 'oxygen-below-target' | 'net-oxygen-loss' | 'head-limited-never-runs'
+
+/** One flag, raised or clear, with a plain-language reason either way. */
+export interface Flag {
+  id: FlagId
+  raised: boolean
+  /** True for flags about harm (to people, plant or fish); the sweep keeps these clear. */
+  safety: boolean
+  reason: string
+}
+
+/** One row of the table across the flow-duration curve. */
+export interface PerFlowRow {
+  /** % of time the flow is equalled or exceeded. */
+  exceedance: number
+  riverFlow_m3s: number
+  regime: FlowState['regime']
+  unitsRunning: number
+  unitFlow_m3s: number
+  spill_m3s: number
+  reservedFlow_m3s: number
+  grossHead_m: number
+  workingHead_m: number
+  throatVelocity_ms: number
+  suctionHead_m: number
+  cavitationMargin_m: number
+  cavitationIndex: number | null
+  airFlow_m3s: number
+  electricalPower_kW: number
+  waterToWire: number
+  downstreamOxygenWithout_mgL: number
+  downstreamOxygenWith_mgL: number
+  netOxygenGain_mgL: number
+  unitTotalDissolvedGas: number
+}
+
+/** One row of the month table. */
+export interface MonthRow {
+  month: number
+  name: string
+  temperature_C: number
+  flow_m3s: number
+  flowBasis: 'record-mean' | 'entered' | 'annual-q50'
+  upstreamOxygen_mgL: number
+  downstreamWithout_mgL: number
+  downstreamWith_mgL: number
+  downstreamFieldTransfer_mgL: number
+  downstreamBubbleContact_mgL: number
+  netGain_mgL: number
+  target_mgL: number
+  unitTotalDissolvedGas: number
+  cavitationMargin_m: number | null
+  flags: FlagId[]
+  energy_MWh: number
+  energyBasis: 'record' | 'month-flow'
+}
+
+/** The condition the summary's oxygen figure is taken at. */
+export interface SummerLowFlow {
+  month: number
+  flow_m3s: number
+  temperature_C: number
+  basis: string
+}
+
+/** Headline figures. */
+export interface AssessSummary {
+  annualEnergy_MWh: number
+  capacityFactor: number
+  fullLoadHours: number
+  ratedPower_kW: number
+  ratingSizedToDesign: boolean
+  meanAirFlow_m3s: number
+  peakAirFlow_m3s: number
+  /** Null when the units never run. */
+  minCavitationMargin_m: number | null
+  /** Smallest throat cavitation index σ where units run; null when they never run. */
+  minCavitationIndex: number | null
+  maxUnitTotalDissolvedGas: number
+  netOxygenGainSummerLowFlow_mgL: number
+  summerLowFlow: SummerLowFlow
+  lcoe: number | null
+  flags: Flag[]
+}
+
+/** Both oxygen methods side by side. */
+export interface MethodsComparison {
+  summaryUses: 'field-transfer' | 'bubble-contact'
+  note: string
+  atSummerLowFlow: Record<'fieldTransfer' | 'bubbleContact', { unitOutlet_mgL: number, downstream_mgL: number, netGain_mgL: number }>
+}
+
+/** Result of one assessment. */
+export interface AssessResult {
+  summary: AssessSummary
+  perFlow: PerFlowRow[]
+  months: MonthRow[]
+  methods: MethodsComparison
+  hydrology: FdcStats & { reservedFlow_m3s: number, basis: 'fdc' | 'record', daysWithData: number | null }
+  money: MoneySummary
+  defaultsUsed: DefaultUsed[]
+  engineVersion: string
+}
+
+const MONTH_NAMES = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'] as const
+const PER_FLOW_EXCEEDANCES = [1, 5, 10, 20, 30, 40, 50, 60, 70, 80, 90, 95, 99] as const
+const SUMMARY_GRID = 200
+const NET_LOSS_TOLERANCE_mgL = 0.01
+
+const fmt = (x: number, digits = 2): string => x.toFixed(digits)
+const mean = (xs: readonly number[]): number => (xs.length ? xs.reduce((s, x) => s + x, 0) / xs.length : 0)
+
+/** The site's hydrology after gauge scaling: its FDC and, for a record, its days. */
+interface SiteHydrology {
+  fdc: Fdc
+  days: DailyFlow[] | null
+}
+
+function siteHydrology(input: AssessInput): SiteHydrology {
+  const sc = input.gaugeScaling
+  if (input.hydrology.kind === 'record') {
+    const days = sc ? scaleRecordByAreaRatio(input.hydrology.days, sc.siteArea_km2, sc.gaugeArea_km2) : input.hydrology.days
+    return { fdc: fdcFromRecord(days), days }
+  }
+  const fdc = fdcFromPoints(input.hydrology.points)
+  return { fdc: sc ? scaleFdcByAreaRatio(fdc, sc.siteArea_km2, sc.gaugeArea_km2) : fdc, days: null }
+}
+
+function monthFlows(input: AssessInput, h: SiteHydrology): Array<{ flow: number, basis: MonthRow['flowBasis'] }> {
+  if (h.days) {
+    const sum = new Array<number>(12).fill(0)
+    const n = new Array<number>(12).fill(0)
+    h.days.forEach((d, i) => {
+      if (d.flow === null) return
+      const m = monthOf(d.date, `hydrology.days[${i}].date`) - 1
+      sum[m] = (sum[m] ?? 0) + d.flow
+      n[m] = (n[m] ?? 0) + 1
+    })
+    const q50 = flowAtExceedance(h.fdc, 50)
+    return sum.map((s, m) => ((n[m] ?? 0) > 0 ? { flow: s / (n[m] ?? 1), basis: 'record-mean' as const } : { flow: q50, basis: 'annual-q50' as const }))
+  }
+  const q50 = flowAtExceedance(h.fdc, 50)
+  const sc = input.gaugeScaling
+  const ratio = sc ? sc.siteArea_km2 / sc.gaugeArea_km2 : 1
+  return input.site.months.map((m) => (m.flow_m3s !== undefined ? { flow: m.flow_m3s * ratio, basis: 'entered' as const } : { flow: q50, basis: 'annual-q50' as const }))
+}
+
+/** Mean annual conditions: the mean of the twelve months' temperature and upstream oxygen. */
+function annualConditions(input: AssessInput): Conditions {
+  return {
+    tC: mean(input.site.months.map((m) => m.temperature_C)),
+    upstreamO2_mgL: mean(input.site.months.map((m) => m.upstreamOxygen_mgL)),
+  }
+}
+
+function monthConditions(input: AssessInput): Conditions[] {
+  return input.site.months.map((m) => ({ tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
+}
+
+function energyOf(input: AssessInput, h: SiteHydrology, s: Scheme, annual: Conditions, months: Conditions[]): AnnualEnergy {
+  const powerAt: PowerAt = (flow, month) => powerState(s, flow, month === 0 ? annual : (months[month - 1] ?? annual)).electricalPower_W
+  const opts = { ratingW: s.ratedPerUnit_W * input.option.units, availability: input.settings.availability }
+  return h.days ? annualEnergyFromRecord(h.days, powerAt, opts) : annualEnergyFromFdc(h.fdc, powerAt, opts)
+}
+
+function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
+  return {
+    exceedance, riverFlow_m3s: f.riverFlow_m3s, regime: f.regime, unitsRunning: f.unitsRunning, unitFlow_m3s: f.unitFlow_m3s,
+    spill_m3s: f.spill_m3s, reservedFlow_m3s: f.reserved_m3s, grossHead_m: f.grossHead_m, workingHead_m: f.workingHead_m,
+    throatVelocity_ms: f.throatVelocity_ms, suctionHead_m: f.suction_m, cavitationMargin_m: f.cavitationMargin_m,
+    cavitationIndex: f.cavitationIndex, airFlow_m3s: f.airFlow_m3s, electricalPower_kW: f.electricalPower_W / 1000,
+    waterToWire: f.waterToWire, downstreamOxygenWithout_mgL: f.oxygen.withoutScheme_mgL,
+    downstreamOxygenWith_mgL: f.oxygen.withScheme_mgL, netOxygenGain_mgL: f.oxygen.netGain_mgL,
+    unitTotalDissolvedGas: f.oxygen.unitTdg,
+  }
+}
+
+/** The warmest three months; of those, the one with the lowest month flow (summer low flow). */
+function pickSummerLowFlow(rows: ReadonlyArray<{ month: number, temperature_C: number, flow_m3s: number }>): SummerLowFlow {
+  const warm = [...rows].sort((a, b) => b.temperature_C - a.temperature_C || a.month - b.month).slice(0, 3)
+  const low = warm.reduce((best, r) => (r.flow_m3s < best.flow_m3s ? r : best), warm[0] ?? { month: 7, temperature_C: 15, flow_m3s: 0 })
+  return {
+    month: low.month, flow_m3s: low.flow_m3s, temperature_C: low.temperature_C,
+    basis: 'lowest month flow among the three warmest months, at that month\'s temperature and upstream oxygen',
+  }
+}
+
+/** Why the units make no energy, in plain words. */
+function neverRunsReason(s: Scheme, grid: FlowState[]): string {
+  const running = grid.filter((g) => g.unitsRunning > 0)
+  if (!(s.input.site.grossHead_m > 0) && s.input.site.headTable.every((p) => !(p.head_m > 0))) return 'The site has no head, so no water can be driven through the units.'
+  if (running.length === 0) return `The river never carries more than the reserved flow (${fmt(s.reserved_m3s, 3)} m³/s) plus the minimum flow a unit needs, so the units never start.`
+  if (running.every((g) => g.suction_m <= 0)) {
+    const best = Math.max(...running.map((g) => g.suction_m + s.input.option.throatDepth_m))
+    return `The throat is ${fmt(s.input.option.throatDepth_m)} m below the tail pool but the diffuser recovers at most ${fmt(best)} m of head, so the throat never drops below atmospheric pressure and draws no air. Raise the throat or use a better diffuser.`
+  }
+  if (running.every((g) => g.electricalPower_W === 0)) return 'Air flows, but the turbine never reaches its cut-in power, so no electricity is made.'
+  return 'The units make no energy over the flow-duration curve.'
+}
+
+/** Assess one option at one site (ENGINE §1–7): per-flow table across the FDC, month table, annual energy, oxygen by both methods, flags, money. */
+export function assess(input: AssessInput): AssessResult {
+  const st = input.settings
+  const h = siteHydrology(input)
+  const reserved = reservedFlow(input.reservedFlow, h.fdc)
+  const annual = annualConditions(input)
+  const monthCond = monthConditions(input)
+  const s = buildScheme(input, reserved, annual)
+  const energy = energyOf(input, h, s, annual, monthCond)
+  const ratingW = s.ratedPerUnit_W * input.option.units
+
+  const perFlow = PER_FLOW_EXCEEDANCES.map((p) => perFlowRow(p, flowState(s, flowAtExceedance(h.fdc, p), annual)))
+  const gridFlows = exceedanceGrid(SUMMARY_GRID).map((p) => flowAtExceedance(h.fdc, p))
+  const grid = gridFlows.map((q) => flowState(s, q, annual))
+  const warmest = monthCond.reduce((a, b) => (b.tC > a.tC ? b : a), monthCond[0] ?? annual)
+  const warmGrid = gridFlows.map((q) => flowState(s, q, warmest))
+
+  const flows = monthFlows(input, h)
+  const monthStates = flows.map((f, m) => flowState(s, f.flow, monthCond[m] ?? annual))
+  const months: MonthRow[] = monthStates.map((fs, m) => {
+    const c = monthCond[m] ?? annual
+    const flowInfo = flows[m] ?? { flow: 0, basis: 'annual-q50' as const }
+    const recorded = energy.energyByMonthMWh[m]
+    const e = recorded ?? (fs.electricalPower_W * (DAYS_IN_MONTH[m] ?? 30) * 24 * st.availability) / 1e6
+    const flags: FlagId[] = []
+    if (fs.oxygen.withScheme_mgL < st.oxygenTarget_mgL) flags.push('oxygen-below-target')
+    if (fs.oxygen.netGain_mgL < -NET_LOSS_TOLERANCE_mgL) flags.push('net-oxygen-loss')
+    if (fs.unitsRunning > 0 && fs.oxygen.unitTdg > st.tdgLimit) flags.push('gas-supersaturation')
+    if (fs.unitsRunning > 0 && fs.cavitationMargin_m < st.minCavitationMargin_m) flags.push('cavitation')
+    return {
+      month: m + 1, name: MONTH_NAMES[m] ?? String(m + 1), temperature_C: c.tC, flow_m3s: flowInfo.flow, flowBasis: flowInfo.basis,
+      upstreamOxygen_mgL: c.upstreamO2_mgL, downstreamWithout_mgL: fs.oxygen.withoutScheme_mgL, downstreamWith_mgL: fs.oxygen.withScheme_mgL,
+      downstreamFieldTransfer_mgL: fs.oxygen.withSchemeFieldTransfer_mgL, downstreamBubbleContact_mgL: fs.oxygen.withSchemeBubbleContact_mgL,
+      netGain_mgL: fs.oxygen.netGain_mgL, target_mgL: st.oxygenTarget_mgL, unitTotalDissolvedGas: fs.oxygen.unitTdg,
+      cavitationMargin_m: fs.unitsRunning > 0 ? fs.cavitationMargin_m : null, flags, energy_MWh: e,
+      energyBasis: recorded === null || recorded === undefined ? 'month-flow' : 'record',
+    }
+  })
+
+  const slf = pickSummerLowFlow(months)
+  const slfState = flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
+
+  const runningStates = [...warmGrid, ...grid, ...monthStates].filter((g) => g.unitsRunning > 0)
+  const worst = runningStates.reduce<FlowState | null>((w, g) => (w === null || g.cavitationMargin_m < w.cavitationMargin_m ? g : w), null)
+  const tdgWorst = runningStates.reduce<FlowState | null>((w, g) => (w === null || g.oxygen.unitTdg > w.oxygen.unitTdg ? g : w), null)
+  const maxTdg = tdgWorst ? tdgWorst.oxygen.unitTdg : 0
+  const sigmas = runningStates.map((g) => g.cavitationIndex).filter((x): x is number => x !== null)
+
+  const money = moneySummary({
+    ...input.option.costs, ratingW, units: input.option.units, annualEnergyMWh: energy.annualEnergyMWh,
+    opexFraction: st.opexFraction, discountRate: st.discountRate, lifeYears: st.lifeYears, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
+  })
+
+  const flags = buildFlags({ s, worst, tdgWorst, maxTdg, months, slfGain: slfState.oxygen.netGain_mgL, slf, energy, grid })
+
+  const ft = slfState.oxygen
+  const methods: MethodsComparison = {
+    summaryUses: st.oxygenMethod,
+    note: 'Field transfer applies the ASCE/EWRI 2-06 correction, made for diffusers on a tank floor; bubble contact uses Higbie penetration theory for air drawn into a turbulent throat and diffuser. Both approach saturation exponentially and neither can pass it.',
+    atSummerLowFlow: {
+      fieldTransfer: { unitOutlet_mgL: ft.unitFieldTransfer_mgL, downstream_mgL: ft.withSchemeFieldTransfer_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? ft.withSchemeFieldTransfer_mgL - ft.withoutScheme_mgL : 0 },
+      bubbleContact: { unitOutlet_mgL: ft.unitBubbleContact_mgL, downstream_mgL: ft.withSchemeBubbleContact_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? ft.withSchemeBubbleContact_mgL - ft.withoutScheme_mgL : 0 },
+    },
+  }
+
+  return {
+    summary: {
+      annualEnergy_MWh: energy.annualEnergyMWh,
+      capacityFactor: energy.capacityFactor,
+      fullLoadHours: energy.fullLoadHours,
+      ratedPower_kW: ratingW / 1000,
+      ratingSizedToDesign: s.ratingSizedToDesign,
+      meanAirFlow_m3s: mean(grid.map((g) => g.airFlow_m3s)),
+      peakAirFlow_m3s: Math.max(0, ...grid.map((g) => g.airFlow_m3s)),
+      minCavitationMargin_m: worst ? worst.cavitationMargin_m : null,
+      minCavitationIndex: sigmas.length ? Math.min(...sigmas) : null,
+      maxUnitTotalDissolvedGas: maxTdg,
+      netOxygenGainSummerLowFlow_mgL: slfState.oxygen.netGain_mgL,
+      summerLowFlow: slf,
+      lcoe: money.lcoe,
+      flags,
+    },
+    perFlow,
+    months,
+    methods,
+    hydrology: {
+      ...fdcStats(h.fdc), reservedFlow_m3s: reserved, basis: h.days ? 'record' : 'fdc',
+      daysWithData: h.days ? h.fdc.count : null,
+    },
+    money,
+    defaultsUsed: defaultsUsed(input),
+    engineVersion: ENGINE_VERSION,
+  }
+}
+
+interface FlagContext {
+  s: Scheme
+  worst: FlowState | null
+  tdgWorst: FlowState | null
+  maxTdg: number
+  months: MonthRow[]
+  slfGain: number
+  slf: SummerLowFlow
+  energy: AnnualEnergy
+  grid: FlowState[]
+}
+
+function buildFlags(c: FlagContext): Flag[] {
+  const st = c.s.input.settings
+  const thr = st.minCavitationMargin_m
+  const flags: Flag[] = []
+
+  if (c.worst === null) {
+    flags.push({ id: 'cavitation', raised: false, safety: true, reason: 'The units never run, so the throat never sees suction.' })
+  } else {
+    const w = c.worst
+    const raised = w.cavitationMargin_m < thr
+    flags.push({
+      id: 'cavitation', raised, safety: true,
+      reason: raised
+        ? `At ${fmt(w.riverFlow_m3s)} m³/s river flow the throat would hold ${fmt(w.suction_m)} m of suction with the air valve shut, leaving only ${fmt(w.cavitationMargin_m)} m before the water boils (keep at least ${fmt(thr)} m, common practice). The throat can cavitate: set it deeper or lower the head it works on.`
+        : `The smallest cavitation margin is ${fmt(w.cavitationMargin_m)} m (at ${fmt(w.riverFlow_m3s)} m³/s), above the ${fmt(thr)} m kept as a minimum.`,
+    })
+  }
+
+  const tdgRaised = c.maxTdg > st.tdgLimit
+  flags.push({
+    id: 'gas-supersaturation', raised: tdgRaised, safety: true,
+    reason: c.tdgWorst === null
+      ? 'The units never run, so they add no dissolved gas.'
+      : tdgRaised
+        ? `Water leaving the units could carry ${fmt(c.maxTdg * 100, 0)} % total dissolved gas (at ${fmt(c.tdgWorst.riverFlow_m3s)} m³/s), above the ${fmt(st.tdgLimit * 100, 0)} % limit. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
+        : `Water leaving the units carries at most ${fmt(c.maxTdg * 100, 0)} % total dissolved gas, within the ${fmt(st.tdgLimit * 100, 0)} % limit.`,
+  })
+
+  const below = c.months.filter((m) => m.flags.includes('oxygen-below-target'))
+  flags.push({
+    id: 'oxygen-below-target', raised: below.length > 0, safety: false,
+    reason: below.length > 0
+      ? `Below the weir the river stays under the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target in ${below.map((m) => m.name).join(', ')}, even with the scheme.`
+      : `Below the weir the river meets the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target in every month.`,
+  })
+
+  const losing = c.months.filter((m) => m.flags.includes('net-oxygen-loss'))
+  const slfLoss = c.slfGain < -NET_LOSS_TOLERANCE_mgL
+  const lossRaised = losing.length > 0 || slfLoss
+  const worstLoss = Math.min(c.slfGain, ...c.months.map((m) => m.netGain_mgL))
+  flags.push({
+    id: 'net-oxygen-loss', raised: lossRaised, safety: true,
+    reason: lossRaised
+      ? `With the scheme the river would carry less oxygen than without it (down to ${fmt(worstLoss)} mg/L${losing.length ? ` in ${losing.map((m) => m.name).join(', ')}` : ' at summer low flow'}): water taken through the units misses the aeration it gets falling over the weir, and the units do not give it back.`
+      : `The scheme never leaves the river with less oxygen than the weir alone gives (summer low flow: ${c.slfGain >= 0 ? '+' : ''}${fmt(c.slfGain)} mg/L).`,
+  })
+
+  const never = !(c.energy.annualEnergyMWh > 0)
+  flags.push({
+    id: 'head-limited-never-runs', raised: never, safety: false,
+    reason: never ? neverRunsReason(c.s, c.grid) : `The units make ${fmt(c.energy.annualEnergyMWh, 1)} MWh in an average year.`,
+  })
+  return flags
+}

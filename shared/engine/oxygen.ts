@@ -1,0 +1,211 @@
+// Oxygen: transfer in the units, aeration over the existing weir, mixing downstream, total dissolved gas.
+import { G, N2_AR_MOLE_FRACTION, O2_MASS_FRACTION, O2_MOLE_FRACTION, P_STD, T_ZERO_C } from './constants'
+import { nitrogenSaturation, oxygenSaturation, vapourPressureAtm } from './oxygenSaturation'
+import { waterViscosity } from './water'
+
+/** A tabulated coefficient with its origin. */
+export interface ClassValue {
+  readonly value: number
+  readonly label: string
+  readonly source: string
+}
+
+const BE = 'Butts & Evans (1983), J. Environ. Eng. 109(1)'
+
+/** Water-quality factor a of the weir formula, by class (Butts & Evans 1983). */
+export const WATER_QUALITY_A = {
+  'clean': { value: 1.8, label: 'Clean', source: BE },
+  'slightly-polluted': { value: 1.6, label: 'Slightly polluted', source: BE },
+  'moderately-polluted': { value: 1.0, label: 'Moderately polluted', source: BE },
+  'grossly-polluted': { value: 0.65, label: 'Grossly polluted', source: BE },
+} as const satisfies Record<string, ClassValue>
+
+/** Name of a water-quality class. */
+export type WaterQualityClass = keyof typeof WATER_QUALITY_A
+
+/** Structure (weir shape) factor b of the weir formula, by class (Butts & Evans 1983). */
+export const WEIR_SHAPE_B = {
+  'flat-broad-crested-regular-step': { value: 0.7, label: 'Flat broad-crested, regular step', source: `${BE} (table from memory)` },
+  'flat-broad-crested-irregular-step': { value: 0.8, label: 'Flat broad-crested, irregular step', source: `${BE} (table from memory)` },
+  'flat-broad-crested-vertical-face': { value: 0.6, label: 'Flat broad-crested, vertical face', source: `${BE} (table from memory)` },
+  'flat-broad-crested-straight-slope': { value: 0.75, label: 'Flat broad-crested, straight slope face', source: `${BE} (table from memory)` },
+  'flat-broad-crested-curved-face': { value: 0.45, label: 'Flat broad-crested, curved face', source: `${BE} (table from memory)` },
+  'round-broad-crested-curved-face': { value: 0.75, label: 'Round broad-crested, curved face', source: `${BE} (table from memory)` },
+  'sharp-crested-straight-slope': { value: 1.05, label: 'Sharp-crested, straight slope face', source: `${BE} (1.00 in another table)` },
+  'sharp-crested-vertical-face': { value: 0.8, label: 'Sharp-crested, vertical face', source: BE },
+  'sluice-gate-submerged': { value: 0.05, label: 'Sluice gate, submerged discharge', source: BE },
+} as const satisfies Record<string, ClassValue>
+
+/** Name of a weir-shape class. */
+export type WeirShapeClass = keyof typeof WEIR_SHAPE_B
+
+/** Fall beyond which the weir formula is not extrapolated (H(1 − 0.11H) peaks at about 4.5 m). */
+export const WEIR_FORMULA_MAX_FALL_m = 4.5
+
+/** Weir deficit ratio r = 1 + 0.38·a·b·H·(1 − 0.11H)·(1 + 0.046T), H in m clamped to 0–4.5, T in °C (Butts & Evans 1983; Gameson 1957). */
+export function weirDeficitRatio(a: number, b: number, fall_m: number, tC: number): number {
+  const H = Math.min(Math.max(0, fall_m), WEIR_FORMULA_MAX_FALL_m)
+  return 1 + 0.38 * a * b * H * (1 - 0.11 * H) * (1 + 0.046 * tC)
+}
+
+/** Concentration below a weir from the deficit ratio, C_d = C_s − (C_s − C_u)/r, mg/L (definition of r, river water-quality modelling). */
+export function downstreamFromDeficitRatio(Cs: number, Cu: number, r: number): number {
+  return r > 0 ? Cs - (Cs - Cu) / r : Cu
+}
+
+/** Exponential approach to saturation C_out = C* − (C* − C_in)·e^(−x); never passes C* (first-order transfer). */
+export function exponentialApproach(cStar: number, cIn: number, x: number): number {
+  return cStar - (cStar - cIn) * Math.exp(-Math.max(0, x))
+}
+
+/** Oxygen mass flow carried by an air mass flow, ṁ_O₂ = 0.2314·ṁ_air, kg/s (composition of dry air). */
+export function oxygenSupply(airMassFlow_kgs: number): number {
+  return O2_MASS_FRACTION * Math.max(0, airMassFlow_kgs)
+}
+
+/** Saturation in the unit at mid-submergence, C* = β·C_s(T, p_atm + ρg·d/2, S), mg/L (ASCE/EWRI 2-06 effective mid-depth saturation). */
+export function unitSaturation(tC: number, p_atm: number, rho: number, submergence_m: number, beta: number, salinity_gkg: number): number {
+  return beta * oxygenSaturation(tC, p_atm + (rho * G * Math.max(0, submergence_m)) / 2, salinity_gkg)
+}
+
+/** Inputs of the field-transfer method. */
+export interface FieldTransferInput {
+  cIn_mgL: number
+  tC: number
+  unitFlow_m3s: number
+  airMassFlow_kgs: number
+  submergence_m: number
+  sotePerMetre: number
+  alpha: number
+  beta: number
+  theta: number
+  p_atm: number
+  rho: number
+  salinity_gkg: number
+}
+
+/** Result of a transfer method for one unit. */
+export interface TransferResult {
+  cStar_mgL: number
+  cOut_mgL: number
+  /** Exponent of the approach (φ or K_L·a·t). */
+  exponent: number
+  /** Fraction of the deficit to C* removed, 1 − e^(−exponent) after any cap. */
+  fractionApproached: number
+  /** O₂ mass transferred, kg/s. */
+  transfer_kgs: number
+}
+
+/** Field transfer as an exponential approach, φ = SOTR·α·θ^(T−20)/(C*₂₀·Q_u), SOTR = SOTE·ṁ_O₂ (ASCE/EWRI 2-06 field correction; ENGINE §5). */
+export function fieldTransfer(f: FieldTransferInput): TransferResult {
+  const cStar = unitSaturation(f.tC, f.p_atm, f.rho, f.submergence_m, f.beta, f.salinity_gkg)
+  if (!(f.unitFlow_m3s > 0)) return { cStar_mgL: cStar, cOut_mgL: f.cIn_mgL, exponent: 0, fractionApproached: 0, transfer_kgs: 0 }
+  const cStar20 = oxygenSaturation(20, P_STD + (f.rho * G * Math.max(0, f.submergence_m)) / 2, f.salinity_gkg) * 1e-3
+  const sote = Math.min(1, Math.max(0, f.sotePerMetre * f.submergence_m))
+  const sotr = sote * oxygenSupply(f.airMassFlow_kgs)
+  const phi = cStar20 > 0 ? (sotr * f.alpha * f.theta ** (f.tC - 20)) / (cStar20 * f.unitFlow_m3s) : 0
+  const cOut = exponentialApproach(cStar, f.cIn_mgL, phi)
+  return {
+    cStar_mgL: cStar, cOut_mgL: cOut, exponent: phi, fractionApproached: 1 - Math.exp(-phi),
+    transfer_kgs: (cOut - f.cIn_mgL) * 1e-3 * f.unitFlow_m3s,
+  }
+}
+
+/** Diffusivity of O₂ in water, D(T) = D₂₀·(T/293.15 K)·μ(20 °C)/μ(T), m²/s (Stokes–Einstein scaling; D₂₀ from memory). */
+export function oxygenDiffusivity(tC: number, d20: number): number {
+  return d20 * ((tC + T_ZERO_C) / 293.15) * (waterViscosity(20) / waterViscosity(tC))
+}
+
+/** Liquid-film coefficient K_L = 2·√(D/(π·t_c)), t_c = d_b/u_slip, m/s (Higbie 1935 penetration theory). */
+export function higbieFilmCoefficient(diffusivity: number, bubbleDiameter_m: number, slipVelocity_ms: number): number {
+  if (!(bubbleDiameter_m > 0) || !(slipVelocity_ms > 0) || !(diffusivity > 0)) return 0
+  const tc = bubbleDiameter_m / slipVelocity_ms
+  return 2 * Math.sqrt(diffusivity / (Math.PI * tc))
+}
+
+/** Inputs of the bubble-contact method. */
+export interface BubbleContactInput {
+  cIn_mgL: number
+  cStar_mgL: number
+  tC: number
+  unitFlow_m3s: number
+  /** Free-air flow, m³/s. */
+  airFlow_m3s: number
+  airMassFlow_kgs: number
+  bubbleDiameter_m: number
+  slipVelocity_ms: number
+  diffusivity20: number
+  contactTime_s: number
+}
+
+/** Bubble-contact transfer C_out = C* − (C* − C_in)·e^(−K_L·a·t), a = 6ε/d_b, ε = Q_a/(Q_a + Q_u), capped at the O₂ supplied (Higbie 1935; ENGINE §5). */
+export function bubbleContact(b: BubbleContactInput): TransferResult & { voidFraction: number, interfacialArea_m2m3: number, filmCoefficient_ms: number } {
+  const zero = { cStar_mgL: b.cStar_mgL, cOut_mgL: b.cIn_mgL, exponent: 0, fractionApproached: 0, transfer_kgs: 0, voidFraction: 0, interfacialArea_m2m3: 0, filmCoefficient_ms: 0 }
+  if (!(b.unitFlow_m3s > 0) || !(b.airFlow_m3s > 0) || !(b.bubbleDiameter_m > 0)) return zero
+  const eps = b.airFlow_m3s / (b.airFlow_m3s + b.unitFlow_m3s)
+  const a = (6 * eps) / b.bubbleDiameter_m
+  const kl = higbieFilmCoefficient(oxygenDiffusivity(b.tC, b.diffusivity20), b.bubbleDiameter_m, b.slipVelocity_ms)
+  const x = kl * a * Math.max(0, b.contactTime_s)
+  let cOut = exponentialApproach(b.cStar_mgL, b.cIn_mgL, x)
+  const maxRise = (oxygenSupply(b.airMassFlow_kgs) / b.unitFlow_m3s) * 1e3
+  if (cOut - b.cIn_mgL > maxRise) cOut = b.cIn_mgL + maxRise
+  const deficit = b.cStar_mgL - b.cIn_mgL
+  return {
+    cStar_mgL: b.cStar_mgL, cOut_mgL: cOut, exponent: x,
+    fractionApproached: deficit !== 0 ? (cOut - b.cIn_mgL) / deficit : 1 - Math.exp(-x),
+    transfer_kgs: (cOut - b.cIn_mgL) * 1e-3 * b.unitFlow_m3s,
+    voidFraction: eps, interfacialArea_m2m3: a, filmCoefficient_ms: kl,
+  }
+}
+
+/** Contact time in the diffuser and the tail-pool plume, t = L_d/(Q_u/Ā) + t_plume, s, with Ā the mean of throat and outlet areas. */
+export function contactTime(diffuserLength_m: number, unitFlow_m3s: number, throatArea_m2: number, outletArea_m2: number, plumeTime_s: number): number {
+  const aMean = (throatArea_m2 + outletArea_m2) / 2
+  const inDiffuser = unitFlow_m3s > 0 && aMean > 0 ? Math.max(0, diffuserLength_m) / (unitFlow_m3s / aMean) : 0
+  return inDiffuser + Math.max(0, plumeTime_s)
+}
+
+/** Length of a conical diffuser L = (D_o − D_t)/(2·tan θ_half), m (geometry). */
+export function diffuserLength(throatDiameter_m: number, outletDiameter_m: number, halfAngle_deg: number): number {
+  const t = Math.tan((halfAngle_deg * Math.PI) / 180)
+  return t > 0 ? Math.max(0, outletDiameter_m - throatDiameter_m) / (2 * t) : 0
+}
+
+/** One stream in a mix. */
+export interface Stream {
+  flow_m3s: number
+  conc_mgL: number
+}
+
+/** Flow-weighted mix ΣQC/ΣQ, mg/L (mass balance); the fallback when no water flows. */
+export function mixStreams(streams: ReadonlyArray<Stream>, fallback_mgL: number): number {
+  let q = 0
+  let m = 0
+  for (const s of streams) {
+    if (s.flow_m3s > 0) {
+      q += s.flow_m3s
+      m += s.flow_m3s * s.conc_mgL
+    }
+  }
+  return q > 0 ? m / q : fallback_mgL
+}
+
+/** Total dissolved gas as a fraction of barometric pressure, [(P − p_wv)(x_O₂σ_O₂ + x_N₂σ_N₂) + p_wv]/P with σ = C/C_s at the surface (Dalton's and Henry's laws; N₂ + Ar lumped, from memory). */
+export function totalDissolvedGas(tC: number, p_atm: number, o2Saturation: number, n2Saturation: number): number {
+  const P = p_atm / P_STD
+  if (!(P > 0)) return 0
+  const pwv = Math.min(vapourPressureAtm(tC), P)
+  return ((P - pwv) * (O2_MOLE_FRACTION * o2Saturation + N2_AR_MOLE_FRACTION * n2Saturation) + pwv) / P
+}
+
+/** Dissolved N₂ in a unit's discharge, treated like O₂: the same fraction of the deficit to β·C_s,N₂ at mid-submergence is removed, mg/L (ENGINE §5). */
+export function unitNitrogen(
+  tC: number, p_atm: number, rho: number, submergence_m: number, beta: number, salinity_gkg: number,
+  upstreamSaturation: number, fractionApproached: number,
+): { cIn_mgL: number, cOut_mgL: number, surfaceSaturation_mgL: number } {
+  const sat = nitrogenSaturation(tC, p_atm, salinity_gkg)
+  const cIn = upstreamSaturation * sat
+  const cStar = beta * nitrogenSaturation(tC, p_atm + (rho * G * Math.max(0, submergence_m)) / 2, salinity_gkg)
+  const f = Math.min(1, Math.max(0, fractionApproached))
+  return { cIn_mgL: cIn, cOut_mgL: cIn + (cStar - cIn) * f, surfaceSaturation_mgL: sat }
+}

@@ -1,0 +1,179 @@
+// The input of one assessment and of a design sweep; shared by the API routes, the forms and the engine.
+import { z } from 'zod'
+import { DEFAULTS } from '../engine/defaults'
+import { MONEY_DEFAULTS } from '../engine/money'
+import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
+
+const num = z.number({ error: 'must be a number' })
+const nonNegative = num.min(0, 'must be 0 or more')
+const positive = num.positive('must be more than 0')
+const fraction = num.min(0, 'must be between 0 and 1').max(1, 'must be between 0 and 1')
+const d = <K extends keyof typeof DEFAULTS>(k: K): number => DEFAULTS[k].value
+
+const WATER_QUALITY = Object.keys(WATER_QUALITY_A) as [WaterQualityClass, ...WaterQualityClass[]]
+const WEIR_SHAPE = Object.keys(WEIR_SHAPE_B) as [WeirShapeClass, ...WeirShapeClass[]]
+
+/** One month of site conditions, January first. */
+export const MonthInputSchema = z.object({
+  temperature_C: num.min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
+  upstreamOxygen_mgL: num.min(0, 'must be 0 or more').max(30, 'must be 30 mg/L or less'),
+  /** Month's flow, used with an entered FDC (a record gives its own). */
+  flow_m3s: nonNegative.optional(),
+})
+
+/** One entered FDC point, exceedance in % of time. */
+export const FdcPointSchema = z.object({
+  exceedance: num.min(0).max(100, 'must be 100 % or less'),
+  flow: nonNegative,
+})
+
+/** One day of a gauged record; null flow marks a gap. */
+export const DailyFlowSchema = z.object({
+  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD'),
+  flow: nonNegative.nullable(),
+})
+
+/** Hydrology: entered FDC points or a daily record, optionally scaled from a gauge by catchment area. */
+export const HydrologyInputSchema = z.discriminatedUnion('kind', [
+  z.object({
+    kind: z.literal('fdc'),
+    points: z.array(FdcPointSchema).min(3, 'an FDC needs at least 3 points').max(500),
+  }).superRefine((h, ctx) => {
+    h.points.forEach((p, i) => {
+      const prev = h.points[i - 1]
+      if (prev && p.exceedance <= prev.exceedance) ctx.addIssue({ code: 'custom', path: ['points', i, 'exceedance'], message: 'points must be sorted by rising exceedance, without repeats' })
+      if (prev && p.flow > prev.flow) ctx.addIssue({ code: 'custom', path: ['points', i, 'flow'], message: 'flow must not rise as exceedance rises' })
+    })
+  }),
+  z.object({
+    kind: z.literal('record'),
+    days: z.array(DailyFlowSchema).min(1, 'the record needs at least one day').max(80000, 'the record is too long'),
+  }),
+])
+
+/** Catchment areas for the area-ratio method. */
+export const GaugeScalingSchema = z.object({
+  siteArea_km2: positive,
+  gaugeArea_km2: positive,
+})
+
+/** Reserved (hands-off) flow: fixed, or the flow at a named exceedance. */
+export const ReservedFlowInputSchema = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('fixed'), flow: nonNegative }),
+  z.object({ kind: z.literal('percentile'), exceedance: num.min(0).max(100) }),
+])
+
+/** The site: head, altitude, water and its months. */
+export const SiteInputSchema = z.object({
+  altitude_m: num.min(-100).max(5000, 'must be 5000 m or less').default(0),
+  /** Gross head at the weir (head pool to tail pool) at ordinary flows, m. */
+  grossHead_m: nonNegative.max(30, 'must be 30 m or less'),
+  /** Gross head against river flow where the tailwater rises in floods. */
+  headTable: z.array(z.object({ flow_m3s: nonNegative, head_m: nonNegative.max(30) })).max(50).default([]),
+  salinity_gkg: nonNegative.max(40).default(d('salinity')),
+  months: z.array(MonthInputSchema).length(12, 'needs 12 months, January first'),
+  waterQuality: z.enum(WATER_QUALITY).default('clean'),
+  weirShape: z.enum(WEIR_SHAPE).default('sharp-crested-vertical-face'),
+})
+
+/** The air pipe of each unit. */
+export const AirInputSchema = z.object({
+  pipeDiameter_m: positive.max(5),
+  pipeLength_m: nonNegative.max(500),
+  pipeLossK: nonNegative.max(50).default(d('airPipeLossK')),
+  frictionFactor: nonNegative.max(0.2).default(d('airPipeFrictionFactor')),
+  jetPumpEfficiency: fraction.default(d('jetPumpEfficiency')),
+  maxGasLiquidRatio: positive.max(10).default(d('maxGasLiquidRatio')),
+})
+
+/** The air turbine and generator of each unit. */
+export const TurbineInputSchema = z.object({
+  efficiency: fraction.default(d('turbineEfficiency')),
+  generatorEfficiency: fraction.default(d('generatorEfficiency')),
+  /** Electrical rating per unit, kW; null sizes it to the design point. */
+  ratedPower_kW: positive.max(100000).nullable().default(null),
+  cutInFraction: fraction.default(d('turbineCutInFraction')),
+})
+
+/** Costs of an option (all defaults illustrative). */
+export const CostInputSchema = z.object({
+  fixedCost: nonNegative.default(MONEY_DEFAULTS.fixedCost.value),
+  costPerKw: nonNegative.default(MONEY_DEFAULTS.costPerKw.value),
+  civilsPerUnit: nonNegative.default(MONEY_DEFAULTS.civilsPerUnit.value),
+})
+
+/** One design option. */
+export const OptionInputSchema = z.object({
+  units: num.int('must be a whole number').min(1, 'needs at least 1 unit').max(50),
+  constriction: z.enum(['venturi', 'short-nozzle', 'sharp-plate']).default('venturi'),
+  throatDiameter_m: positive.max(10),
+  outletDiameter_m: positive.max(20),
+  /** Depth of the throat centreline below the tail-pool surface, m. */
+  throatDepth_m: nonNegative.max(30),
+  inletLoss: nonNegative.max(5).default(d('inletLoss')),
+  /** Defaults by constriction type when left out. */
+  diffuserEfficiency: fraction.optional(),
+  /** Defaults by constriction type when left out. */
+  flowCoefficient: num.positive().max(1, 'must be 1 or less').optional(),
+  /** Defaults to a cone of the default half-angle when left out. */
+  diffuserLength_m: positive.max(200).optional(),
+  minUnitFlowFraction: fraction.default(d('minUnitFlowFraction')),
+  staging: z.enum(['sequential', 'shared']).default('sequential'),
+  air: AirInputSchema,
+  turbine: TurbineInputSchema.prefault({}),
+  costs: CostInputSchema.prefault({}),
+}).refine((o) => o.outletDiameter_m >= o.throatDiameter_m, { path: ['outletDiameter_m'], message: 'must be at least the throat diameter' })
+
+/** Engine settings; every one has a default with its origin in engine/defaults.ts. */
+export const SettingsInputSchema = z.object({
+  availability: fraction.default(d('availability')),
+  minCavitationMargin_m: nonNegative.max(10).default(d('minCavitationMargin')),
+  sotePerMetre: nonNegative.max(0.3).default(d('sotePerMetre')),
+  alpha: fraction.default(d('alpha')),
+  beta: fraction.default(d('beta')),
+  theta: num.min(1).max(1.1).default(d('theta')),
+  oxygenTarget_mgL: nonNegative.max(20).default(d('oxygenTarget')),
+  tdgLimit: num.min(1).max(2).default(d('tdgLimit')),
+  upstreamNitrogenSaturation: nonNegative.max(2).default(d('upstreamNitrogenSaturation')),
+  bubbleDiameter_m: positive.max(0.05).default(d('bubbleDiameter')),
+  slipVelocity_ms: positive.max(2).default(d('slipVelocity')),
+  oxygenDiffusivity20: positive.max(1e-8).default(d('oxygenDiffusivity20')),
+  plumeTime_s: nonNegative.max(600).default(d('plumeTime')),
+  diffuserHalfAngle_deg: num.positive().max(45).default(d('diffuserHalfAngle')),
+  airTemperatureOffset_K: num.min(-30).max(30).default(d('airTemperatureOffset')),
+  oxygenMethod: z.enum(['field-transfer', 'bubble-contact']).default('field-transfer'),
+  discountRate: num.min(0).max(0.5).default(MONEY_DEFAULTS.discountRate.value),
+  lifeYears: positive.max(100).default(MONEY_DEFAULTS.lifeYears.value),
+  opexFraction: fraction.default(MONEY_DEFAULTS.opexFraction.value),
+  exportPrice: nonNegative.default(MONEY_DEFAULTS.exportPrice.value),
+  gridFactor: nonNegative.max(2).default(MONEY_DEFAULTS.gridFactor.value),
+})
+
+/** Everything one assessment needs. */
+export const AssessInputSchema = z.object({
+  site: SiteInputSchema,
+  hydrology: HydrologyInputSchema,
+  gaugeScaling: GaugeScalingSchema.nullable().default(null),
+  reservedFlow: ReservedFlowInputSchema.default({ kind: 'percentile', exceedance: 95 }),
+  option: OptionInputSchema,
+  settings: SettingsInputSchema.prefault({}),
+})
+
+/** A parsed assessment input, defaults filled in. */
+export type AssessInput = z.infer<typeof AssessInputSchema>
+/** An assessment input as a caller may write it, defaults optional. */
+export type AssessInputDraft = z.input<typeof AssessInputSchema>
+
+const MAX_SWEEP_POINTS = 400
+
+/** Grid of a design sweep: throat diameter × number of units × submergence. */
+export const SweepGridSchema = z.object({
+  throatDiameters_m: z.array(positive.max(10)).min(1).max(30),
+  units: z.array(num.int().min(1).max(50)).min(1).max(30),
+  throatDepths_m: z.array(nonNegative.max(30)).min(1).max(30),
+}).refine((g) => g.throatDiameters_m.length * g.units.length * g.throatDepths_m.length <= MAX_SWEEP_POINTS, {
+  message: `a sweep may have at most ${MAX_SWEEP_POINTS} points`,
+})
+
+/** A parsed sweep grid. */
+export type SweepGrid = z.infer<typeof SweepGridSchema>

@@ -1,0 +1,45 @@
+// Invented demo site for engine tests (illustrative numbers, no real place).
+import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
+
+export const TEMPS = [4, 5, 7, 9, 12, 15, 17, 17, 14, 11, 7, 5]
+export const UPSTREAM_O2 = [12, 11.8, 11.2, 10.6, 9.8, 8.8, 8.0, 7.9, 8.6, 9.6, 10.8, 11.6]
+
+/** A plausible low-head site with two venturi units, overridable piecewise. */
+export function draft(): AssessInputDraft {
+  return {
+    site: {
+      altitude_m: 120,
+      grossHead_m: 2,
+      months: TEMPS.map((t, i) => ({ temperature_C: t, upstreamOxygen_mgL: UPSTREAM_O2[i] ?? 9 })),
+    },
+    hydrology: {
+      kind: 'fdc',
+      points: [{ exceedance: 1, flow: 40 }, { exceedance: 10, flow: 14 }, { exceedance: 50, flow: 4 }, { exceedance: 95, flow: 0.9 }, { exceedance: 99, flow: 0.5 }],
+    },
+    option: { units: 2, throatDiameter_m: 0.6, outletDiameter_m: 1.2, throatDepth_m: 1.5, air: { pipeDiameter_m: 0.5, pipeLength_m: 10 } },
+  }
+}
+
+/** Parse a draft with defaults filled. */
+export function parse(d: AssessInputDraft): AssessInput {
+  return AssessInputSchema.parse(d)
+}
+
+/** Consecutive days from 2001-01-01 with flows from a function of the month (1–12). */
+export function yearOfDays(flowOfMonth: (month: number) => number | null): Array<{ date: string, flow: number | null }> {
+  const out: Array<{ date: string, flow: number | null }> = []
+  const start = Date.UTC(2001, 0, 1)
+  for (let i = 0; i < 365; i++) {
+    const d = new Date(start + i * 86400000)
+    out.push({ date: d.toISOString().slice(0, 10), flow: flowOfMonth(d.getUTCMonth() + 1) })
+  }
+  return out
+}
+
+/** Every number inside a value, with its path. */
+export function numbersIn(v: unknown, path = '$'): Array<[string, number]> {
+  if (typeof v === 'number') return [[path, v]]
+  if (Array.isArray(v)) return v.flatMap((x, i) => numbersIn(x, `${path}[${i}]`))
+  if (v !== null && typeof v === 'object') return Object.entries(v).flatMap(([k, x]) => numbersIn(x, `${path}.${k}`))
+  return []
+}

@@ -1,0 +1,86 @@
+import { describe, expect, it } from 'vitest'
+import { assess } from '../../../shared/engine/assess'
+import { sensitivity } from '../../../shared/engine/sensitivity'
+import { sweep, withDesign } from '../../../shared/engine/sweep'
+import { SweepGridSchema } from '../../../shared/schemas/assess'
+import { draft, numbersIn, parse } from './fixtures'
+
+describe('sweep', () => {
+  // a submerged sluice gate aerates little (Butts & Evans b = 0.05), so the units can add oxygen
+  const d0 = draft()
+  d0.site = { ...d0.site, weirShape: 'sluice-gate-submerged' }
+  const input = parse(d0)
+  const grid = SweepGridSchema.parse({ throatDiameters_m: [0.4, 0.6, 0.8], units: [1, 2], throatDepths_m: [0.5, 1.5, 4] })
+  const r = sweep(input, grid)
+  it('runs every grid point', () => {
+    expect(r.points).toHaveLength(3 * 2 * 3)
+    const keys = new Set(r.points.map((p) => `${p.throatDiameter_m}/${p.units}/${p.throatDepth_m}`))
+    expect(keys.size).toBe(18)
+  })
+  it('each point equals a direct assessment of that design', () => {
+    const p = r.points[7]
+    expect(p).toBeDefined()
+    if (!p) return
+    const direct = assess(withDesign(input, p.throatDiameter_m, p.units, p.throatDepth_m)).summary
+    expect(p.annualEnergy_MWh).toBe(direct.annualEnergy_MWh)
+    // the outlet keeps the area ratio of the option
+    expect(p.outletDiameter_m / p.throatDiameter_m).toBeCloseTo(1.2 / 0.6, 12)
+  })
+  it('picks the most energy among points with every safety flag clear', () => {
+    const clear = r.points.filter((p) => p.safe && p.annualEnergy_MWh > 0)
+    expect(clear.length).toBeGreaterThan(0)
+    expect(r.best).not.toBeNull()
+    const max = Math.max(...clear.map((p) => p.annualEnergy_MWh))
+    expect(r.best?.annualEnergy_MWh).toBe(max)
+    expect(r.best?.raisedFlags).not.toContain('cavitation')
+    expect(r.best?.raisedFlags).not.toContain('gas-supersaturation')
+    expect(r.best?.raisedFlags).not.toContain('net-oxygen-loss')
+  })
+  it('gives no best option when every point loses oxygen, and says so', () => {
+    // a sharp-crested weir with a 2 m fall aerates well; the units lose that aeration
+    const none = sweep(parse(draft()), grid)
+    expect(none.points.every((p) => p.raisedFlags.includes('net-oxygen-loss'))).toBe(true)
+    expect(none.best).toBeNull()
+    expect(none.reason).toMatch(/None of the 18 options/)
+  })
+  it('the deepest throat never makes more energy than the shallowest', () => {
+    // more submergence → less suction (Bernoulli), and less useful compression: energy falls
+    for (const dt of grid.throatDiameters_m) {
+      for (const n of grid.units) {
+        const at = (d: number): number => r.points.find((p) => p.throatDiameter_m === dt && p.units === n && p.throatDepth_m === d)?.annualEnergy_MWh ?? Number.NaN
+        expect(at(4)).toBeLessThanOrEqual(at(0.5))
+      }
+    }
+  })
+  it('refuses a grid past 400 points', () => {
+    const big = { throatDiameters_m: Array.from({ length: 10 }, (_, i) => 0.2 + i * 0.1), units: [1, 2, 3, 4, 5], throatDepths_m: Array.from({ length: 9 }, (_, i) => i * 0.5) }
+    expect(SweepGridSchema.safeParse(big).success).toBe(false)
+  })
+})
+
+describe('sensitivity', () => {
+  const input = parse(draft())
+  const s = sensitivity(input, 0.2)
+  it('moves each key input by ±20 % and sorts by energy swing', () => {
+    expect(s.fraction).toBe(0.2)
+    expect(s.items.length).toBeGreaterThanOrEqual(7)
+    for (let i = 1; i < s.items.length; i++) expect(s.items[i - 1]?.energySwing_MWh).toBeGreaterThanOrEqual(s.items[i]?.energySwing_MWh ?? 0)
+    const head = s.items.find((x) => x.key === 'grossHead')
+    expect(head?.low.value).toBeCloseTo(1.6, 12)
+    expect(head?.high.value).toBeCloseTo(2.4, 12)
+    // more head → more energy
+    expect(head?.high.annualEnergy_MWh).toBeGreaterThan(head?.low.annualEnergy_MWh ?? Infinity)
+    expect(numbersIn(s).every(([, x]) => Number.isFinite(x))).toBe(true)
+  })
+  it('keeps efficiencies at or below 1', () => {
+    const d = draft()
+    d.option = { ...d.option, turbine: { efficiency: 0.95 } }
+    const t = sensitivity(parse(d)).items.find((x) => x.key === 'turbineEfficiency')
+    expect(t?.high.value).toBe(1)
+  })
+  it('a better turbine only changes energy, not oxygen', () => {
+    const t = s.items.find((x) => x.key === 'turbineEfficiency')
+    expect(t?.oxygenSwing_mgL).toBeCloseTo(0, 12)
+    expect(t?.energySwing_MWh).toBeGreaterThan(0)
+  })
+})
