@@ -1,9 +1,9 @@
 // The single entry point: one option at one site → energy, oxygen, safety flags, money.
 import type { AssessInput } from '../schemas/assess'
 import { defaultsUsed, type DefaultUsed } from './defaultsUsed'
-import { annualEnergyFromFdc, annualEnergyFromRecord, DAYS_IN_MONTH, type AnnualEnergy, type PowerAt } from './energy'
+import { annualEnergyFromFdc, annualEnergyFromRecord, DAYS_IN_MONTH, tabulatedPower, type AnnualEnergy, type PowerAt, type PowerSample } from './energy'
 import {
-  exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, monthOf, reservedFlow,
+  exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, monthOfDay, reservedFlow,
   scaleFdcByAreaRatio, scaleRecordByAreaRatio, type DailyFlow, type Fdc, type FdcStats,
 } from './hydrology'
 import { moneySummary, type MoneySummary } from './money'
@@ -145,7 +145,7 @@ function monthFlows(input: AssessInput, h: SiteHydrology): Array<{ flow: number,
     const n = new Array<number>(12).fill(0)
     h.days.forEach((d, i) => {
       if (d.flow === null) return
-      const m = monthOf(d.date, `hydrology.days[${i}].date`) - 1
+      const m = monthOfDay(d.date, i, 'hydrology.days') - 1
       sum[m] = (sum[m] ?? 0) + d.flow
       n[m] = (n[m] ?? 0) + 1
     })
@@ -170,10 +170,23 @@ function monthConditions(input: AssessInput): Conditions[] {
   return input.site.months.map((m) => ({ tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
 }
 
+/** Turbine states in a fixed order, so each has a number for the power table. */
+const TURBINE_STATES = ['stopped', 'no-suction', 'below-cut-in', 'running', 'at-rating'] as const
+
 function energyOf(input: AssessInput, h: SiteHydrology, s: Scheme, annual: Conditions, months: Conditions[]): AnnualEnergy {
-  const powerAt: PowerAt = (flow, month) => powerState(s, flow, month === 0 ? annual : (months[month - 1] ?? annual)).electricalPower_W
+  const stateAt = (flow: number, month: number): PowerSample => {
+    const p = powerState(s, flow, month === 0 ? annual : (months[month - 1] ?? annual))
+    return { power: p.electricalPower_W, state: p.unitsRunning * 8 + TURBINE_STATES.indexOf(p.turbineState) }
+  }
+  const exact: PowerAt = (flow, month) => stateAt(flow, month).power
+  // A long record has a distinct flow almost every day: tabulate power over its range instead.
+  // The FDC's flows fall as exceedance rises: the first is the highest, the last positive the lowest.
+  const flows = h.fdc.flow
+  let last = flows.length - 1
+  while (last > 0 && !((flows[last] ?? 0) > 0)) last--
   const opts = { ratingW: s.ratedPerUnit_W * input.option.units, availability: input.settings.availability }
-  return h.days ? annualEnergyFromRecord(h.days, powerAt, opts) : annualEnergyFromFdc(h.fdc, powerAt, opts)
+  if (!h.days) return annualEnergyFromFdc(h.fdc, exact, opts)
+  return annualEnergyFromRecord(h.days, tabulatedPower(stateAt, flows[last] ?? 0, flows[0] ?? 0), { ...opts, memoise: false })
 }
 
 function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {

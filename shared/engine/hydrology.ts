@@ -71,16 +71,33 @@ export const HYDROLOGY_DEFAULTS = {
 
 const DATE_RE = /^(\d{4})-(\d{2})-(\d{2})$/
 
-/** Calendar month 1–12 of a YYYY-MM-DD date (ISO 8601 calendar date); throws EngineInputError on `field`. */
+/** Month 1–12 of a well-formed `YYYY-MM-DD` date, read digit by digit; 0 when it is not one. */
+function quickMonth(date: unknown): number {
+  if (typeof date !== 'string' || date.length !== 10 || date.charCodeAt(4) !== 45 || date.charCodeAt(7) !== 45) return 0
+  const month = digit(date, 5) * 10 + digit(date, 6)
+  const day = digit(date, 8) * 10 + digit(date, 9)
+  const year = digit(date, 0) + digit(date, 1) + digit(date, 2) + digit(date, 3)
+  return year >= 0 && month >= 1 && month <= 12 && day >= 1 && day <= 31 ? month : 0
+}
+
+/** Calendar month 1–12 of a `YYYY-MM-DD` date; throws an EngineInputError on `field` otherwise. */
 export function monthOf(date: unknown, field = 'date'): number {
+  const quick = quickMonth(date)
+  if (quick) return quick
   const m = typeof date === 'string' ? DATE_RE.exec(date) : null
   if (!m) throw new EngineInputError(field, 'must be a date written YYYY-MM-DD')
-  const month = Number(m[2])
-  const day = Number(m[3])
-  if (month < 1 || month > 12 || day < 1 || day > 31) {
-    throw new EngineInputError(field, 'is not a calendar date')
-  }
-  return month
+  throw new EngineInputError(field, 'is not a calendar date')
+}
+
+/** Month of `list[index].date`, naming that path only when the date is bad (no string built per day). */
+export function monthOfDay(date: unknown, index: number, list = 'days'): number {
+  return quickMonth(date) || monthOf(date, `${list}[${index}].date`)
+}
+
+/** The decimal digit at `i`, or NaN when that character is not a digit. */
+function digit(s: string, i: number): number {
+  const c = s.charCodeAt(i) - 48
+  return c >= 0 && c <= 9 ? c : Number.NaN
 }
 
 /** FDC from entered points, flow interpolated log-linearly against exceedance, linearly where a node flow is 0 (common practice). */
@@ -173,7 +190,7 @@ export function monthlyFdcs(days: readonly DailyFlow[]): (Fdc | null)[] {
   days.forEach((d, i) => {
     const q = dayFlow(d, i, 'days')
     if (q === null) return
-    const m = monthOf(d.date, `days[${i}].date`)
+    const m = monthOfDay(d.date, i)
     months[i] = m
     counts[m - 1] = at(counts, m - 1) + 1
   })

@@ -111,9 +111,11 @@ export function fieldTransfer(f: FieldTransferInput): TransferResult {
   }
 }
 
+const MU_20 = waterViscosity(20)
+
 /** Diffusivity of O₂ in water, D(T) = D₂₀·(T/293.15 K)·μ(20 °C)/μ(T), m²/s (Stokes–Einstein scaling; D₂₀ from memory). */
 export function oxygenDiffusivity(tC: number, d20: number): number {
-  return d20 * ((tC + T_ZERO_C) / 293.15) * (waterViscosity(20) / waterViscosity(tC))
+  return d20 * ((tC + T_ZERO_C) / 293.15) * (MU_20 / waterViscosity(tC))
 }
 
 /** Liquid-film coefficient K_L = 2·√(D/(π·t_c)), t_c = d_b/u_slip, m/s (Higbie 1935 penetration theory). */

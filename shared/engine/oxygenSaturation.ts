@@ -1,4 +1,5 @@
 // Saturation concentrations of dissolved O₂ and N₂ in fresh water, mg/L.
+import { rememberLast } from './memo'
 import { P_STD, T_ZERO_C } from './constants'
 
 /** O₂ saturation at 1 atm in water-saturated air, mg/L: Benson & Krause (1984), as in APHA Standard Methods 4500-O and USGS memo WQ 2011.03; 0–40 °C. */
@@ -31,9 +32,9 @@ export function oxygenSalinityFactor(tC: number, salinity_gkg: number): number {
 }
 
 /** O₂ saturation C_s(T, p, S), mg/L: Benson & Krause (1984) with its pressure correction and salinity term (USGS memo WQ 2011.03). */
-export function oxygenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
+export const oxygenSaturation = rememberLast(function oxygenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
   return oxygenSaturation1atm(tC) * oxygenPressureFactor(tC, p_Pa) * oxygenSalinityFactor(tC, salinity_gkg)
-}
+})
 
 /** Density of N₂ gas at 0 °C and 1 atm, mg/mL (from memory). */
 const N2_MG_PER_ML = 1.2506
@@ -47,9 +48,9 @@ export function nitrogenSaturation1atm(tC: number, salinity_gkg = 0): number {
 }
 
 /** N₂ saturation at total pressure p, mg/L: Weiss (1970) scaled by the partial-pressure ratio (P − p_wv)/(1 − p_wv) (Henry's law; from memory). */
-export function nitrogenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
+export const nitrogenSaturation = rememberLast(function nitrogenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
   const P = p_Pa / P_STD
   const pwv = vapourPressureAtm(tC)
   if (P <= pwv) return 0
   return nitrogenSaturation1atm(tC, salinity_gkg) * (P - pwv) / (1 - pwv)
-}
+})
