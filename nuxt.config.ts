@@ -39,5 +39,10 @@ export default defineNuxtConfig({
   },
   nitro: {
     experimental: { tasks: false },
+    // Site attachments. server/utils/storage.ts re-mounts this on first use from UPLOADS_DIR as the
+    // running server sees it, so this build-time value is only the development default.
+    storage: {
+      uploads: { driver: 'fs', base: process.env.UPLOADS_DIR || '.data/uploads' },
+    },
   },
 })

@@ -1,3 +1,4 @@
+import type { SiteInput } from '../shared/schemas/site'
 import type { Role } from '../shared/utils/roles'
 
 // The invented demo scenario: no real organisation, river, site or person. E-mail addresses use
@@ -22,3 +23,160 @@ export const DEMO_ACCOUNTS: readonly DemoAccount[] = [
   { name: 'Elspeth Garrow', email: 'elspeth@fellside-agency.example', role: 'reviewer', story: 'environmental officer at the (invented) Fellside River Agency' },
   { name: 'Tobias Wren', email: 'tobias@brackwin-farm.example', role: 'viewer', story: 'landowner on the Brackwin Water' },
 ]
+
+// ——— Sites on the (invented) Brackwin Water ———
+// Coordinates sit on real ground but name nothing real; every figure is invented but plausible.
+
+/** One demo site: the site itself, and optionally how to make its daily flow record. */
+export interface DemoSite {
+  site: SiteInput
+  /** Generated daily flows (see `demoDailyFlows`), stored as the site's uploaded record. */
+  record?: DemoRecordSpec
+}
+
+export interface DemoRecordSpec {
+  fileName: string
+  firstDay: string
+  years: number
+  /** Long-run mean flow the seasonal curve is built around, m³/s. */
+  meanFlow: number
+  /** Starting state of the pseudo-random walk; a fixed integer so every run makes the same record. */
+  noiseStart: number
+  /** Days with no data (a gauge outage), inclusive. */
+  outage?: { from: string; to: string }
+}
+
+const months = (temps: number[], oxygen: number[], unit: 'mg/L' | '%sat') =>
+  temps.map((t, i) => ({ waterTempC: t, upstreamOxygen: { value: oxygen[i]!, unit } }))
+
+// An upland river: coldest in January–February, warmest in late July.
+const TEMPS = [4.5, 5.0, 6.5, 8.5, 11.5, 14.5, 16.5, 16.0, 13.5, 10.5, 7.0, 5.0]
+
+/** FDC of the Brackwin Water at Skelby gauging weir, m³/s (invented). */
+const SKELBY_FDC = [
+  { exceedance: 1, flow: 64 },
+  { exceedance: 5, flow: 31 },
+  { exceedance: 10, flow: 21 },
+  { exceedance: 20, flow: 13 },
+  { exceedance: 30, flow: 8.9 },
+  { exceedance: 50, flow: 4.9 },
+  { exceedance: 70, flow: 2.9 },
+  { exceedance: 80, flow: 2.2 },
+  { exceedance: 90, flow: 1.6 },
+  { exceedance: 95, flow: 1.25 },
+  { exceedance: 99, flow: 0.9 },
+]
+
+export const DEMO_SITES: readonly DemoSite[] = [
+  {
+    site: {
+      name: 'Hollin Mill weir',
+      riverName: 'Brackwin Water',
+      location: { lat: 54.5712, lng: -2.6581 },
+      reach: { type: 'LineString', coordinates: [[-2.6594, 54.5719], [-2.6586, 54.5715], [-2.6578, 54.5710], [-2.6569, 54.5706]] },
+      altitudeM: 182,
+      weir: { grossHeadM: 2.4, crestWidthM: 18, shape: 'flat-broad-crested-irregular-step', waterQuality: 'clean' },
+      headTable: [],
+      reservedFlow: { kind: 'percentile', exceedance: 95 },
+      months: months(TEMPS, [12.6, 12.4, 11.8, 11.0, 10.1, 9.3, 8.8, 8.9, 9.6, 10.4, 11.5, 12.2], 'mg/L'),
+      catchment: null,
+      fdcPoints: [],
+      targetOxygenMgL: 6,
+      notes: 'Stone weir of a former corn mill; the leat on the left bank is silted up. Twelve years of daily flows from the owner\'s own level logger, with a gap while it was repaired.',
+    },
+    record: {
+      fileName: 'hollin-mill-daily-flows.csv',
+      firstDay: '2012-01-01',
+      years: 12,
+      meanFlow: 5.2,
+      noiseStart: 40721,
+      outage: { from: '2018-07-09', to: '2018-07-20' },
+    },
+  },
+  {
+    site: {
+      name: 'Skelby gauging weir',
+      riverName: 'Brackwin Water',
+      location: { lat: 54.5604, lng: -2.635 },
+      reach: { type: 'LineString', coordinates: [[-2.6361, 54.5609], [-2.6352, 54.5605], [-2.6341, 54.5601]] },
+      altitudeM: 141,
+      weir: { grossHeadM: 1.6, crestWidthM: 22, shape: 'sharp-crested-straight-slope', waterQuality: 'clean' },
+      headTable: [],
+      reservedFlow: { kind: 'fixed', flow: 1.1 },
+      months: months(TEMPS, [99, 99, 98, 97, 95, 91, 86, 85, 89, 94, 97, 98], '%sat'),
+      catchment: null,
+      fdcPoints: SKELBY_FDC,
+      targetOxygenMgL: 6,
+      notes: 'Triangular-profile gauging weir of the (invented) Fellside River Agency; its flow-duration curve is published, the daily record is not.',
+    },
+  },
+  {
+    site: {
+      name: 'Cragg Foot drop',
+      riverName: 'Brackwin Water',
+      location: { lat: 54.5478, lng: -2.6032 },
+      reach: { type: 'LineString', coordinates: [[-2.6046, 54.5483], [-2.6038, 54.548], [-2.6029, 54.5477], [-2.6019, 54.5473], [-2.6011, 54.5471]] },
+      altitudeM: 96,
+      weir: { grossHeadM: 1.35, crestWidthM: 26, shape: 'round-broad-crested-curved-face', waterQuality: 'slightly-polluted' },
+      // The tail pool backs up in floods: the head falls as the river rises.
+      headTable: [
+        { flow: 1, head: 1.35 },
+        { flow: 5, head: 1.3 },
+        { flow: 15, head: 1.12 },
+        { flow: 30, head: 0.85 },
+        { flow: 60, head: 0.5 },
+      ],
+      reservedFlow: { kind: 'percentile', exceedance: 95 },
+      months: months(TEMPS, [11.9, 11.7, 11.1, 10.2, 9.2, 8.3, 7.6, 7.5, 8.4, 9.5, 10.8, 11.6], 'mg/L'),
+      // Below the Skelby gauge with a larger catchment: its curve scaled by area ratio.
+      catchment: { siteAreaKm2: 148, gaugeAreaKm2: 121 },
+      fdcPoints: SKELBY_FDC,
+      targetOxygenMgL: 6.5,
+      notes: 'Low concrete drop below the village outfall; summer oxygen is the concern. Flows scaled from Skelby gauging weir by catchment area.',
+    },
+  },
+]
+
+/** Next state and a value in [0, 1) of a 32-bit linear congruential walk (Numerical Recipes constants). */
+function step(state: number): [number, number] {
+  const next = (Math.imul(state, 1664525) + 1013904223) >>> 0
+  return [next, next / 4294967296]
+}
+
+/**
+ * Deterministic daily flows for a demo record: a seasonal curve (high in January, low in late July)
+ * times a log-normal pseudo-random walk with occasional spates, scaled to the wanted mean. The same
+ * spec always gives the same days; the outage days are gaps (null).
+ */
+export function demoDailyFlows(spec: DemoRecordSpec): { date: string; flow: number | null }[] {
+  const start = Date.parse(`${spec.firstDay}T00:00:00Z`)
+  const end = Date.UTC(new Date(start).getUTCFullYear() + spec.years, new Date(start).getUTCMonth(), new Date(start).getUTCDate())
+  const n = Math.round((end - start) / 86_400_000)
+  let state = spec.noiseStart >>> 0
+  let walk = 0
+  const raw = new Float64Array(n)
+  let sum = 0
+  for (let i = 0; i < n; i++) {
+    let u: number
+    let e = 0
+    for (let k = 0; k < 3; k++) {
+      ;[state, u] = step(state)
+      e += u - 0.5
+    }
+    ;[state, u] = step(state)
+    walk = 0.93 * walk + 0.22 * e + (u < 0.03 ? 0.8 : 0)
+    const t = start + i * 86_400_000
+    const dayOfYear = (t - Date.UTC(new Date(t).getUTCFullYear(), 0, 1)) / 86_400_000
+    const season = 1 + 0.6 * Math.cos((2 * Math.PI * (dayOfYear - 20)) / 365.25)
+    raw[i] = season * Math.exp(walk)
+    sum += raw[i]!
+  }
+  const factor = spec.meanFlow / (sum / n)
+  const days: { date: string; flow: number | null }[] = new Array(n)
+  for (let i = 0; i < n; i++) {
+    const date = new Date(start + i * 86_400_000).toISOString().slice(0, 10)
+    const gap = spec.outage && date >= spec.outage.from && date <= spec.outage.to
+    days[i] = { date, flow: gap ? null : Math.round(raw[i]! * factor * 1000) / 1000 }
+  }
+  return days
+}

@@ -1,13 +1,15 @@
-import type { Kysely } from 'kysely'
+import type { Kysely, Transaction } from 'kysely'
+import { fdcFromRecord, fdcStats } from '../shared/engine/hydrology'
 import type { Database } from './schema'
-import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_PASSWORD } from './demo-scenario'
+import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_PASSWORD, DEMO_SITES, demoDailyFlows, type DemoSite } from './demo-scenario'
 
 /** Hashes a password the same way the server does (nuxt-auth-utils' scrypt). */
 export type PasswordHasher = (password: string) => Promise<string>
 
 /**
- * Loads the invented demo scenario. Safe to run twice: people are matched by e-mail and the
- * organisation by name, and nothing already there is changed or duplicated.
+ * Loads the invented demo scenario. Safe to run twice: people are matched by e-mail, the
+ * organisation and its sites by name (deleted sites included), and nothing already there is
+ * changed or duplicated. `created` counts the new organisation, people, sites and flow records.
  */
 export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Promise<{ orgId: number; created: number }> {
   const passwordHash = await hash(DEMO_PASSWORD)
@@ -34,9 +36,75 @@ export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Prom
         .onConflict((oc) => oc.columns(['user_id', 'org_id']).doNothing())
         .execute()
     }
+    const engineer = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!
+    const engineerId = (await trx.selectFrom('users').select('id').where('email', '=', engineer.email).executeTakeFirstOrThrow()).id
+    for (const demo of DEMO_SITES) created += await seedSite(trx, org.id, engineerId, demo)
     if (created) {
-      await trx.insertInto('audit_log').values({ org_id: org.id, user_id: null, action: 'demo.seeded', detail: JSON.stringify({ accounts: DEMO_ACCOUNTS.length }) }).execute()
+      await trx.insertInto('audit_log').values({ org_id: org.id, user_id: null, action: 'demo.seeded', detail: JSON.stringify({ accounts: DEMO_ACCOUNTS.length, sites: DEMO_SITES.length }) }).execute()
     }
     return { orgId: org.id, created }
   })
+}
+
+/** Adds one demo site (and its generated flow record) unless the organisation has one by that name; returns the records created. */
+async function seedSite(trx: Transaction<Database>, orgId: number, userId: number, demo: DemoSite): Promise<number> {
+  const { site } = demo
+  const found = await trx.selectFrom('sites').select('id').where('org_id', '=', orgId).where('name', '=', site.name).executeTakeFirst()
+  if (found) return 0
+  const row = await trx
+    .insertInto('sites')
+    .values({
+      org_id: orgId,
+      created_by: userId,
+      name: site.name,
+      river_name: site.riverName,
+      lat: site.location.lat,
+      lng: site.location.lng,
+      altitude_m: site.altitudeM,
+      gross_head_m: site.weir.grossHeadM,
+      target_oxygen_mgl: site.targetOxygenMgL,
+      reach: site.reach ? JSON.stringify(site.reach) : null,
+      weir: JSON.stringify(site.weir),
+      head_table: JSON.stringify(site.headTable),
+      reserved_flow: JSON.stringify(site.reservedFlow),
+      months: JSON.stringify(site.months),
+      catchment: site.catchment ? JSON.stringify(site.catchment) : null,
+      fdc_points: JSON.stringify(site.fdcPoints),
+      notes: site.notes,
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow()
+  if (!demo.record) return 1
+  const days = demoDailyFlows(demo.record)
+  for (let i = 0; i < days.length; i += 2000) {
+    await trx
+      .insertInto('flow_days')
+      .values(days.slice(i, i + 2000).map((d) => ({ site_id: row.id, day: d.date, flow: d.flow })))
+      .execute()
+  }
+  const stats = fdcStats(fdcFromRecord(days))
+  await trx
+    .insertInto('flow_records')
+    .values({
+      site_id: row.id,
+      file_name: demo.record.fileName,
+      uploaded_by: userId,
+      date_column: 'date',
+      flow_column: 'flow_m3s',
+      flag_column: null,
+      date_format: 'iso',
+      day_count: days.length,
+      gap_count: days.filter((d) => d.flow === null).length,
+      first_day: days[0]!.date,
+      last_day: days.at(-1)!.date,
+      site_area_km2: null,
+      gauge_area_km2: null,
+      scale_factor: 1,
+      q95: stats.q95,
+      q50: stats.q50,
+      q10: stats.q10,
+      mean_flow: stats.mean,
+    })
+    .execute()
+  return 2
 }

@@ -1,10 +1,12 @@
 import type { Migration, MigrationProvider } from 'kysely'
 import * as m0001 from './0001_foundation'
+import * as m0002 from './0002_sites'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
 export const migrations: Record<string, Migration> = {
   '0001_foundation': m0001,
+  '0002_sites': m0002,
 }
 
 /** Kysely migration provider over the static list above. */

@@ -47,6 +47,31 @@ export class Client {
   patch<T = any>(path: string, body?: unknown) {
     return this.request<T>('PATCH', path, body ?? {})
   }
+  delete<T = any>(path: string) {
+    return this.request<T>('DELETE', path)
+  }
+  /** POSTs multipart/form-data: text `fields` plus `files` by part name; `headers` are added as given. */
+  upload<T = any>(path: string, files: Record<string, UploadFile>, fields: Record<string, string> = {}, headers?: HeadersInit) {
+    const form = new FormData()
+    for (const [name, value] of Object.entries(fields)) form.append(name, value)
+    for (const [name, f] of Object.entries(files)) form.append(name, new Blob([typeof f.data === 'string' ? f.data : new Uint8Array(f.data)], { type: f.type ?? '' }), f.name)
+    return this.request<T>('POST', path, undefined, { body: form, headers })
+  }
+  /** GETs raw bytes with the response headers (downloads). */
+  async download(path: string) {
+    const headers = new Headers()
+    if (this.cookies.size) headers.set('cookie', [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; '))
+    const res = await fetch(this.baseURL + path, { headers, redirect: 'manual' })
+    return { status: res.status, headers: res.headers, bytes: new Uint8Array(await res.arrayBuffer()) }
+  }
+}
+
+/** One file part of a multipart upload. */
+export interface UploadFile {
+  name: string
+  /** Declared content type; empty lets the client send application/octet-stream. */
+  type?: string
+  data: string | Uint8Array
 }
 
 let counter = 0

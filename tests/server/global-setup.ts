@@ -45,6 +45,7 @@ export async function setup(project: TestProject) {
       HOST: '127.0.0.1',
       NITRO_HOST: '127.0.0.1',
       DATABASE_PATH: databasePath,
+      UPLOADS_DIR: join(dir, 'uploads'),
       NUXT_SESSION_PASSWORD: 'test-only-session-password-0123456789abcdef',
     },
     stdio: ['ignore', 'pipe', 'pipe'],

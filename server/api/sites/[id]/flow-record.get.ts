@@ -1,0 +1,13 @@
+import { FlowRecordQuerySchema, SiteParamsSchema, type FlowRecordDto } from '../../../../shared/schemas/site'
+import { READER_ROLES } from '../../../../shared/utils/roles'
+
+// The stored daily flow record: its summary and the days (site flows after any scaling), optionally
+// from/to inclusive. 404 when the site has no record.
+export default defineEventHandler(async (event): Promise<FlowRecordDto> => {
+  const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
+  await requireSite(event, id, READER_ROLES)
+  const range = await getValidatedQuery(event, validator(FlowRecordQuerySchema, 'query'))
+  const record = await loadFlowRecord(id)
+  if (!record) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This site has no flow record' })
+  return { record, days: await loadSiteDays(id, record.scale, range) }
+})

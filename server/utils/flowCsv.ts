@@ -1,0 +1,331 @@
+// Reading a gauged daily flow record from CSV text: pure, no Nitro, no database, so it is unit-tested
+// in tests/unit/sites/. The route (server/api/sites/[id]/flow-record.post.ts) does the rest.
+//
+// Rules (also in docs/api.md):
+// - The first line that is neither blank nor a `#` comment is the header row; its delimiter, comma,
+//   semicolon or tab, is whichever it holds most of. With semicolons a decimal comma is accepted (`2,5`).
+// - Columns come from the caller (`dateColumn`, `flowColumn`, matched case-insensitively) or by name:
+//   date/day/datum/time…, flow/discharge/q/m3s…; with two columns, one a date, the other is the flow.
+//   Anything else is ambiguous and the caller must choose.
+// - Dates: ISO `YYYY-MM-DD` or day-first `DD/MM/YYYY`, `DD.MM.YYYY`, `DD-MM-YYYY`, each optionally
+//   followed by a time of day, which is ignored. `auto` takes the form of the first date and holds
+//   every line to it.
+// - Gaps (stored as null): a blank flow, `-`, `NA`, `N/A`, `NaN`, `null`, `none`, `missing`, `M`;
+//   a value flagged suspect by a trailing `*`, `?` or `!` (`12.3*`); or a line whose flag column
+//   (flag, qualifier, quality, qc, code or status) holds anything but blank or a good/estimated code
+//   (G, good, OK, A, approved, V, valid, E, estimated).
+// - Bad lines, every one reported by its line number in the file: a flow that is text, negative or
+//   implausibly large; a missing, malformed or impossible date; a day given twice; too few fields;
+//   in append mode, a day already stored.
+import Papa from 'papaparse'
+
+export type CsvDateFormat = 'iso' | 'day-first'
+
+/** One bad line: `line` counts from 1 at the top of the file. */
+export interface CsvLineError {
+  line: number
+  reason: string
+}
+
+export interface ParsedDay {
+  date: string
+  flow: number | null
+}
+
+export interface FlowCsvOptions {
+  dateColumn?: string
+  flowColumn?: string
+  dateFormat?: 'auto' | CsvDateFormat
+  /** Days already stored: each one in the file is an error (append mode). */
+  existingDays?: ReadonlySet<string>
+  /** Most data lines accepted. */
+  maxDays?: number
+}
+
+export type FlowCsvResult =
+  | {
+      ok: true
+      /** Sorted by date. */
+      days: ParsedDay[]
+      header: string[]
+      dateColumn: string
+      flowColumn: string
+      flagColumn: string | null
+      dateFormat: CsvDateFormat
+      delimiter: ',' | ';' | '\t'
+      gaps: number
+      flagged: number
+    }
+  | { ok: false; kind: 'columns'; header: string[]; message: string }
+  | { ok: false; kind: 'lines'; errors: CsvLineError[]; message: string }
+
+/** Largest daily flow taken as real, m³/s (beyond any river's recorded flood). */
+export const MAX_PLAUSIBLE_FLOW = 1_000_000
+
+const DATE_WORDS = new Set(['date', 'day', 'datum', 'dato', 'fecha', 'time', 'datetime', 'timestamp', 'dates', 'days'])
+const FLOW_WORDS = new Set(['flow', 'flows', 'discharge', 'q', 'qmean', 'm3s', 'm3/s', 'streamflow', 'abfluss', 'debit', 'caudal', 'portata', 'cumecs'])
+const FLAG_WORDS = new Set(['flag', 'flags', 'qualifier', 'qualifiers', 'quality', 'qc', 'code', 'status'])
+const GAP_WORDS = new Set(['', '-', '--', '—', 'na', 'n/a', 'nan', 'null', 'none', 'missing', 'm'])
+const GOOD_FLAGS = new Set(['', 'g', 'good', 'ok', 'a', 'approved', 'v', 'valid', 'e', 'est', 'estimated'])
+
+const TIME = String.raw`(?:[T ]\d{1,2}:\d{2}(?::\d{2}(?:\.\d+)?)?\s*(?:Z|[+-]\d{2}:?\d{2})?)?`
+const ISO_RE = new RegExp(String.raw`^(\d{4})-(\d{1,2})-(\d{1,2})${TIME}$`)
+const DAY_FIRST_RE = new RegExp(String.raw`^(\d{1,2})([/.\-])(\d{1,2})\2(\d{4})${TIME}$`)
+const NUMBER_RE = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?$/i
+const FLAGGED_RE = /^(.*?\d)\s*[*?!]+$/
+
+const pad = (n: number) => String(n).padStart(2, '0')
+const isLeap = (y: number) => (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0
+const daysIn = (y: number, m: number) => [31, isLeap(y) ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31][m - 1] ?? 0
+
+/** Which form a date is written in, or null when it is neither (no calendar check). */
+export function dateFormatOf(text: string): CsvDateFormat | null {
+  const t = text.trim()
+  if (ISO_RE.test(t)) return 'iso'
+  if (DAY_FIRST_RE.test(t)) return 'day-first'
+  return null
+}
+
+/** A calendar date written ISO (`YYYY-MM-DD`) or day-first (`DD/MM/YYYY`, `DD.MM.YYYY`), as YYYY-MM-DD; or why not. */
+export function parseDay(text: string, format: CsvDateFormat): { date: string } | { error: string } {
+  const t = text.trim()
+  if (!t) return { error: 'the date is missing' }
+  let y: number, m: number, d: number
+  if (format === 'iso') {
+    const r = ISO_RE.exec(t)
+    if (!r) {
+      return { error: DAY_FIRST_RE.test(t) ? `date "${t}" is day-first; this file's dates are written YYYY-MM-DD` : `"${t}" is not a date written YYYY-MM-DD` }
+    }
+    ;[y, m, d] = [Number(r[1]), Number(r[2]), Number(r[3])]
+  } else {
+    const r = DAY_FIRST_RE.exec(t)
+    if (!r) {
+      return { error: ISO_RE.test(t) ? `date "${t}" is written YYYY-MM-DD; this file's dates are day-first (DD/MM/YYYY)` : `"${t}" is not a date written DD/MM/YYYY or DD.MM.YYYY` }
+    }
+    ;[d, m, y] = [Number(r[1]), Number(r[3]), Number(r[4])]
+  }
+  if (y < 1800 || y > 2200) return { error: `date "${t}": year ${y} is out of range (1800–2200)` }
+  if (m < 1 || m > 12) {
+    const hint = format === 'day-first' && d <= 12 ? ' (dates must be day-first: DD/MM/YYYY)' : ''
+    return { error: `date "${t}": there is no month ${m}${hint}` }
+  }
+  if (d < 1 || d > daysIn(y, m)) return { error: `date "${t}" does not exist (month ${m} of ${y} has ${daysIn(y, m)} days)` }
+  return { date: `${y}-${pad(m)}-${pad(d)}` }
+}
+
+/** A flow cell read as m³/s: a number, a gap (null, `flagged` when a marker said suspect), or why not. */
+export function parseFlowCell(text: string, decimalComma: boolean): { flow: number | null; flagged: boolean } | { error: string } {
+  let t = text.trim()
+  if (GAP_WORDS.has(t.toLowerCase())) return { flow: null, flagged: false }
+  const flaggedMatch = FLAGGED_RE.exec(t)
+  if (flaggedMatch) t = flaggedMatch[1]!.trim()
+  const normal = decimalComma && /^[^,]*,[^,]*$/.test(t) && !t.includes('.') ? t.replace(',', '.') : t
+  if (!NUMBER_RE.test(normal)) return { error: `flow "${text.trim()}" is not a number` }
+  const q = Number(normal)
+  if (q < 0) return { error: `flow ${text.trim()} is negative` }
+  if (q > MAX_PLAUSIBLE_FLOW) return { error: `flow ${text.trim()} m³/s is not plausible` }
+  if (flaggedMatch) return { flow: null, flagged: true }
+  return { flow: q, flagged: false }
+}
+
+/** Header cell as words: lower case, units in brackets dropped, m³ written m3. */
+function words(cell: string): string[] {
+  const t = cell
+    .toLowerCase()
+    .replace(/³/g, '3')
+    .replace(/[([{].*?[)\]}]/g, ' ')
+    .replace(/m3\s*\/\s*s/g, ' m3s ')
+    .replace(/[^a-z0-9]+/g, ' ')
+    .trim()
+  return t ? t.split(' ') : []
+}
+
+const matches = (cell: string, vocabulary: Set<string>) => words(cell).some((w) => vocabulary.has(w))
+
+function pickDelimiter(line: string): ',' | ';' | '\t' {
+  const count = (c: string) => line.split(c).length - 1
+  const semi = count(';')
+  const comma = count(',')
+  const tab = count('\t')
+  if (tab > semi && tab > comma) return '\t'
+  return semi > 0 && semi >= comma ? ';' : ','
+}
+
+/** Turns bytes into text: UTF-8 (BOM dropped), UTF-16 with a BOM, else Windows-1252; null for binary data. */
+export function decodeCsvBytes(bytes: Uint8Array): string | null {
+  let text: string
+  if (bytes[0] === 0xff && bytes[1] === 0xfe) text = new TextDecoder('utf-16le').decode(bytes.subarray(2))
+  else if (bytes[0] === 0xfe && bytes[1] === 0xff) text = new TextDecoder('utf-16be').decode(bytes.subarray(2))
+  else {
+    try {
+      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes)
+    } catch {
+      text = new TextDecoder('windows-1252').decode(bytes)
+    }
+  }
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1)
+  if (text.includes('\u0000')) return null
+  return text
+}
+
+interface RawRow {
+  cells: string[]
+  line: number
+}
+
+/** Rows of the text with the line each starts on; blank lines and `#` comments left out. */
+function readRows(text: string, delimiter: string): RawRow[] {
+  const rows: RawRow[] = []
+  let scanned = 0
+  let newlines = 0
+  Papa.parse<string[]>(text, {
+    delimiter,
+    newline: '\n',
+    skipEmptyLines: false,
+    comments: '#',
+    step: (result) => {
+      const cells = result.data
+      const end = result.meta.cursor
+      const contentEnd = text[end - 1] === '\n' ? end - 1 : end
+      for (let i = scanned; i < contentEnd; i++) if (text.charCodeAt(i) === 10) newlines++
+      scanned = contentEnd
+      let inside = 0
+      for (const c of cells) for (let i = 0; i < c.length; i++) if (c.charCodeAt(i) === 10) inside++
+      const line = newlines + 1 - inside
+      if (cells.length === 1 && cells[0]!.trim() === '') return
+      rows.push({ cells, line })
+    },
+  })
+  return rows
+}
+
+function findColumn(header: string[], wanted: string | undefined): number {
+  if (wanted === undefined) return -1
+  const w = wanted.trim().toLowerCase()
+  return header.findIndex((h) => h.trim().toLowerCase() === w)
+}
+
+/** Reads a whole daily flow record; every bad line is reported, nothing is partly accepted. */
+export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): FlowCsvResult {
+  const text = rawText.replace(/\r\n?/g, '\n')
+  const firstLine = text.split('\n').find((l) => l.trim() !== '' && !l.trimStart().startsWith('#')) ?? ''
+  const delimiter = pickDelimiter(firstLine)
+  const rows = readRows(text, delimiter)
+  const headerRow = rows[0]
+  if (!headerRow) return { ok: false, kind: 'lines', errors: [{ line: 1, reason: 'the file has no lines' }], message: 'file: has no lines' }
+  const header = headerRow.cells.map((c) => c.trim())
+
+  if (header.some((h) => dateFormatOf(h) !== null)) {
+    return {
+      ok: false,
+      kind: 'lines',
+      errors: [{ line: headerRow.line, reason: 'the first line holds data; it must be a header naming the columns, e.g. date,flow' }],
+      message: `file: line ${headerRow.line} must be a header row naming the columns`,
+    }
+  }
+
+  // Columns: given by the caller, else by name.
+  const columnsError = (message: string) => ({ ok: false as const, kind: 'columns' as const, header, message })
+  let dateIdx = findColumn(header, options.dateColumn)
+  let flowIdx = findColumn(header, options.flowColumn)
+  if (options.dateColumn !== undefined && dateIdx < 0) return columnsError(`dateColumn: the header has no column "${options.dateColumn}"`)
+  if (options.flowColumn !== undefined && flowIdx < 0) return columnsError(`flowColumn: the header has no column "${options.flowColumn}"`)
+  if (dateIdx < 0) {
+    const found = header.map((h, i) => (i !== flowIdx && matches(h, DATE_WORDS) ? i : -1)).filter((i) => i >= 0)
+    if (found.length !== 1) return columnsError(found.length ? 'dateColumn: several columns could hold the date; choose one' : 'dateColumn: no column is named like a date; choose one')
+    dateIdx = found[0]!
+  }
+  if (flowIdx < 0) {
+    const found = header.map((h, i) => (i !== dateIdx && matches(h, FLOW_WORDS) ? i : -1)).filter((i) => i >= 0)
+    if (found.length === 0 && header.length === 2) found.push(1 - dateIdx)
+    if (found.length !== 1) return columnsError(found.length ? 'flowColumn: several columns could hold the flow; choose one' : 'flowColumn: no column is named like a flow; choose one')
+    flowIdx = found[0]!
+  }
+  if (dateIdx === flowIdx) return columnsError('flowColumn: must not be the date column')
+  const flagIdx = header.findIndex((h, i) => i !== dateIdx && i !== flowIdx && matches(h, FLAG_WORDS))
+
+  const dataRows = rows.slice(1)
+  if (dataRows.length === 0) {
+    return { ok: false, kind: 'lines', errors: [{ line: headerRow.line + 1, reason: 'the file has a header but no days' }], message: 'file: has a header but no days' }
+  }
+  const maxDays = options.maxDays ?? Infinity
+  if (dataRows.length > maxDays) {
+    return { ok: false, kind: 'lines', errors: [{ line: dataRows[maxDays]!.line, reason: `the file has ${dataRows.length} days; at most ${maxDays} are accepted` }], message: `file: has more than ${maxDays} days` }
+  }
+
+  let format: CsvDateFormat | null = options.dateFormat && options.dateFormat !== 'auto' ? options.dateFormat : null
+  if (!format) {
+    for (const r of dataRows) {
+      format = dateFormatOf(r.cells[dateIdx] ?? '')
+      if (format) break
+    }
+    format ??= 'iso'
+  }
+
+  const decimalComma = delimiter === ';'
+  const needed = Math.max(dateIdx, flowIdx) + 1
+  const errors: CsvLineError[] = []
+  const seen = new Map<string, number>()
+  const days: ParsedDay[] = []
+  let gaps = 0
+  let flagged = 0
+  for (const { cells, line } of dataRows) {
+    if (cells.length < needed) {
+      errors.push({ line, reason: `the line has ${cells.length} field${cells.length === 1 ? '' : 's'}; the header has ${header.length}` })
+      continue
+    }
+    const reasons: string[] = []
+    const parsedDate = parseDay(cells[dateIdx]!, format)
+    let date: string | null = null
+    if ('error' in parsedDate) reasons.push(parsedDate.error)
+    else {
+      date = parsedDate.date
+      const before = seen.get(date)
+      if (before !== undefined) reasons.push(`day ${date} is given twice (first on line ${before})`)
+      else if (options.existingDays?.has(date)) reasons.push(`day ${date} is already stored; append adds new days only`)
+      else seen.set(date, line)
+    }
+    const parsedFlow = parseFlowCell(cells[flowIdx]!, decimalComma)
+    let flow: number | null = null
+    let isFlagged = false
+    if ('error' in parsedFlow) reasons.push(parsedFlow.error)
+    else {
+      flow = parsedFlow.flow
+      isFlagged = parsedFlow.flagged
+    }
+    if (flagIdx >= 0 && flow !== null && !GOOD_FLAGS.has((cells[flagIdx] ?? '').trim().toLowerCase())) {
+      flow = null
+      isFlagged = true
+    }
+    if (reasons.length) {
+      errors.push({ line, reason: reasons.join('; ') })
+      continue
+    }
+    if (flow === null) gaps++
+    if (isFlagged) flagged++
+    days.push({ date: date!, flow })
+  }
+  if (errors.length) {
+    const first = errors[0]!
+    const more = errors.length > 1 ? ` (and ${errors.length - 1} more line${errors.length > 2 ? 's' : ''})` : ''
+    return { ok: false, kind: 'lines', errors, message: `file: line ${first.line}: ${first.reason}${more}; nothing was stored` }
+  }
+  days.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))
+  return {
+    ok: true,
+    days,
+    header,
+    dateColumn: header[dateIdx]!,
+    flowColumn: header[flowIdx]!,
+    flagColumn: flagIdx >= 0 ? header[flagIdx]! : null,
+    dateFormat: format,
+    delimiter,
+    gaps,
+    flagged,
+  }
+}
+
+/** Whole days from the first to the last day inclusive (UTC calendar arithmetic). */
+export function daySpan(firstDay: string, lastDay: string): number {
+  return Math.round((Date.parse(`${lastDay}T00:00:00Z`) - Date.parse(`${firstDay}T00:00:00Z`)) / 86_400_000) + 1
+}

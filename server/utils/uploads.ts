@@ -1,0 +1,48 @@
+import type { H3Event } from 'h3'
+
+/** Room for the multipart boundaries and text fields around the file itself, bytes. */
+const MULTIPART_OVERHEAD = 64 * 1024
+
+const megabytes = (bytes: number) => `${Math.round(bytes / 1024 / 1024)} MB`
+
+/** 413 with the limit in the message. */
+export function tooLarge(what: string, limit: number) {
+  return createError({
+    statusCode: 413,
+    statusMessage: 'Payload Too Large',
+    message: `${what}: is larger than the ${megabytes(limit)} limit`,
+    data: { limitBytes: limit },
+  })
+}
+
+/**
+ * Reads a multipart/form-data upload with one file part: 415 when the request is not multipart,
+ * 413 when Content-Length or the file itself is over `maxBytes`, 400 naming the part when it is
+ * missing or empty. Text parts come back as `fields`.
+ */
+export async function readUpload(event: H3Event, maxBytes: number, part = 'file') {
+  const type = getRequestHeader(event, 'content-type') ?? ''
+  if (!/^multipart\/form-data\b/i.test(type)) {
+    throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: `${part}: send the file as multipart/form-data` })
+  }
+  const declared = Number(getRequestHeader(event, 'content-length') ?? NaN)
+  if (Number.isFinite(declared) && declared > maxBytes + MULTIPART_OVERHEAD) throw tooLarge(part, maxBytes)
+  const parts = (await readMultipartFormData(event)) ?? []
+  const file = parts.find((p) => p.name === part && p.filename !== undefined)
+  if (!file) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${part}: is required (a file part named "${part}")` })
+  if (file.data.length === 0) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${part}: is empty (0 bytes)` })
+  if (file.data.length > maxBytes) throw tooLarge(part, maxBytes)
+  const fields: Record<string, string> = {}
+  for (const p of parts) {
+    if (p !== file && p.name && p.filename === undefined) fields[p.name] = p.data.toString('utf8')
+  }
+  return { file, fileName: safeFileName(file.filename ?? ''), mediaType: (file.type ?? '').split(';')[0]!.trim().toLowerCase(), fields }
+}
+
+/** The last path segment of a client's file name, without control characters, at most 200 characters. */
+export function safeFileName(name: string): string {
+  const base = name.split(/[\\/]/).pop() ?? ''
+  // eslint-disable-next-line no-control-regex
+  const clean = base.replace(/[\u0000-\u001f\u007f"]/g, '').trim().slice(0, 200)
+  return clean || 'upload'
+}

@@ -1,0 +1,440 @@
+// Sites, their reach, weir, months and hydrology inputs; the flow-record upload and attachments.
+// Shared by the server routes (server/api/orgs/[orgId]/sites, server/api/sites, server/api/attachments)
+// and the site forms. Keep the exported names stable: the UI imports them.
+import { z } from 'zod'
+import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
+import { IdSchema, NameSchema } from './common'
+
+const num = z.number({ error: 'must be a number' })
+const nonNegative = num.min(0, 'must be 0 or more')
+const positive = num.positive('must be more than 0')
+
+// ——— classes and limits ———
+
+/** Butts & Evans (1983) weir-shape classes, as named in shared/engine/oxygen.ts. */
+export const WEIR_SHAPES = Object.keys(WEIR_SHAPE_B) as [WeirShapeClass, ...WeirShapeClass[]]
+/** Butts & Evans (1983) water-quality classes, as named in shared/engine/oxygen.ts. */
+export const WATER_QUALITIES = Object.keys(WATER_QUALITY_A) as [WaterQualityClass, ...WaterQualityClass[]]
+/** Plain labels for the select boxes. */
+export const WEIR_SHAPE_LABELS: Record<WeirShapeClass, string> = Object.fromEntries(
+  WEIR_SHAPES.map((k) => [k, WEIR_SHAPE_B[k].label]),
+) as Record<WeirShapeClass, string>
+export const WATER_QUALITY_LABELS: Record<WaterQualityClass, string> = Object.fromEntries(
+  WATER_QUALITIES.map((k) => [k, WATER_QUALITY_A[k].label]),
+) as Record<WaterQualityClass, string>
+
+export const OXYGEN_UNITS = ['mg/L', '%sat'] as const
+export type OxygenUnit = (typeof OXYGEN_UNITS)[number]
+
+/** Largest gross head a site may have, m. */
+export const MAX_GROSS_HEAD_M = 20
+/** Largest flow-record CSV accepted, bytes (10 MB). */
+export const MAX_FLOW_CSV_BYTES = 10 * 1024 * 1024
+/** Most days one site's flow record may hold (about 219 years). */
+export const MAX_FLOW_DAYS = 80_000
+/** Largest attachment accepted, bytes (20 MB). */
+export const MAX_ATTACHMENT_BYTES = 20 * 1024 * 1024
+/** Attachment types accepted, recognised by their first bytes, not by the name or the declared type. */
+export const ATTACHMENT_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const
+export type AttachmentType = (typeof ATTACHMENT_TYPES)[number]
+/** Declared types and file endings a flow-record CSV may come with (either one will do). */
+export const FLOW_CSV_TYPES = ['text/csv', 'text/plain', 'application/vnd.ms-excel'] as const
+export const FLOW_CSV_EXTENSIONS = ['.csv', '.txt'] as const
+
+// ——— parts of a site ———
+
+/** A point on the map, WGS 84 degrees. */
+export const LocationSchema = z.object({
+  lat: num.min(-90, 'must be between -90 and 90').max(90, 'must be between -90 and 90'),
+  lng: num.min(-180, 'must be between -180 and 180').max(180, 'must be between -180 and 180'),
+})
+
+/** One GeoJSON position, [lng, lat] (RFC 7946 order: longitude first). */
+export const PositionSchema = z.tuple([
+  num.min(-180, 'longitude must be between -180 and 180').max(180, 'longitude must be between -180 and 180'),
+  num.min(-90, 'latitude must be between -90 and 90').max(90, 'latitude must be between -90 and 90'),
+])
+
+/** The reach, intake to outfall, as a GeoJSON LineString. */
+export const ReachSchema = z.object({
+  type: z.literal('LineString', { error: "must be 'LineString'" }),
+  coordinates: z.array(PositionSchema).min(2, 'a reach needs at least 2 points').max(1000, 'a reach may have 1000 points at most'),
+})
+
+/** The weir or drop the installation would sit in. */
+export const WeirSchema = z.object({
+  /** Head pool to tail pool at ordinary flows, m. */
+  grossHeadM: positive.max(MAX_GROSS_HEAD_M, `must be ${MAX_GROSS_HEAD_M} m or less`),
+  /** Crest width, m. */
+  crestWidthM: positive.max(1000, 'must be 1000 m or less'),
+  shape: z.enum(WEIR_SHAPES, { error: `must be one of ${WEIR_SHAPES.join(', ')}` }),
+  waterQuality: z.enum(WATER_QUALITIES, { error: `must be one of ${WATER_QUALITIES.join(', ')}` }),
+})
+
+/** One row of the gross head against river flow (tailwater rises in floods). */
+export const HeadRowSchema = z.object({
+  /** River flow, m³/s. */
+  flow: nonNegative,
+  /** Gross head at that flow, m. */
+  head: nonNegative.max(MAX_GROSS_HEAD_M, `must be ${MAX_GROSS_HEAD_M} m or less`),
+})
+
+/** Head-vs-flow table: may be empty; rows sorted by rising flow, no repeats. */
+export const HeadTableSchema = z
+  .array(HeadRowSchema)
+  .max(50, 'may have 50 rows at most')
+  .superRefine((rows, ctx) => {
+    rows.forEach((r, i) => {
+      const prev = rows[i - 1]
+      if (prev && r.flow <= prev.flow) ctx.addIssue({ code: 'custom', path: [i, 'flow'], message: 'rows must be sorted by rising flow, without repeats' })
+    })
+  })
+
+/** Reserved (hands-off) flow: a fixed value, or the flow at a named exceedance (95 for Q95). */
+export const ReservedFlowSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.object({ kind: z.literal('fixed'), flow: nonNegative }),
+    z.object({ kind: z.literal('percentile'), exceedance: num.min(0, 'must be between 0 and 100').max(100, 'must be between 0 and 100') }),
+  ],
+  { error: "must be 'fixed' or 'percentile'" },
+)
+
+/** Upstream dissolved oxygen, in mg/L or % of saturation. */
+export const OxygenReadingSchema = z
+  .object({
+    value: nonNegative,
+    unit: z.enum(OXYGEN_UNITS, { error: "must be 'mg/L' or '%sat'" }),
+  })
+  .superRefine((o, ctx) => {
+    const max = o.unit === 'mg/L' ? 30 : 300
+    if (o.value > max) ctx.addIssue({ code: 'custom', path: ['value'], message: `must be ${max} ${o.unit} or less` })
+  })
+
+/** One month of site conditions. */
+export const MonthSchema = z.object({
+  waterTempC: num.min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
+  upstreamOxygen: OxygenReadingSchema,
+})
+
+/** Twelve months, January first. */
+export const MonthsSchema = z.array(MonthSchema).length(12, 'needs 12 months, January first')
+
+/** Catchment areas for the area-ratio method, Q_site = Q_gauge · A_site / A_gauge. */
+export const CatchmentSchema = z.object({
+  siteAreaKm2: positive.max(1_000_000, 'is too large'),
+  gaugeAreaKm2: positive.max(1_000_000, 'is too large'),
+})
+
+/** One entered FDC point: the flow equalled or exceeded `exceedance` % of the time. */
+export const FdcPointSchema = z.object({
+  exceedance: num.min(0, 'must be between 0 and 100').max(100, 'must be between 0 and 100'),
+  flow: nonNegative,
+})
+
+/** Entered FDC: empty, or at least 3 points by rising exceedance with flow never rising. Errors name the row (`fdcPoints.3.flow`). */
+export const FdcPointsSchema = z
+  .array(FdcPointSchema)
+  .max(500, 'may have 500 points at most')
+  .superRefine((points, ctx) => {
+    if (points.length > 0 && points.length < 3) ctx.addIssue({ code: 'custom', path: [], message: 'an FDC needs at least 3 points (or none)' })
+    points.forEach((p, i) => {
+      const prev = points[i - 1]
+      if (!prev) return
+      if (p.exceedance <= prev.exceedance) ctx.addIssue({ code: 'custom', path: [i, 'exceedance'], message: 'points must be sorted by rising exceedance, without repeats' })
+      if (p.flow > prev.flow) ctx.addIssue({ code: 'custom', path: [i, 'flow'], message: 'flow must not rise as exceedance rises' })
+    })
+  })
+
+const RiverNameSchema = z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long (120 characters at most)')
+const NotesSchema = z.string({ error: 'must be text' }).max(10_000, 'is too long (10,000 characters at most)')
+const TargetOxygenSchema = num.min(0, 'must be 0 mg/L or more').max(20, 'must be 20 mg/L or less')
+const AltitudeSchema = num.min(-100, 'must be -100 m or more').max(5000, 'must be 5000 m or less')
+
+// The fields without defaults, so the patch schema never fills in a field the caller left out.
+const siteFields = {
+  name: NameSchema,
+  riverName: RiverNameSchema,
+  location: LocationSchema,
+  reach: ReachSchema.nullable(),
+  /** Altitude of the weir above sea level, m (sets the air pressure). */
+  altitudeM: AltitudeSchema,
+  weir: WeirSchema,
+  headTable: HeadTableSchema,
+  reservedFlow: ReservedFlowSchema,
+  months: MonthsSchema,
+  catchment: CatchmentSchema.nullable(),
+  fdcPoints: FdcPointsSchema,
+  /** Downstream oxygen target, mg/L (common practice: 6; the regulator's figure replaces it). */
+  targetOxygenMgL: TargetOxygenSchema,
+  notes: NotesSchema,
+}
+
+/** Default reserved flow: Q95 (common practice, see HYDROLOGY_DEFAULTS in the engine). */
+export const DEFAULT_RESERVED_FLOW = { kind: 'percentile', exceedance: 95 } as const
+export const DEFAULT_TARGET_OXYGEN_MGL = 6
+
+/** Body of POST /api/orgs/[orgId]/sites. Unknown keys are dropped. */
+export const SiteInputSchema = z.object({
+  ...siteFields,
+  reach: siteFields.reach.default(null),
+  altitudeM: siteFields.altitudeM.default(0),
+  headTable: siteFields.headTable.default([]),
+  reservedFlow: siteFields.reservedFlow.default({ ...DEFAULT_RESERVED_FLOW }),
+  catchment: siteFields.catchment.default(null),
+  fdcPoints: siteFields.fdcPoints.default([]),
+  targetOxygenMgL: siteFields.targetOxygenMgL.default(DEFAULT_TARGET_OXYGEN_MGL),
+  notes: siteFields.notes.default(''),
+})
+export type SiteInput = z.infer<typeof SiteInputSchema>
+/** What a form holds before parsing (defaults not yet filled in). */
+export type SiteInputDraft = z.input<typeof SiteInputSchema>
+
+/**
+ * Body of PATCH /api/sites/[id]: any top-level field (each replaces the stored one whole, e.g. all
+ * 12 months or the whole weir), plus the `version` last read; a stale version answers 409.
+ */
+export const SitePatchSchema = z.object(siteFields).partial().extend({
+  version: z
+    .number({ error: (iss) => (iss.input === undefined ? 'is required (the version you last read)' : 'must be a number') })
+    .int('must be a whole number')
+    .min(1, 'must be 1 or more'),
+})
+export type SitePatch = z.infer<typeof SitePatchSchema>
+
+/** Columns the site list may be sorted by (allow-list). */
+export const SITE_SORTS = ['name', 'riverName', 'grossHeadM', 'createdAt', 'updatedAt'] as const
+export type SiteSort = (typeof SITE_SORTS)[number]
+
+/** Query of GET /api/orgs/[orgId]/sites. `deleted=only` lists the soft-deleted sites (admins only). */
+export const SiteListQuerySchema = z.object({
+  page: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').default(1),
+  pageSize: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  sort: z.enum(SITE_SORTS, { error: `must be one of ${SITE_SORTS.join(', ')}` }).default('name'),
+  dir: z.enum(['asc', 'desc'], { error: "must be 'asc' or 'desc'" }).default('asc'),
+  /** Text to find in the site or river name (case-insensitive). */
+  q: z.string().trim().max(120, 'is too long').optional(),
+  /** Exact river name (case-insensitive). */
+  river: z.string().trim().max(120, 'is too long').optional(),
+  deleted: z.enum(['only'], { error: "must be 'only'" }).optional(),
+})
+export type SiteListQuery = z.infer<typeof SiteListQuerySchema>
+
+/** Query of GET /api/orgs/[orgId]/sites/map: the same filters, no paging. */
+export const SiteMapQuerySchema = SiteListQuerySchema.pick({ q: true, river: true })
+
+export const SiteParamsSchema = z.object({ id: IdSchema })
+
+// ——— what the routes return ———
+
+export type Reach = z.infer<typeof ReachSchema>
+export type Weir = z.infer<typeof WeirSchema>
+export type HeadRow = z.infer<typeof HeadRowSchema>
+export type ReservedFlow = z.infer<typeof ReservedFlowSchema>
+export type Month = z.infer<typeof MonthSchema>
+export type Catchment = z.infer<typeof CatchmentSchema>
+export type FdcPointInput = z.infer<typeof FdcPointSchema>
+export type HydrologySource = 'record' | 'points' | 'none'
+
+/** Q95, Q50, Q10 and mean, m³/s. */
+export interface FlowStats {
+  q95: number
+  q50: number
+  q10: number
+  mean: number
+}
+
+/** The stored daily flow record of a site, as summarised by the routes. Flows are site flows (scaled). */
+export interface FlowRecordSummary {
+  fileName: string
+  uploadedAt: string
+  uploadedBy: { id: number; name: string } | null
+  dateColumn: string
+  flowColumn: string
+  /** Column read for quality flags, when the file had one. */
+  flagColumn: string | null
+  dateFormat: 'iso' | 'day-first'
+  /** Rows stored, one a day, gaps included. */
+  days: number
+  /** Days stored without a flow (blank, `-`, `NA`, flagged…). */
+  gapDays: number
+  /** Calendar days between the first and last day with no row at all. */
+  missingDays: number
+  firstDay: string
+  lastDay: string
+  /** (last − first + 1 days) / 365.25, to 2 decimals. */
+  years: number
+  /** Area-ratio scaling applied to the gauged flows, or null when stored as given. */
+  scale: { siteAreaKm2: number; gaugeAreaKm2: number; factor: number } | null
+  /** From the site flows' FDC; null when no day has a flow. */
+  stats: FlowStats | null
+}
+
+/** GET /api/sites/[id]. */
+export interface SiteDto {
+  id: number
+  orgId: number
+  name: string
+  riverName: string
+  location: { lat: number; lng: number }
+  reach: Reach | null
+  altitudeM: number
+  weir: Weir
+  headTable: HeadRow[]
+  reservedFlow: ReservedFlow
+  months: Month[]
+  catchment: Catchment | null
+  fdcPoints: FdcPointInput[]
+  targetOxygenMgL: number
+  notes: string
+  /** Send it back with PATCH; it rises by one with every change. */
+  version: number
+  createdAt: string
+  updatedAt: string
+  createdBy: { id: number; name: string } | null
+  /** Set only on soft-deleted sites (seen in the admin's deleted list). */
+  deletedAt: string | null
+  /** Which hydrology the engine will use. */
+  hydrologySource: HydrologySource
+  flowRecord: FlowRecordSummary | null
+}
+
+/** One row of GET /api/orgs/[orgId]/sites. */
+export interface SiteListItem {
+  id: number
+  name: string
+  riverName: string
+  location: { lat: number; lng: number }
+  altitudeM: number
+  grossHeadM: number
+  hydrologySource: HydrologySource
+  /** Mean flow of the stored record, m³/s, else null. */
+  recordMeanFlow: number | null
+  version: number
+  createdAt: string
+  updatedAt: string
+  deletedAt: string | null
+}
+
+export interface SiteListDto {
+  page: number
+  pageSize: number
+  total: number
+  sort: SiteSort
+  dir: 'asc' | 'desc'
+  sites: SiteListItem[]
+}
+
+/** One marker of GET /api/orgs/[orgId]/sites/map (every live site, no paging). */
+export interface SiteMapPoint {
+  id: number
+  name: string
+  riverName: string
+  lat: number
+  lng: number
+  grossHeadM: number
+  hydrologySource: HydrologySource
+}
+
+// ——— flow-record upload ———
+
+export const FLOW_UPLOAD_MODES = ['replace', 'append'] as const
+export const DATE_FORMATS = ['auto', 'iso', 'day-first'] as const
+export type DateFormat = (typeof DATE_FORMATS)[number]
+
+const optionalArea = z
+  .string()
+  .trim()
+  .optional()
+  .transform((s) => (s === undefined || s === '' ? undefined : Number(s)))
+  .pipe(z.number({ error: 'must be a number' }).positive('must be more than 0').max(1_000_000, 'is too large').optional())
+
+/**
+ * Text fields of the multipart POST /api/sites/[id]/flow-record (besides `file`).
+ * `scale`: 'auto' scales by siteAreaKm2/gaugeAreaKm2 when both are given, else by the site's
+ * catchment when it has one; 'none' stores the flows as given. Append mode keeps the stored record's scaling.
+ */
+export const FlowRecordFormSchema = z
+  .object({
+    dateColumn: z.string().trim().max(200).optional().transform((s) => s || undefined),
+    flowColumn: z.string().trim().max(200).optional().transform((s) => s || undefined),
+    mode: z.enum(FLOW_UPLOAD_MODES, { error: "must be 'replace' or 'append'" }).default('replace'),
+    dateFormat: z.enum(DATE_FORMATS, { error: "must be 'auto', 'iso' or 'day-first'" }).default('auto'),
+    scale: z.enum(['auto', 'none'], { error: "must be 'auto' or 'none'" }).default('auto'),
+    siteAreaKm2: optionalArea,
+    gaugeAreaKm2: optionalArea,
+  })
+  .superRefine((f, ctx) => {
+    if ((f.siteAreaKm2 === undefined) !== (f.gaugeAreaKm2 === undefined)) {
+      ctx.addIssue({ code: 'custom', path: [f.siteAreaKm2 === undefined ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: 'give both catchment areas, or neither' })
+    }
+  })
+export type FlowRecordForm = z.infer<typeof FlowRecordFormSchema>
+
+/** One bad line of an upload: `line` is the line number in the file (1 = the first line). */
+export interface FlowCsvLineError {
+  line: number
+  reason: string
+}
+
+/** `data` of a 422 from the upload: every bad line, or the header when the columns must be chosen. */
+export interface FlowUploadErrorData {
+  errors: FlowCsvLineError[]
+  needsColumns?: boolean
+  header?: string[]
+}
+
+/** Body of a successful POST /api/sites/[id]/flow-record. */
+export interface FlowUploadResult {
+  mode: 'replace' | 'append'
+  /** Days read from this file. */
+  daysInFile: number
+  /** Of which stored as gaps (blank, `-`, `NA`, flagged…). */
+  gapsInFile: number
+  /** Of which gaps because a value or its flag marked it suspect. */
+  flaggedInFile: number
+  record: FlowRecordSummary
+}
+
+/** Query of GET /api/sites/[id]/flow-record: optional day range, inclusive. */
+export const FlowRecordQuerySchema = z
+  .object({
+    from: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional(),
+    to: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional(),
+  })
+  .refine((q) => !q.from || !q.to || q.from <= q.to, { path: ['to'], message: 'must not be before from' })
+
+/** GET /api/sites/[id]/flow-record. */
+export interface FlowRecordDto {
+  record: FlowRecordSummary
+  /** Site flows (after any scaling), m³/s; null for a gap. */
+  days: { date: string; flow: number | null }[]
+}
+
+/** GET /api/sites/[id]/hydrology. */
+export interface HydrologyDto {
+  source: HydrologySource
+  /** Up to 200 points of the curve in use, by rising exceedance, for charting. */
+  points: { exceedance: number; flow: number }[]
+  stats: FlowStats | null
+  /** January first; stats null for a month with no data (or when the source is points or none). */
+  monthly: { month: number; days: number; stats: FlowStats | null }[]
+  reservedFlow: { setting: ReservedFlow; flow: number | null }
+  /** Area-ratio scaling applied, or null. */
+  scale: { siteAreaKm2: number; gaugeAreaKm2: number; factor: number } | null
+  /** Days with flow (record) or number of entered points. */
+  count: number
+}
+
+// ——— attachments ———
+
+/** One attachment of a site. Download from `/api/attachments/[id]`. */
+export interface AttachmentDto {
+  id: number
+  siteId: number
+  originalName: string
+  contentType: AttachmentType
+  sizeBytes: number
+  uploadedBy: { id: number; name: string } | null
+  createdAt: string
+}
