@@ -1,3 +1,4 @@
+import { fileURLToPath } from 'node:url'
 import { defineConfig } from 'vitest/config'
 
 // Two projects: `unit` runs pure code (engine, schemas, helpers) in node;
@@ -8,6 +9,8 @@ export default defineConfig({
     outputFile: { json: '.reports/vitest.json' },
     projects: [
       {
+        // App code imports shared/ as `~~/shared/...` (Nuxt externalises shared/ by that path); UI unit tests need the alias too.
+        resolve: { alias: { '~~': fileURLToPath(new URL('.', import.meta.url)) } },
         test: {
           name: 'unit',
           include: ['tests/unit/**/*.test.ts'],

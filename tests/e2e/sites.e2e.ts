@@ -1,0 +1,281 @@
+// Browser journey through sites, maps, hydrology and attachments, against a running, seeded server.
+//   DATABASE_PATH=/tmp/ui.sqlite npm run db:seed
+//   PORT=3200 NODE_ENV=production NUXT_SESSION_PASSWORD=… DATABASE_PATH=/tmp/ui.sqlite node <copy of .output>/server/index.mjs
+//   GW_BASE_URL=http://localhost:3200 node --import tsx tests/e2e/sites.e2e.ts
+// Drives Debian's chromium through playwright-core, saves screenshots to tests/e2e/screenshots/ and
+// exits non-zero on the first failed check or on any console error, page error or failed request.
+import assert from 'node:assert/strict'
+import { mkdirSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import { chromium, type Browser, type Page } from 'playwright-core'
+
+const BASE = process.env.GW_BASE_URL ?? 'http://localhost:3200'
+const SHOTS = fileURLToPath(new URL('./screenshots/', import.meta.url))
+const PASSWORD = 'brackwin-demo-2026'
+const ENGINEER = 'idris@tarnbeck.example'
+const VIEWER = 'tobias@brackwin-farm.example'
+const ADMIN = 'morwenna@tarnbeck.example'
+
+const problems: string[] = []
+/** Refusals the journey provokes on purpose (status → how many): the browser logs each one. */
+const provoked = new Map<number, number>()
+function expectRefusal(status: number) {
+  provoked.set(status, (provoked.get(status) ?? 0) + 1)
+}
+/** True (and counted off) when a console line is the browser's log of a refusal provoked on purpose. */
+function wasProvoked(text: string): boolean {
+  const status = Number(/Failed to load resource: the server responded with a status of (\d{3})/.exec(text)?.[1])
+  const left = provoked.get(status) ?? 0
+  if (!left) return false
+  provoked.set(status, left - 1)
+  return true
+}
+
+/** A page that records every console error or warning, page error and failed request. */
+async function openPage(browser: Browser): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1360, height: 1000 } })
+  const page = await context.newPage()
+  page.on('console', (m) => {
+    if ((m.type() === 'error' || m.type() === 'warning') && !wasProvoked(m.text())) problems.push(`console ${m.type()} on ${page.url()}: ${m.text()}`)
+  })
+  page.on('pageerror', (e) => problems.push(`page error on ${page.url()}: ${e.message}`))
+  page.on('requestfailed', (r) => {
+    // A download link opened in a new tab may be cancelled by the browser; nothing else may fail.
+    if (!/net::ERR_ABORTED/.test(r.failure()?.errorText ?? '')) problems.push(`request failed: ${r.url()} ${r.failure()?.errorText}`)
+  })
+  return page
+}
+
+async function shot(page: Page, name: string) {
+  await page.waitForTimeout(300)
+  await page.screenshot({ path: `${SHOTS}${name}.png`, fullPage: true })
+}
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${BASE}/`)
+  await page.fill('#f-email', email)
+  await page.fill('#f-password', PASSWORD)
+  await page.click('[data-testid=sign-in-form] button[type=submit]')
+  await page.waitForSelector('[data-testid=site-table] tbody tr')
+}
+
+/** Clicks the Leaflet map at a fraction of its width and height. */
+async function clickMap(page: Page, fx: number, fy: number) {
+  const box = await page.locator('[data-testid=map-site-editor] .leaflet-container').boundingBox()
+  assert.ok(box, 'the site map is on the page')
+  await page.mouse.click(box.x + box.width * fx, box.y + box.height * fy)
+}
+
+function csv(lines: string[]): { name: string; mimeType: string; buffer: Buffer } {
+  return { name: 'gauge.csv', mimeType: 'text/csv', buffer: Buffer.from(lines.join('\n') + '\n') }
+}
+
+/** Three years of invented daily flows with a dry summer. */
+function goodRecord(): string[] {
+  const lines = ['date,flow']
+  const start = Date.UTC(2019, 0, 1)
+  for (let i = 0; i < 3 * 365; i++) {
+    const day = new Date(start + i * 86_400_000).toISOString().slice(0, 10)
+    const flow = 3 + 2.2 * Math.cos((2 * Math.PI * i) / 365) + (i % 17 === 0 ? 6 : 0)
+    lines.push(`${day},${i === 400 ? '' : flow.toFixed(3)}`)
+  }
+  return lines
+}
+
+// An 8×8 PNG, lichen green.
+const PNG = Buffer.from(
+  'iVBORw0KGgoAAAANSUhEUgAAAAgAAAAICAIAAABLbSncAAAAEUlEQVR4nGPYc9YVK2IYWhIAPytzgeCkFAcAAAAASUVORK5CYII=',
+  'base64',
+)
+
+async function engineerJourney(browser: Browser) {
+  const page = await openPage(browser)
+  await signIn(page, ENGINEER)
+  await page.waitForSelector('[data-testid=map-sites] .leaflet-interactive')
+  await shot(page, '01-portfolio')
+
+  // Sorting and filtering are done by the server.
+  const names = async () => page.locator('[data-testid=site-table] tbody tr td:first-child').allInnerTexts()
+  const before = await names()
+  await page.click('[data-testid=sort-name]')
+  await page.waitForFunction((first) => document.querySelector('[data-testid=site-table] tbody tr td')?.textContent?.trim() !== first, before[0])
+  assert.deepEqual(await names(), [...before].reverse(), 'a second press on Site sorts descending')
+  await page.fill('[data-testid=site-filter]', 'mill')
+  await page.waitForFunction(() => document.querySelectorAll('[data-testid=site-table] tbody tr').length === 1)
+  assert.match((await names())[0]!, /mill/i)
+  await page.fill('[data-testid=site-filter]', '')
+
+  // New site: required fields are reported per field before anything is sent.
+  await page.click('[data-testid=new-site]')
+  await page.waitForSelector('[data-testid=site-new-form] .leaflet-container')
+  await page.click('[data-testid=site-new-form] [data-testid=save]')
+  await page.waitForSelector('#f-name-error')
+  assert.match(await page.innerText('[data-testid=location-error]'), /Place the site/)
+  await shot(page, '02-new-site-errors')
+
+  await page.fill('#f-name', 'Thornwaite sluice')
+  await page.fill('#f-riverName', 'Brackwin Water')
+  await clickMap(page, 0.5, 0.5)
+  assert.notEqual(await page.inputValue('#f-location-lat'), '', 'a map click fills in the latitude')
+  await page.click('[data-testid=map-mode-reach]')
+  await clickMap(page, 0.3, 0.3)
+  await clickMap(page, 0.45, 0.45)
+  await clickMap(page, 0.6, 0.55)
+  await clickMap(page, 0.8, 0.7)
+  assert.match(await page.innerText('[data-testid=reach-summary]'), /4 points/)
+  await page.click('[data-testid=map-undo]')
+  assert.match(await page.innerText('[data-testid=reach-summary]'), /3 points/)
+  await page.fill('#f-weir-grossHeadM', '1.8')
+  await page.fill('#f-weir-crestWidthM', '11.5')
+  await page.fill('#f-months-6-waterTempC', '17.5')
+  await shot(page, '03-new-site-filled')
+  await page.click('[data-testid=site-new-form] [data-testid=save]')
+  await page.waitForURL(/\/sites\/\d+$/)
+  await page.waitForSelector('[data-testid=site-overview-form] .leaflet-container')
+  assert.equal(await page.innerText('[data-testid=site-name]'), 'Thornwaite sluice')
+  const siteUrl = page.url()
+  const siteId = Number(siteUrl.split('/').pop())
+
+  // Save a change, then lose a race against another save and reload.
+  await page.fill('#f-notes', 'Sluice gate on the right bank.')
+  await page.click('[data-testid=site-overview-form] [data-testid=save]')
+  await page.waitForSelector('[data-testid=saved]')
+  await page.evaluate(async (id) => {
+    const site = await (await fetch(`/api/sites/${id}`)).json()
+    await fetch(`/api/sites/${id}`, { method: 'PATCH', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ version: site.version, notes: 'Changed elsewhere.' }) })
+  }, siteId)
+  await page.fill('#f-name', 'Thornwaite sluice gate')
+  expectRefusal(409)
+  await page.click('[data-testid=site-overview-form] [data-testid=save]')
+  await page.waitForSelector('[data-testid=conflict-notice]')
+  await shot(page, '04-conflict')
+  await page.click('[data-testid=conflict-reload]')
+  await page.waitForSelector('[data-testid=conflict-notice]', { state: 'detached' })
+  assert.equal(await page.inputValue('#f-notes'), 'Changed elsewhere.')
+  assert.equal(await page.inputValue('#f-name'), 'Thornwaite sluice')
+
+  // Hydrology: FDC rows are checked row by row, then saved and charted.
+  await page.click('[data-testid=tab-hydrology]')
+  await page.waitForSelector('[data-testid=fdc-editor]')
+  for (const [e, f] of [['10', '6'], ['50', '7'], ['40', '1']]) {
+    await page.click('[data-testid=fdc-add]')
+    const row = page.locator('[data-testid=fdc-editor] tbody tr').last()
+    await row.locator('input').nth(0).fill(e!)
+    await row.locator('input').nth(1).fill(f!)
+  }
+  await page.click('[data-testid=fdc-editor] [data-testid=save]')
+  await page.waitForSelector('#fdc-1-flow-error')
+  assert.match(await page.innerText('#fdc-2-exceedance-error'), /must rise/)
+  await shot(page, '05-fdc-errors')
+  await page.fill('#fdc-1-flow', '3.2')
+  await page.fill('#fdc-2-exceedance', '95')
+  await page.click('[data-testid=fdc-editor] [data-testid=save]')
+  await page.waitForSelector('[data-testid=fdc-editor] [data-testid=saved]')
+  await page.waitForSelector('[data-testid=fdc-chart] canvas')
+  assert.match(await page.innerText('[data-testid=hydrology-stats]'), /Entered FDC, 3 points/)
+  await shot(page, '06-fdc-chart')
+
+  // Upload: refused lines are listed, ambiguous columns are asked for, a good file is stored.
+  await page.setInputFiles('[data-testid=flow-file]', csv(['date,flow', '2020-01-01,2.5', '2020-01-02,-1', '2020-13-40,3', '2020-01-04,lots']))
+  expectRefusal(422)
+  await page.click('[data-testid=flow-upload-send]')
+  await page.waitForSelector('[data-testid=flow-upload-errors]')
+  assert.ok((await page.locator('[data-testid=flow-upload-errors] tbody tr').count()) >= 3, 'each bad line has a row')
+  await shot(page, '07-upload-line-errors')
+  await page.setInputFiles('[data-testid=flow-file]', csv(['when,reading,other', '2020-01-01,2.5,1', '2020-01-02,2.4,1', '2020-01-03,2.3,1']))
+  expectRefusal(422)
+  await page.click('[data-testid=flow-upload-send]')
+  await page.waitForSelector('[data-testid=column-picker]')
+  await page.selectOption('#f-dateColumn', 'when')
+  await page.selectOption('#f-flowColumn', 'reading')
+  await shot(page, '08-upload-columns')
+  await page.click('[data-testid=column-picker-send]')
+  await page.waitForSelector('[data-testid=flow-record-card]')
+  await page.setInputFiles('[data-testid=flow-file]', csv(goodRecord()))
+  await page.click('[data-testid=flow-upload-send]')
+  await page.waitForSelector('[data-testid=flow-upload-summary]')
+  await page.waitForFunction(() => /1,095 days/.test(document.querySelector('[data-testid=flow-record-card]')?.textContent ?? ''))
+  await page.waitForSelector('[data-testid=hydrograph] canvas')
+  assert.match(await page.innerText('[data-testid=hydrology-stats]'), /Daily flow record/)
+  await shot(page, '09-record-uploaded')
+
+  // Months.
+  await page.click('[data-testid=tab-months]')
+  await page.waitForSelector('[data-testid=months-table]')
+  assert.equal(await page.inputValue('#f-months-6-waterTempC'), '17.5')
+  await page.fill('#f-months-0-upstreamOxygen-value', '45')
+  await page.selectOption('#f-months-0-upstreamOxygen-unit', 'mg/L')
+  await page.click('[data-testid=site-months-form] [data-testid=save]')
+  await page.waitForSelector('#f-months-0-upstreamOxygen-value-error')
+  await page.fill('#f-months-0-upstreamOxygen-value', '11.2')
+  await page.click('[data-testid=site-months-form] [data-testid=save]')
+  await page.waitForSelector('[data-testid=site-months-form] [data-testid=saved]')
+  await shot(page, '10-months')
+
+  // Attachments: upload with progress, list, refuse a non-image, remove.
+  await page.click('[data-testid=tab-attachments]')
+  await page.waitForSelector('[data-testid=attachment-upload]')
+  await page.setInputFiles('[data-testid=attachment-file]', { name: 'weir-crest.png', mimeType: 'image/png', buffer: PNG })
+  await page.waitForSelector('[data-testid=attachments] tbody tr')
+  expectRefusal(415)
+  await page.setInputFiles('[data-testid=attachment-file]', { name: 'notes.png', mimeType: 'image/png', buffer: Buffer.from('not an image at all') })
+  await page.waitForSelector('[data-testid=attachment-error]')
+  await shot(page, '11-attachments')
+  const rows = page.locator('[data-testid=attachments] tbody tr')
+  await rows.first().getByRole('button', { name: /Remove/ }).click()
+  await rows.first().getByRole('button', { name: 'Remove it' }).click()
+  await page.waitForSelector('text=No photos or documents yet.')
+
+  // Delete, with the confirm dialog; the portfolio says an admin can restore it.
+  await page.click('[data-testid=delete-site]')
+  await page.waitForSelector('[data-testid=delete-dialog][open]')
+  await shot(page, '12-delete-dialog')
+  await page.click('[data-testid=confirm-delete]')
+  await page.waitForSelector('[data-testid=deleted-notice]')
+  assert.equal(await page.locator('[data-testid=site-table] a', { hasText: 'Thornwaite sluice' }).count(), 0)
+  await page.context().close()
+  return siteId
+}
+
+async function viewerJourney(browser: Browser) {
+  const page = await openPage(browser)
+  await signIn(page, VIEWER)
+  assert.equal(await page.locator('[data-testid=new-site]').count(), 0, 'viewers get no New site button')
+  await page.locator('[data-testid=site-table] tbody a').first().click()
+  await page.waitForSelector('[data-testid=site-overview-form] .leaflet-container')
+  assert.equal(await page.locator('[data-testid=save]').count(), 0, 'viewers get no Save')
+  assert.equal(await page.locator('[data-testid=delete-site]').count(), 0, 'viewers get no Delete')
+  assert.equal(await page.locator('[data-testid=map-mode-reach]').count(), 0, 'viewers get no map tools')
+  assert.equal(await page.getAttribute('#f-name', 'readonly'), '')
+  await shot(page, '13-viewer-site')
+  await page.click('[data-testid=tab-hydrology]')
+  await page.waitForSelector('[data-testid=fdc-chart] canvas')
+  assert.equal(await page.locator('[data-testid=flow-upload]').count(), 0, 'viewers get no upload')
+  await shot(page, '14-viewer-hydrology')
+  await page.context().close()
+}
+
+async function adminRestores(browser: Browser, siteId: number) {
+  const page = await openPage(browser)
+  await signIn(page, ADMIN)
+  await page.click('[data-testid=deleted-sites] summary')
+  await page.click(`[data-testid=restore-${siteId}]`)
+  await page.waitForSelector(`[data-testid=site-row-${siteId}]`)
+  await page.context().close()
+}
+
+mkdirSync(SHOTS, { recursive: true })
+const browser = await chromium.launch({
+  executablePath: '/usr/bin/chromium',
+  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+})
+try {
+  const siteId = await engineerJourney(browser)
+  await viewerJourney(browser)
+  await adminRestores(browser, siteId)
+  assert.deepEqual(problems, [], 'no console errors, page errors or failed requests')
+  assert.deepEqual([...provoked.values()].filter((n) => n > 0), [], 'every refusal provoked on purpose was seen')
+  console.log(`sites journey passed; screenshots in ${SHOTS}`)
+} finally {
+  await browser.close()
+}
