@@ -1,4 +1,5 @@
 import type { SiteInput } from '../shared/schemas/site'
+import type { OptionInputDraft } from '../shared/schemas/option'
 import type { Role } from '../shared/utils/roles'
 
 // The invented demo scenario: no real organisation, river, site or person. E-mail addresses use
@@ -180,3 +181,48 @@ export function demoDailyFlows(spec: DemoRecordSpec): { date: string; flow: numb
   }
   return days
 }
+
+// ——— Design options and their stored assessments ———
+// Two options at Hollin Mill weir, one at each other site. The seed stores one assessment of each,
+// computed by the real engine from the site and option as stored (db/assessmentInput.ts).
+
+/** One demo option: the site it belongs to (by name) and the option as a form would send it. */
+export interface DemoOption {
+  siteName: string
+  option: OptionInputDraft
+}
+
+export const DEMO_OPTIONS: readonly DemoOption[] = [
+  {
+    siteName: 'Hollin Mill weir',
+    option: {
+      name: 'Two units in the old leat',
+      notes: 'Both venturis set side by side in the silted leat mouth, air pipes up the left-bank wall to one turbine house.',
+      design: { units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.1, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 9 } },
+    },
+  },
+  {
+    siteName: 'Hollin Mill weir',
+    option: {
+      name: 'Three smaller units across the crest',
+      notes: 'Three units spread along the weir crest; more civils, but they stage in one by one as the river rises.',
+      design: { units: 3, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 3, air: { pipeDiameter_m: 0.4, pipeLength_m: 11 } },
+    },
+  },
+  {
+    siteName: 'Skelby gauging weir',
+    option: {
+      name: 'Pair below the gauging section',
+      notes: 'Kept clear of the gauging section so the agency\'s rating is undisturbed.',
+      design: { units: 2, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.4, pipeLength_m: 7 } },
+    },
+  },
+  {
+    siteName: 'Cragg Foot drop',
+    option: {
+      name: 'Pair on the right bank',
+      notes: 'Right bank, away from the village outfall; chosen to test the summer oxygen case.',
+      design: { units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.2, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 8 } },
+    },
+  },
+]

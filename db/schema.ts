@@ -120,7 +120,52 @@ export interface AttachmentsTable {
   deleted_at: string | null
 }
 
+export interface OptionsTable {
+  id: Generated<number>
+  site_id: number
+  org_id: number
+  name: string
+  notes: ColumnType<string, string | undefined, string>
+  /** JSON: the engine's option (shared/schemas/assess.ts OptionInputSchema), defaults filled in. */
+  design: string
+  /** JSON: the engine settings (SettingsInputSchema), defaults filled in. */
+  settings: string
+  version: ColumnType<number, number | undefined, number>
+  created_by: number | null
+  created_at: CreatedAt
+  updated_at: ColumnType<string, string | undefined, string>
+  deleted_at: string | null
+  deleted_by: number | null
+}
 
+export interface AssessmentsTable {
+  id: Generated<number>
+  option_id: number
+  site_id: number
+  org_id: number
+  engine_version: string
+  annual_energy_mwh: number
+  capacity_factor: number
+  rated_power_kw: number
+  min_cavitation_margin_m: number | null
+  net_oxygen_gain_slf_mgl: number
+  lcoe: number | null
+  /** JSON: ids of the flags raised. */
+  flags_raised: string
+  flag_count: number
+  supersedes_id: number | null
+  created_by: number | null
+  created_at: CreatedAt
+}
+
+/** The bulky part of an assessment, one row each. */
+export interface AssessmentPayloadsTable {
+  assessment_id: number
+  /** JSON: the exact AssessInput the engine ran, defaults filled in. */
+  input_json: string
+  /** JSON: the whole AssessResult. */
+  result_json: string
+}
 
 /** The whole database, as Kysely sees it. */
 export interface Database {
@@ -133,6 +178,9 @@ export interface Database {
   flow_days: FlowDaysTable
   flow_records: FlowRecordsTable
   attachments: AttachmentsTable
+  options: OptionsTable
+  assessments: AssessmentsTable
+  assessment_payloads: AssessmentPayloadsTable
 }
 
 export type UserRow = Selectable<UsersTable>
@@ -143,3 +191,6 @@ export type SiteRow = Selectable<SitesTable>
 export type NewSite = Insertable<SitesTable>
 export type FlowRecordRow = Selectable<FlowRecordsTable>
 export type AttachmentRow = Selectable<AttachmentsTable>
+export type OptionRow = Selectable<OptionsTable>
+export type AssessmentRow = Selectable<AssessmentsTable>
+export type NewAssessment = Insertable<AssessmentsTable>

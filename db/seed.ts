@@ -1,7 +1,10 @@
 import type { Kysely, Transaction } from 'kysely'
 import { fdcFromRecord, fdcStats } from '../shared/engine/hydrology'
 import type { Database } from './schema'
-import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_PASSWORD, DEMO_SITES, demoDailyFlows, type DemoSite } from './demo-scenario'
+import { assess } from '../shared/engine/assess'
+import { OptionInputSchema } from '../shared/schemas/option'
+import { buildAssessInput, insertAssessment, loadStoredRecord, storedOption } from './assessmentInput'
+import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_SITES, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
 
 /** Hashes a password the same way the server does (nuxt-auth-utils' scrypt). */
 export type PasswordHasher = (password: string) => Promise<string>
@@ -39,6 +42,7 @@ export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Prom
     const engineer = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!
     const engineerId = (await trx.selectFrom('users').select('id').where('email', '=', engineer.email).executeTakeFirstOrThrow()).id
     for (const demo of DEMO_SITES) created += await seedSite(trx, org.id, engineerId, demo)
+    for (const demo of DEMO_OPTIONS) created += await seedOption(trx, org.id, engineerId, demo)
     if (created) {
       await trx.insertInto('audit_log').values({ org_id: org.id, user_id: null, action: 'demo.seeded', detail: JSON.stringify({ accounts: DEMO_ACCOUNTS.length, sites: DEMO_SITES.length }) }).execute()
     }
@@ -107,4 +111,30 @@ async function seedSite(trx: Transaction<Database>, orgId: number, userId: numbe
     })
     .execute()
   return 2
+}
+
+/**
+ * Adds one demo option to its demo site unless the site already has a live option by that name, and
+ * stores one assessment of it (the real engine, on the input the server would build) unless it has
+ * one; returns the records created. A missing or deleted site is left alone.
+ */
+async function seedOption(trx: Transaction<Database>, orgId: number, userId: number, demo: DemoOption): Promise<number> {
+  const site = await trx.selectFrom('sites').selectAll().where('org_id', '=', orgId).where('name', '=', demo.siteName).where('deleted_at', 'is', null).executeTakeFirst()
+  if (!site) return 0
+  let created = 0
+  const input = OptionInputSchema.parse(demo.option)
+  let option = await trx.selectFrom('options').selectAll().where('site_id', '=', site.id).where('name', '=', input.name).where('deleted_at', 'is', null).executeTakeFirst()
+  if (!option) {
+    option = await trx
+      .insertInto('options')
+      .values({ site_id: site.id, org_id: orgId, name: input.name, notes: input.notes, design: JSON.stringify(input.design), settings: JSON.stringify(input.settings), created_by: userId })
+      .returningAll()
+      .executeTakeFirstOrThrow()
+    created++
+  }
+  const stored = await trx.selectFrom('assessments').select('id').where('option_id', '=', option.id).executeTakeFirst()
+  if (stored) return created
+  const engineInput = buildAssessInput(site, await loadStoredRecord(trx, site.id), storedOption(option))
+  await insertAssessment(trx, { option, userId, input: engineInput, result: assess(engineInput), supersedesId: null })
+  return created + 1
 }

@@ -1,12 +1,14 @@
 import type { Migration, MigrationProvider } from 'kysely'
 import * as m0001 from './0001_foundation'
 import * as m0002 from './0002_sites'
+import * as m0003 from './0003_options_assessments'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
 export const migrations: Record<string, Migration> = {
   '0001_foundation': m0001,
   '0002_sites': m0002,
+  '0003_options_assessments': m0003,
 }
 
 /** Kysely migration provider over the static list above. */

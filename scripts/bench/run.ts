@@ -2,9 +2,10 @@
 import { appendFileSync, existsSync, writeFileSync } from 'node:fs'
 import { engineBench } from './engine'
 import { type BenchFigure, machine } from './harness'
+import { portfolioBench } from './portfolio'
 
 const FILE = 'docs/benchmarks.md'
-const suites: [string, () => BenchFigure[]][] = [['Engine', engineBench]]
+const suites: [string, () => BenchFigure[] | Promise<BenchFigure[]>][] = [['Engine', engineBench], ['Portfolio', portfolioBench]]
 
 if (!existsSync(FILE)) {
   writeFileSync(FILE, '# Benchmarks\n\nWritten by `npm run bench`; each run appends a section. Targets stand beside each figure.\n')
@@ -12,7 +13,7 @@ if (!existsSync(FILE)) {
 const lines = [`\n## ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC`, '', `Machine: ${machine()}`, '']
 let failed = 0
 for (const [title, run] of suites) {
-  const figures = run()
+  const figures = await run()
   lines.push(`### ${title}`, '', '| measure | figure | target | met |', '|---|---|---|---|')
   for (const f of figures) {
     lines.push(`| ${f.name} | ${f.value.toFixed(2)} ${f.unit} | ${f.target} | ${f.pass ? 'yes' : '**no**'} |`)

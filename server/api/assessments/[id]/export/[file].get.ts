@@ -1,0 +1,16 @@
+import type { AssessResult } from '../../../../../shared/engine/assess'
+import { AssessmentExportParamsSchema } from '../../../../../shared/schemas/option'
+import { READER_ROLES } from '../../../../../shared/utils/roles'
+
+// GET /api/assessments/[id]/export/perFlow.csv | months.csv | summary.csv: one table of the stored
+// result as CSV with units in the header, as a download. Every role of the organisation may export.
+export default defineEventHandler(async (event) => {
+  const { id, table } = await getValidatedRouterParams(event, validator(AssessmentExportParamsSchema, 'params'))
+  const { assessment, option } = await requireAssessment(event, id, READER_ROLES)
+  const payload = await useDb().selectFrom('assessment_payloads').select('result_json').where('assessment_id', '=', assessment.id).executeTakeFirstOrThrow()
+  const csv = assessmentCsv(JSON.parse(payload.result_json) as AssessResult, table)
+  const safeName = option.name.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'option'
+  setResponseHeader(event, 'Content-Type', 'text/csv; charset=utf-8')
+  setResponseHeader(event, 'Content-Disposition', `attachment; filename="gillwatt-assessment-${id}-${safeName}-${table}.csv"`)
+  return csv
+})

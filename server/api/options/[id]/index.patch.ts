@@ -1,0 +1,32 @@
+import { sql } from 'kysely'
+import { OptionParamsSchema, OptionPatchSchema } from '../../../../shared/schemas/option'
+import { EDITOR_ROLES } from '../../../../shared/utils/roles'
+
+// Engineers and admins change an option. The body carries the version they last read: when someone
+// else has saved since, 409 with the current version and nothing is changed. Stored assessments keep
+// the input they ran; the next assessment uses the changed design.
+export default defineEventHandler(async (event) => {
+  const { id } = await getValidatedRouterParams(event, validator(OptionParamsSchema, 'params'))
+  const { user, site } = await requireOption(event, id, EDITOR_ROLES)
+  const { version, ...patch } = await readValidatedBody(event, validator(OptionPatchSchema, 'body'))
+  const changed = Object.keys(patch).filter((k) => patch[k as keyof typeof patch] !== undefined)
+  const updated = await useDb()
+    .updateTable('options')
+    .set({ ...optionColumns(patch), version: sql<number>`version + 1`, updated_at: new Date().toISOString() })
+    .where('id', '=', id)
+    .where('version', '=', version)
+    .where('deleted_at', 'is', null)
+    .returningAll()
+    .executeTakeFirst()
+  if (!updated) {
+    const current = await useDb().selectFrom('options').select(['version', 'updated_at']).where('id', '=', id).executeTakeFirst()
+    throw createError({
+      statusCode: 409,
+      statusMessage: 'Conflict',
+      message: `version: the option was changed by someone else (now version ${current?.version ?? '?'}, you sent ${version}); reload it and apply your change again`,
+      data: { currentVersion: current?.version ?? null, updatedAt: current?.updated_at ?? null },
+    })
+  }
+  await audit({ orgId: site.org_id, userId: user.id, action: 'option.updated', targetType: 'option', targetId: id, detail: { siteId: site.id, fields: changed, version: updated.version } })
+  return loadOptionDto(updated)
+})

@@ -1,0 +1,27 @@
+import { OptionInputSchema } from '../../../../../shared/schemas/option'
+import { SiteParamsSchema } from '../../../../../shared/schemas/site'
+import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+
+// Engineers and admins add a design option to a site; answers 201 with the stored option.
+export default defineEventHandler(async (event) => {
+  const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
+  const { user, site } = await requireSite(event, id, EDITOR_ROLES)
+  const input = await readValidatedBody(event, validator(OptionInputSchema, 'body'))
+  const cols = optionColumns(input)
+  const row = await useDb()
+    .insertInto('options')
+    .values({
+      site_id: site.id,
+      org_id: site.org_id,
+      name: input.name,
+      notes: input.notes,
+      design: cols.design!,
+      settings: cols.settings!,
+      created_by: user.id,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow()
+  await audit({ orgId: site.org_id, userId: user.id, action: 'option.created', targetType: 'option', targetId: row.id, detail: { siteId: site.id, name: row.name } })
+  setResponseStatus(event, 201)
+  return optionDto(row, user.name, null)
+})

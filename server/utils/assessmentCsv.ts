@@ -1,0 +1,84 @@
+// CSV tables of a stored assessment, units in every header. Pure (papaparse only), so it needs no Nitro.
+import Papa from 'papaparse'
+import type { AssessResult, MonthRow, PerFlowRow } from '../../shared/engine/assess'
+import type { AssessmentTable } from '../../shared/schemas/option'
+
+type Column<R> = [header: string, value: (row: R) => string | number | null]
+
+const PER_FLOW: Column<PerFlowRow>[] = [
+  ['Exceedance (% of time)', (r) => r.exceedance],
+  ['River flow (m³/s)', (r) => r.riverFlow_m3s],
+  ['Regime (-)', (r) => r.regime],
+  ['Units running (-)', (r) => r.unitsRunning],
+  ['Flow per unit (m³/s)', (r) => r.unitFlow_m3s],
+  ['Spill (m³/s)', (r) => r.spill_m3s],
+  ['Reserved flow (m³/s)', (r) => r.reservedFlow_m3s],
+  ['Gross head (m)', (r) => r.grossHead_m],
+  ['Working head (m)', (r) => r.workingHead_m],
+  ['Throat velocity (m/s)', (r) => r.throatVelocity_ms],
+  ['Suction head (m)', (r) => r.suctionHead_m],
+  ['Cavitation margin (m)', (r) => r.cavitationMargin_m],
+  ['Cavitation index (-)', (r) => r.cavitationIndex],
+  ['Air flow (m³/s)', (r) => r.airFlow_m3s],
+  ['Electrical power (kW)', (r) => r.electricalPower_kW],
+  ['Water-to-wire efficiency (-)', (r) => r.waterToWire],
+  ['Downstream oxygen without scheme (mg/L)', (r) => r.downstreamOxygenWithout_mgL],
+  ['Downstream oxygen with scheme (mg/L)', (r) => r.downstreamOxygenWith_mgL],
+  ['Net oxygen gain (mg/L)', (r) => r.netOxygenGain_mgL],
+  ['Unit total dissolved gas (fraction of saturation)', (r) => r.unitTotalDissolvedGas],
+]
+
+const MONTHS: Column<MonthRow>[] = [
+  ['Month (-)', (r) => r.name],
+  ['Water temperature (°C)', (r) => r.temperature_C],
+  ['Flow (m³/s)', (r) => r.flow_m3s],
+  ['Flow basis (-)', (r) => r.flowBasis],
+  ['Upstream oxygen (mg/L)', (r) => r.upstreamOxygen_mgL],
+  ['Downstream oxygen without scheme (mg/L)', (r) => r.downstreamWithout_mgL],
+  ['Downstream oxygen with scheme (mg/L)', (r) => r.downstreamWith_mgL],
+  ['Downstream oxygen, field-transfer method (mg/L)', (r) => r.downstreamFieldTransfer_mgL],
+  ['Downstream oxygen, bubble-contact method (mg/L)', (r) => r.downstreamBubbleContact_mgL],
+  ['Net oxygen gain (mg/L)', (r) => r.netGain_mgL],
+  ['Oxygen target (mg/L)', (r) => r.target_mgL],
+  ['Unit total dissolved gas (fraction of saturation)', (r) => r.unitTotalDissolvedGas],
+  ['Cavitation margin (m)', (r) => r.cavitationMargin_m],
+  ['Flags raised (-)', (r) => r.flags.join(' ')],
+  ['Energy (MWh)', (r) => r.energy_MWh],
+  ['Energy basis (-)', (r) => r.energyBasis],
+]
+
+/** The summary as figure / value / unit rows. */
+function summaryRows(result: AssessResult): (string | number | null)[][] {
+  const s = result.summary
+  const m = result.money
+  return [
+    ['Annual energy', s.annualEnergy_MWh, 'MWh/yr'],
+    ['Capacity factor', s.capacityFactor, '-'],
+    ['Full-load hours', s.fullLoadHours, 'h/yr'],
+    ['Rated power', s.ratedPower_kW, 'kW'],
+    ['Mean air flow', s.meanAirFlow_m3s, 'm³/s'],
+    ['Peak air flow', s.peakAirFlow_m3s, 'm³/s'],
+    ['Minimum cavitation margin', s.minCavitationMargin_m, 'm'],
+    ['Minimum cavitation index', s.minCavitationIndex, '-'],
+    ['Largest unit total dissolved gas', s.maxUnitTotalDissolvedGas, 'fraction of saturation'],
+    ['Net oxygen gain at summer low flow', s.netOxygenGainSummerLowFlow_mgL, 'mg/L'],
+    ['Summer low flow', s.summerLowFlow.flow_m3s, 'm³/s'],
+    ['Capital cost', m.capex, 'currency'],
+    ['Operating cost', m.opexPerYear, 'currency/yr'],
+    ['Levelised cost of energy', s.lcoe, 'currency/MWh'],
+    ['Net present value', m.npv, 'currency'],
+    ['Simple payback', m.simplePaybackYears, 'yr'],
+    ['Carbon avoided', m.carbonAvoidedT, 't CO₂/yr'],
+    ...s.flags.map((f) => [`Flag: ${f.id}`, f.raised ? 'raised' : 'clear', '-']),
+    ['Engine version', result.engineVersion, '-'],
+  ]
+}
+
+const cell = (v: string | number | null) => (v === null ? '' : v)
+
+/** One table of a stored result as CSV text (CRLF lines, header first). */
+export function assessmentCsv(result: AssessResult, table: AssessmentTable): string {
+  if (table === 'perFlow') return Papa.unparse({ fields: PER_FLOW.map((c) => c[0]), data: result.perFlow.map((r) => PER_FLOW.map((c) => cell(c[1](r)))) })
+  if (table === 'months') return Papa.unparse({ fields: MONTHS.map((c) => c[0]), data: result.months.map((r) => MONTHS.map((c) => cell(c[1](r)))) })
+  return Papa.unparse({ fields: ['Figure', 'Value', 'Unit'], data: summaryRows(result).map((r) => r.map(cell)) })
+}

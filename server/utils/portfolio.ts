@@ -1,0 +1,179 @@
+// The portfolio query: an organisation's live sites with the headline figures of each site's latest
+// assessment (of a live option), in ONE SQL statement (no query per site). The total comes from a
+// window count, so paging needs no second query.
+// No Nitro globals here: scripts/bench/portfolio.ts times this very query.
+import { sql, type Kysely } from 'kysely'
+import Papa from 'papaparse'
+import type { Database } from '../../db/schema'
+import type { FlagId } from '../../shared/engine/assess'
+import { ENGINE_VERSION } from '../../shared/engine/version'
+import type { PortfolioQuery, PortfolioRow, PortfolioSort } from '../../shared/schemas/option'
+
+// Sort keys as the `page` step sees them: site columns from `latest`, figures from the assessment.
+const SORT_COLUMNS = {
+  name: 'l.name',
+  riverName: 'l.river_name',
+  grossHeadM: 'l.gross_head_m',
+  assessedAt: 'a.id',
+  annualEnergyMWh: 'a.annual_energy_mwh',
+  capacityFactor: 'a.capacity_factor',
+  ratedPowerKw: 'a.rated_power_kw',
+  minCavitationMarginM: 'a.min_cavitation_margin_m',
+  netOxygenGainSlfMgL: 'a.net_oxygen_gain_slf_mgl',
+  lcoe: 'a.lcoe',
+  flagsRaised: 'a.flag_count',
+} as const satisfies Record<PortfolioSort, string>
+
+/** A LIKE pattern finding `text` anywhere, with % _ and \ taken literally (use with `escape '\'`). */
+const likeAnywhere = (text: string) => `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
+
+/**
+ * The portfolio statement for one organisation; `paged: false` returns every matching row (CSV).
+ * Three steps: `latest` reads each live site once from the covering sites_portfolio index, with its
+ * latest assessment of a live option found backwards on the covering (site_id, id, option_id) index
+ * (the organisation's live option ids are listed once from options_live); `page` sorts those by the
+ * chosen key, counts them (window) and cuts the page; only the page's rows then fetch the figures and
+ * the option name.
+ */
+export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<PortfolioQuery, 'format'>, paged = true) {
+  const dir = query.dir === 'desc' ? sql`desc` : sql`asc`
+  return db
+    .with(
+      (cte) => cte('latest').materialized(),
+      (d) => {
+        let sites = d
+          .selectFrom('sites')
+          .select((eb) => [
+            'sites.id as site_id',
+            'sites.name',
+            'sites.river_name',
+            'sites.lat',
+            'sites.lng',
+            'sites.gross_head_m',
+            eb
+              .selectFrom('assessments')
+              .select('assessments.id')
+              .whereRef('assessments.site_id', '=', 'sites.id')
+              .where('assessments.option_id', 'in', (w) => w.selectFrom('options').select('options.id').where('options.org_id', '=', orgId).where('options.deleted_at', 'is', null))
+              .orderBy('assessments.id', 'desc')
+              .limit(1)
+              .as('latest_id'),
+          ])
+          .where('sites.org_id', '=', orgId)
+          .where('sites.deleted_at', 'is', null)
+        if (query.q) {
+          const pattern = likeAnywhere(query.q)
+          sites = sites.where((eb) => eb.or([sql<boolean>`${sql.ref('sites.name')} like ${pattern} escape '\\'`, sql<boolean>`${sql.ref('sites.river_name')} like ${pattern} escape '\\'`]))
+        }
+        if (query.river) sites = sites.where('sites.river_name', '=', query.river)
+        return sites
+      },
+    )
+    .with('page', (d) => {
+      let page = d
+        .selectFrom('latest as l')
+        .leftJoin('assessments as a', 'a.id', 'l.latest_id')
+        .select([
+          'l.site_id',
+          'l.name',
+          'l.river_name',
+          'l.lat',
+          'l.lng',
+          'l.gross_head_m',
+          'l.latest_id',
+          sql<string | number | null>`${sql.ref(SORT_COLUMNS[query.sort])}`.as('sort_key'),
+          sql<number>`count(*) over ()`.as('total'),
+        ])
+      if (query.assessed === 'yes') page = page.where('l.latest_id', 'is not', null)
+      if (query.assessed === 'no') page = page.where('l.latest_id', 'is', null)
+      page = page.orderBy(sql`${sql.ref(SORT_COLUMNS[query.sort])} ${dir} nulls last`).orderBy(sql`${sql.ref('l.site_id')} ${dir}`)
+      return paged ? page.limit(query.pageSize).offset((query.page - 1) * query.pageSize) : page
+    })
+    .selectFrom('page as p')
+    .leftJoin('assessments as a', 'a.id', 'p.latest_id')
+    .leftJoin('options as o', 'o.id', 'a.option_id')
+    .select([
+      'p.site_id',
+      'p.name',
+      'p.river_name',
+      'p.lat',
+      'p.lng',
+      'p.gross_head_m',
+      'p.total',
+      'a.id as assessment_id',
+      'a.option_id',
+      'o.name as option_name',
+      'a.created_at as assessed_at',
+      'a.engine_version',
+      'a.annual_energy_mwh',
+      'a.capacity_factor',
+      'a.rated_power_kw',
+      'a.min_cavitation_margin_m',
+      'a.net_oxygen_gain_slf_mgl',
+      'a.lcoe',
+      'a.flags_raised',
+    ])
+    .orderBy(sql`${sql.ref('p.sort_key')} ${dir} nulls last`)
+    .orderBy(sql`${sql.ref('p.site_id')} ${dir}`)
+}
+
+/** What one row of the statement holds. */
+export type PortfolioSqlRow = Awaited<ReturnType<ReturnType<typeof portfolioQuery>['execute']>>[number]
+
+/** Number of live sites matching the filters (only needed when a page lies past the end). */
+export async function portfolioCount(db: Kysely<Database>, orgId: number, query: Omit<PortfolioQuery, 'format'>): Promise<number> {
+  const first = await portfolioQuery(db, orgId, { ...query, page: 1, pageSize: 1 }).executeTakeFirst()
+  return first ? Number(first.total) : 0
+}
+
+/** A statement row as the API shows it. */
+export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
+  return {
+    siteId: r.site_id,
+    name: r.name,
+    riverName: r.river_name,
+    location: { lat: r.lat, lng: r.lng },
+    grossHeadM: r.gross_head_m,
+    latest:
+      r.assessment_id === null
+        ? null
+        : {
+            assessmentId: r.assessment_id,
+            optionId: r.option_id!,
+            optionName: r.option_name ?? '',
+            assessedAt: r.assessed_at!,
+            engineVersion: r.engine_version!,
+            stale: r.engine_version !== ENGINE_VERSION,
+            annualEnergyMWh: r.annual_energy_mwh!,
+            capacityFactor: r.capacity_factor!,
+            ratedPowerKw: r.rated_power_kw!,
+            minCavitationMarginM: r.min_cavitation_margin_m,
+            netOxygenGainSlfMgL: r.net_oxygen_gain_slf_mgl!,
+            lcoe: r.lcoe,
+            flagsRaised: JSON.parse(r.flags_raised ?? '[]') as FlagId[],
+          },
+  }
+}
+
+/** Text a spreadsheet will not run as a formula (a leading = + - @ gets a quote mark). */
+const safeText = (s: string) => (/^[=+\-@\t\r]/.test(s) ? `'${s}` : s)
+
+/** The portfolio rows as CSV, units in the header. */
+export function portfolioCsv(rows: readonly PortfolioRow[]): string {
+  return Papa.unparse({
+    fields: [
+      'Site id', 'Site', 'River', 'Latitude (°)', 'Longitude (°)', 'Gross head (m)', 'Option', 'Assessed at (UTC)', 'Engine version', 'Stale (-)',
+      'Annual energy (MWh/yr)', 'Capacity factor (-)', 'Rated power (kW)', 'Net oxygen gain at summer low flow (mg/L)',
+      'Levelised cost (currency/MWh)', 'Minimum cavitation margin (m)', 'Flags raised (-)',
+    ],
+    data: rows.map((r) => {
+      const l = r.latest
+      return [
+        r.siteId, safeText(r.name), safeText(r.riverName), r.location.lat, r.location.lng, r.grossHeadM,
+        l ? safeText(l.optionName) : '', l?.assessedAt ?? '', l?.engineVersion ?? '', l ? (l.stale ? 'yes' : 'no') : '',
+        l?.annualEnergyMWh ?? '', l?.capacityFactor ?? '', l?.ratedPowerKw ?? '', l?.netOxygenGainSlfMgL ?? '',
+        l?.lcoe ?? '', l?.minCavitationMarginM ?? '', l ? l.flagsRaised.join(' ') : '',
+      ]
+    }),
+  })
+}

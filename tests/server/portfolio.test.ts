@@ -1,0 +1,137 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import { Client } from './client'
+import { createAssessment, createOption } from './options-helpers'
+import { createSite, makeTeam } from './sites-helpers'
+
+let team: Awaited<ReturnType<typeof makeTeam>>
+const ids: Record<string, number> = {}
+let latestOfAlder: any
+let bigger: any
+let smaller: any
+
+// Four sites: Alder (two options; the newest assessment is of the second), Birch (one assessment of
+// a bigger design), Cedar (never assessed) and "=Danger" on another river (a name a spreadsheet would run).
+beforeAll(async () => {
+  team = await makeTeam('portfolio')
+  for (const [name, river] of [['Alder weir', 'Portfolio Water'], ['Birch weir', 'Portfolio Water'], ['Cedar weir', 'Portfolio Water'], ['=Danger weir', 'Other Beck']] as const) {
+    ids[name] = (await createSite(team.engineer, team.orgId, { name, riverName: river })).id
+  }
+  const alder1 = await createOption(team.engineer, ids['Alder weir']!, { name: 'Alder small', design: { units: 1 } })
+  const alder2 = await createOption(team.engineer, ids['Alder weir']!, { name: 'Alder pair' })
+  smaller = await createAssessment(team.engineer, alder1.id)
+  latestOfAlder = await createAssessment(team.engineer, alder2.id)
+  const birch = await createOption(team.engineer, ids['Birch weir']!, { name: 'Birch big', design: { units: 3, throatDiameter_m: 0.6, outletDiameter_m: 1.2 } })
+  bigger = await createAssessment(team.engineer, birch.id)
+  // A later assessment of a deleted option must not count as the site's latest.
+  const gone = await createOption(team.engineer, ids['Birch weir']!, { name: 'Birch deleted' })
+  await createAssessment(team.engineer, gone.id)
+  expect((await team.engineer.delete(`/api/options/${gone.id}`)).status).toBe(200)
+})
+
+const get = (query = '') => team.viewer.get(`/api/orgs/${team.orgId}/portfolio${query}`)
+const names = (rows: { name: string }[]) => rows.map((r) => r.name)
+
+describe('GET /api/orgs/[orgId]/portfolio', () => {
+  it('lists the live sites with the headline figures of their latest assessment and their location', async () => {
+    const res = await get()
+    expect(res.status).toBe(200)
+    expect(res.body).toMatchObject({ page: 1, pageSize: 50, total: 4, sort: 'name', dir: 'asc' })
+    expect(names(res.body.rows)).toEqual(['=Danger weir', 'Alder weir', 'Birch weir', 'Cedar weir'])
+    const alder = res.body.rows.find((r: { name: string }) => r.name === 'Alder weir')
+    expect(alder.location).toEqual({ lat: 54.4, lng: -2.9 })
+    expect(alder.latest).toMatchObject({
+      assessmentId: latestOfAlder.id,
+      optionName: 'Alder pair',
+      stale: false,
+      annualEnergyMWh: latestOfAlder.annualEnergyMWh,
+      capacityFactor: latestOfAlder.capacityFactor,
+      netOxygenGainSlfMgL: latestOfAlder.netOxygenGainSlfMgL,
+      lcoe: latestOfAlder.lcoe,
+      minCavitationMarginM: latestOfAlder.minCavitationMarginM,
+      flagsRaised: latestOfAlder.flagsRaised,
+    })
+    const birch = res.body.rows.find((r: { name: string }) => r.name === 'Birch weir')
+    expect(birch.latest.assessmentId).toBe(bigger.id)
+    expect(res.body.rows.find((r: { name: string }) => r.name === 'Cedar weir').latest).toBeNull()
+  })
+
+  it('sorts by an allow-listed figure either way, sites never assessed last', async () => {
+    // The two designs differ, so their energies do; the expected order follows the stored figures.
+    expect(bigger.annualEnergyMWh).not.toBe(latestOfAlder.annualEnergyMWh)
+    const highFirst = bigger.annualEnergyMWh > latestOfAlder.annualEnergyMWh ? ['Birch weir', 'Alder weir'] : ['Alder weir', 'Birch weir']
+    const desc = await get('?sort=annualEnergyMWh&dir=desc')
+    expect(names(desc.body.rows).slice(0, 2)).toEqual(highFirst)
+    expect(desc.body.rows.slice(2).every((r: { latest: unknown }) => r.latest === null)).toBe(true)
+    const asc = await get('?sort=annualEnergyMWh&dir=asc')
+    expect(names(asc.body.rows).slice(0, 2)).toEqual([...highFirst].reverse())
+    expect(asc.body.rows.slice(2).every((r: { latest: unknown }) => r.latest === null)).toBe(true)
+    for (const sort of ['capacityFactor', 'lcoe', 'netOxygenGainSlfMgL', 'minCavitationMarginM', 'ratedPowerKw', 'flagsRaised', 'assessedAt', 'riverName', 'grossHeadM']) {
+      const res = await get(`?sort=${sort}&dir=desc`)
+      expect(res.status, sort).toBe(200)
+      expect(res.body.total, sort).toBe(4)
+    }
+    const byDate = await get('?sort=assessedAt&dir=desc')
+    expect(names(byDate.body.rows)[0]).toBe('Birch weir')
+  })
+
+  it('filters by text, river and whether assessed', async () => {
+    expect(names((await get('?q=birch')).body.rows)).toEqual(['Birch weir'])
+    expect(names((await get('?q=%25')).body.rows)).toEqual([])
+    expect(names((await get('?river=other%20beck')).body.rows)).toEqual(['=Danger weir'])
+    expect(names((await get('?assessed=yes')).body.rows)).toEqual(['Alder weir', 'Birch weir'])
+    expect(names((await get('?assessed=no')).body.rows)).toEqual(['=Danger weir', 'Cedar weir'])
+  })
+
+  it('pages, and still counts the total on a page past the end', async () => {
+    const page2 = await get('?pageSize=1&page=2')
+    expect(page2.body).toMatchObject({ page: 2, pageSize: 1, total: 4 })
+    expect(names(page2.body.rows)).toEqual(['Alder weir'])
+    const past = await get('?pageSize=2&page=9')
+    expect(past.body.rows).toEqual([])
+    expect(past.body.total).toBe(4)
+  })
+
+  it('leaves out deleted sites', async () => {
+    const site = await createSite(team.engineer, team.orgId, { name: 'Short-lived weir' })
+    expect((await get()).body.total).toBe(5)
+    expect((await team.engineer.delete(`/api/sites/${site.id}`)).status).toBe(200)
+    expect((await get()).body.total).toBe(4)
+  })
+
+  it('answers 400 naming the field for a bad query', async () => {
+    for (const [query, field] of [['?sort=password', 'sort'], ['?dir=up', 'dir'], ['?page=0', 'page'], ['?pageSize=500', 'pageSize'], ['?assessed=maybe', 'assessed'], ['?format=xml', 'format']]) {
+      const res = await get(query)
+      expect(res.status, query).toBe(400)
+      expect(res.body.message, query).toMatch(new RegExp(`^${field}:`))
+    }
+  })
+
+  it('lets every role read; 404 to an outsider, 401 signed out', async () => {
+    for (const who of ['admin', 'engineer', 'reviewer', 'viewer'] as const) {
+      expect((await team[who].get(`/api/orgs/${team.orgId}/portfolio`)).status, who).toBe(200)
+    }
+    expect((await team.outsider.get(`/api/orgs/${team.orgId}/portfolio`)).status).toBe(404)
+    expect((await new Client().get(`/api/orgs/${team.orgId}/portfolio`)).status).toBe(401)
+  })
+
+  it('exports the same rows as CSV, every page, units in the header, formulas defused', async () => {
+    const res = await team.viewer.download(`/api/orgs/${team.orgId}/portfolio?format=csv&sort=annualEnergyMWh&dir=desc&pageSize=1`)
+    expect(res.status).toBe(200)
+    expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
+    expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename=".+\.csv"$/)
+    const lines = new TextDecoder().decode(res.bytes).trim().split(/\r\n/)
+    expect(lines[0]).toContain('Annual energy (MWh/yr)')
+    expect(lines[0]).toContain('Net oxygen gain at summer low flow (mg/L)')
+    expect(lines).toHaveLength(5)
+    const top = bigger.annualEnergyMWh > latestOfAlder.annualEnergyMWh ? { name: 'Birch weir', a: bigger } : { name: 'Alder weir', a: latestOfAlder }
+    expect(lines[1]).toMatch(new RegExp(`^${ids[top.name]},${top.name},Portfolio Water,`))
+    expect(lines[1]).toContain(`,${top.a.annualEnergyMWh},`)
+    expect(lines.find((l) => l.includes('Danger'))).toMatch(/^\d+,'=Danger weir,/)
+    expect((await team.outsider.download(`/api/orgs/${team.orgId}/portfolio?format=csv`)).status).toBe(404)
+  })
+
+  it('keeps the smaller option\'s assessment, only not as the latest', async () => {
+    const kept = await team.viewer.get(`/api/assessments/${smaller.id}`)
+    expect(kept.status).toBe(200)
+  })
+})
