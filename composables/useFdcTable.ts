@@ -1,40 +1,22 @@
-// The flow-duration-curve table editor's rules, kept pure so they can be unit-tested:
-// rows are edited as text, checked row by row, and turned into FDC points for the PATCH.
+// Table editors of typed numbers (the FDC points, the head-vs-flow table), kept pure so they can be
+// unit-tested: rows are edited as text, each cell checked against a rule with its unit, rows sorted
+// by a column, and the server's per-row issues mapped back onto the cells. The FDC's own rules follow.
 
-/** One FDC point as the API stores it: flow equalled or exceeded `exceedance` % of the time. */
-export interface FdcPointValue {
-  /** Exceedance, % of time, 0–100. */
-  exceedance: number
-  /** Flow, m³/s, 0 or more. */
-  flow: number
-}
-
-/** One editable row; the texts are what the user typed. */
-export interface FdcRow {
-  /** Stable key for v-for while rows move. */
-  key: number
-  exceedance: string
-  flow: string
-}
+/** One editable row of a table whose columns are `C`; the texts are what the user typed. */
+export type TableRow<C extends string> = { key: number } & Record<C, string>
 
 /** Messages for one row's cells. */
-export interface FdcRowError {
-  exceedance?: string
-  flow?: string
-}
+export type TableRowErrors<C extends string> = Partial<Record<C, string>>
 
-/** The outcome of checking the table. */
-export interface FdcCheck {
-  /** One entry per row, same order as the rows. */
-  rowErrors: FdcRowError[]
-  /** A message about the table as a whole (too few points), or ''. */
-  tableError: string
-  /** The points ready to send, or null while any error stands. */
-  points: FdcPointValue[] | null
+/** What a cell must hold: its name in messages, its unit and its range (inclusive). */
+export interface CellRule {
+  /** Lower-case name used in messages, e.g. "flow". */
+  name: string
+  /** Unit written after numbers in messages, e.g. "m³/s". */
+  unit: string
+  min?: number
+  max?: number
 }
-
-/** Fewest points an FDC may have. */
-export const FDC_MIN_POINTS = 3
 
 let nextKey = 1
 /** A fresh key for a new row. */
@@ -51,20 +33,26 @@ export function parseTypedNumber(text: string | number | null | undefined): numb
   return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) ? Number(t) : Number.NaN
 }
 
-/** Editable rows for stored points. */
-export function rowsFromPoints(points: readonly FdcPointValue[] | null | undefined): FdcRow[] {
-  return (points ?? []).map((p) => ({ key: newRowKey(), exceedance: String(p.exceedance), flow: String(p.flow) }))
+/** Editable rows for stored values, one text per column. */
+export function rowsFromValues<C extends string>(values: readonly Readonly<Record<C, number>>[] | null | undefined, columns: readonly C[]): TableRow<C>[] {
+  return (values ?? []).map((v) => {
+    const row = { key: newRowKey() } as TableRow<C>
+    for (const c of columns) (row as Record<C, string>)[c] = String(v[c])
+    return row
+  })
 }
 
-/** A blank row. */
-export function blankRow(): FdcRow {
-  return { key: newRowKey(), exceedance: '', flow: '' }
+/** A blank row of the given columns. */
+export function blankRowOf<C extends string>(columns: readonly C[]): TableRow<C> {
+  const row = { key: newRowKey() } as TableRow<C>
+  for (const c of columns) (row as Record<C, string>)[c] = ''
+  return row
 }
 
-/** Rows in order of rising exceedance; rows whose exceedance is blank or not a number go last, in their order. */
-export function sortRows(rows: readonly FdcRow[]): FdcRow[] {
-  const valueOf = (r: FdcRow) => {
-    const v = parseTypedNumber(r.exceedance)
+/** Rows by rising `column`; rows whose cell is blank or not a number go last, in their order. */
+export function sortRowsBy<C extends string>(rows: readonly TableRow<C>[], column: NoInfer<C>): TableRow<C>[] {
+  const valueOf = (r: TableRow<C>) => {
+    const v = parseTypedNumber(r[column])
     return v === null || Number.isNaN(v) ? Infinity : v
   }
   return rows
@@ -73,23 +61,109 @@ export function sortRows(rows: readonly FdcRow[]): FdcRow[] {
     .map((x) => x.row)
 }
 
+/** The texts of the rows, trimmed, as one string: two tables with equal texts are equal (for "unsaved changes"). */
+export function rowsText<C extends string>(rows: readonly TableRow<C>[], columns: readonly C[]): string {
+  return JSON.stringify(rows.map((r) => columns.map((c) => r[c].trim())))
+}
+
+const capital = (s: string) => s.charAt(0).toUpperCase() + s.slice(1)
+
+/** The message for one parsed cell under `rule`, or undefined when it is fine. */
+export function cellError(value: number | null, rule: CellRule): string | undefined {
+  const name = capital(rule.name)
+  if (value === null) return `Enter the ${rule.name}, ${rule.unit}`
+  if (Number.isNaN(value)) return `${name} must be a number`
+  const { min, max, unit } = rule
+  if (min !== undefined && max !== undefined && (value < min || value > max)) return `${name} must be between ${min} and ${max} ${unit}`
+  if (min !== undefined && value < min) return `${name} must be ${min} ${unit} or more`
+  if (max !== undefined && value > max) return `${name} must be ${max} ${unit} or less`
+  return undefined
+}
+
+/**
+ * Server issues such as `fdcPoints.2.flow` mapped onto row errors for `columns`; anything else under
+ * `prefix` (e.g. `fdcPoints` itself) comes back as the table message.
+ */
+export function rowErrorsFromIssues<C extends string = FdcColumn>(
+  fields: Record<string, string>,
+  rowCount: number,
+  prefix = 'fdcPoints',
+  columns: readonly C[] = FDC_COLUMNS as unknown as readonly C[],
+): { rowErrors: TableRowErrors<C>[]; tableError: string } {
+  const rowErrors: TableRowErrors<C>[] = Array.from({ length: rowCount }, () => ({}))
+  let tableError = ''
+  for (const [path, message] of Object.entries(fields)) {
+    if (path !== prefix && !path.startsWith(`${prefix}.`)) continue
+    const [index, cell] = path.slice(prefix.length + 1).split('.')
+    const i = Number(index)
+    if (index !== '' && Number.isInteger(i) && i >= 0 && i < rowCount && (columns as readonly string[]).includes(cell ?? '')) rowErrors[i]![cell as C] = message
+    else tableError ||= message
+  }
+  return { rowErrors, tableError }
+}
+
+// ——— the entered flow-duration curve ———
+
+/** One FDC point as the API stores it: flow equalled or exceeded `exceedance` % of the time. */
+export interface FdcPointValue {
+  /** Exceedance, % of time, 0–100. */
+  exceedance: number
+  /** Flow, m³/s, 0 or more. */
+  flow: number
+}
+
+export const FDC_COLUMNS = ['exceedance', 'flow'] as const
+export type FdcColumn = (typeof FDC_COLUMNS)[number]
+/** One editable FDC row. */
+export type FdcRow = TableRow<FdcColumn>
+/** Messages for one FDC row's cells. */
+export type FdcRowError = TableRowErrors<FdcColumn>
+
+/** The outcome of checking the table. */
+export interface FdcCheck {
+  /** One entry per row, same order as the rows. */
+  rowErrors: FdcRowError[]
+  /** A message about the table as a whole (too few points), or ''. */
+  tableError: string
+  /** The points ready to send, or null while any error stands. */
+  points: FdcPointValue[] | null
+}
+
+/** Fewest points an FDC may have. */
+export const FDC_MIN_POINTS = 3
+
+const EXCEEDANCE_RULE: CellRule = { name: 'exceedance', unit: '%', min: 0, max: 100 }
+const FDC_FLOW_RULE: CellRule = { name: 'flow', unit: 'm³/s', min: 0 }
+
+/** Editable rows for stored points. */
+export function rowsFromPoints(points: readonly FdcPointValue[] | null | undefined): FdcRow[] {
+  return rowsFromValues(points, FDC_COLUMNS)
+}
+
+/** A blank FDC row. */
+export function blankRow(): FdcRow {
+  return blankRowOf(FDC_COLUMNS)
+}
+
+/** Rows in order of rising exceedance; rows whose exceedance is blank or not a number go last, in their order. */
+export function sortRows(rows: readonly FdcRow[]): FdcRow[] {
+  return sortRowsBy(rows, 'exceedance')
+}
+
 /**
  * Checks every row: exceedance 0–100 %, flow 0 or more m³/s, exceedance rising without repeats,
  * flow not rising as exceedance rises, and at least three points (or none, with `allowEmpty`:
  * saving an empty table removes the entered curve).
  */
 export function checkFdcRows(rows: readonly FdcRow[], options: { allowEmpty?: boolean } = {}): FdcCheck {
-  const rowErrors: FdcRowError[] = rows.map(() => ({}))
   const parsed = rows.map((r) => ({ exceedance: parseTypedNumber(r.exceedance), flow: parseTypedNumber(r.flow) }))
-
-  parsed.forEach((p, i) => {
-    const e = rowErrors[i]!
-    if (p.exceedance === null) e.exceedance = 'Enter the exceedance, %'
-    else if (Number.isNaN(p.exceedance)) e.exceedance = 'Exceedance must be a number'
-    else if (p.exceedance < 0 || p.exceedance > 100) e.exceedance = 'Exceedance must be between 0 and 100 %'
-    if (p.flow === null) e.flow = 'Enter the flow, m³/s'
-    else if (Number.isNaN(p.flow)) e.flow = 'Flow must be a number'
-    else if (p.flow < 0) e.flow = 'Flow must be 0 m³/s or more'
+  const rowErrors: FdcRowError[] = parsed.map((p) => {
+    const e: FdcRowError = {}
+    const exceedance = cellError(p.exceedance, EXCEEDANCE_RULE)
+    const flow = cellError(p.flow, FDC_FLOW_RULE)
+    if (exceedance) e.exceedance = exceedance
+    if (flow) e.flow = flow
+    return e
   })
 
   // Order checks compare each row with the nearest earlier row whose cell is itself valid.
@@ -116,21 +190,4 @@ export function checkFdcRows(rows: readonly FdcRow[], options: { allowEmpty?: bo
     tableError,
     points: clean ? parsed.map((p) => ({ exceedance: p.exceedance as number, flow: p.flow as number })) : null,
   }
-}
-
-/**
- * Server issues such as `fdcPoints.2.flow` mapped onto row errors; anything else about the
- * points (e.g. `fdcPoints`) comes back as the table message.
- */
-export function rowErrorsFromIssues(fields: Record<string, string>, rowCount: number, prefix = 'fdcPoints'): { rowErrors: FdcRowError[]; tableError: string } {
-  const rowErrors: FdcRowError[] = Array.from({ length: rowCount }, () => ({}))
-  let tableError = ''
-  for (const [path, message] of Object.entries(fields)) {
-    if (path !== prefix && !path.startsWith(`${prefix}.`)) continue
-    const [, index, cell] = path.split('.')
-    const i = Number(index)
-    if (Number.isInteger(i) && i >= 0 && i < rowCount && (cell === 'exceedance' || cell === 'flow')) rowErrors[i]![cell] = message
-    else tableError ||= message
-  }
-  return { rowErrors, tableError }
 }

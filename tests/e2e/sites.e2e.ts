@@ -5,7 +5,7 @@
 // Drives Debian's chromium through playwright-core, saves screenshots to tests/e2e/screenshots/ and
 // exits non-zero on the first failed check or on any console error, page error or failed request.
 import assert from 'node:assert/strict'
-import { mkdirSync } from 'node:fs'
+import { mkdirSync, readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { chromium, type Browser, type Page } from 'playwright-core'
 
@@ -64,6 +64,16 @@ async function clickMap(page: Page, fx: number, fy: number) {
   const box = await page.locator('[data-testid=map-site-editor] .leaflet-container').boundingBox()
   assert.ok(box, 'the site map is on the page')
   await page.mouse.click(box.x + box.width * fx, box.y + box.height * fy)
+}
+
+/** Clicks a download button or link and answers the file the browser was given. */
+async function downloadOf(page: Page, selector: string): Promise<{ name: string; lines: string[] }> {
+  const [download] = await Promise.all([page.waitForEvent('download'), page.click(selector)])
+  const path = await download.path()
+  assert.ok(path, `the download from ${selector} was saved`)
+  const text = readFileSync(path, 'utf8')
+  assert.ok(text.endsWith('\r\n'), 'the CSV ends with a line end')
+  return { name: download.suggestedFilename(), lines: text.slice(0, -2).split('\r\n') }
 }
 
 function csv(lines: string[]): { name: string; mimeType: string; buffer: Buffer } {
@@ -125,6 +135,24 @@ async function engineerJourney(browser: Browser) {
   assert.match(await page.innerText('[data-testid=reach-summary]'), /4 points/)
   await page.click('[data-testid=map-undo]')
   assert.match(await page.innerText('[data-testid=reach-summary]'), /3 points/)
+  // The same reach by keyboard: a typed point joins the outfall end, a corrected one moves, bad text is refused.
+  await page.click('[data-testid=reach-points] summary')
+  const lastLat = Number(await page.inputValue('#reach-2-lat'))
+  const lastLng = Number(await page.inputValue('#reach-2-lng'))
+  await page.fill('#reach-new-lat', 'north')
+  await page.fill('#reach-new-lng', String(lastLng))
+  await page.click('[data-testid=reach-point-add]')
+  assert.match(await page.innerText('#reach-new-lat-error'), /Latitude must be a number/)
+  await page.fill('#reach-new-lat', (lastLat - 0.0004).toFixed(6))
+  await page.fill('#reach-new-lng', (lastLng + 0.0006).toFixed(6))
+  await page.press('#reach-new-lng', 'Enter')
+  await page.waitForFunction(() => /4 points/.test(document.querySelector('[data-testid=reach-summary]')?.textContent ?? ''))
+  assert.equal(await page.inputValue('#reach-3-lat'), String(Number((lastLat - 0.0004).toFixed(6))))
+  const lengthBefore = await page.innerText('[data-testid=reach-summary]')
+  await page.fill('#reach-0-lat', String(Number(await page.inputValue('#reach-0-lat')) + 0.001))
+  await page.press('#reach-0-lat', 'Enter')
+  await page.waitForFunction((before) => document.querySelector('[data-testid=reach-summary]')?.textContent?.trim() !== before, lengthBefore)
+  assert.equal(await page.locator('[data-testid=map-site-editor] .leaflet-marker-icon').count(), 5, 'four reach points and the site on the map')
   await page.fill('#f-weir-grossHeadM', '1.8')
   await page.fill('#f-weir-crestWidthM', '11.5')
   await page.fill('#f-months-6-waterTempC', '17.5')
@@ -153,6 +181,30 @@ async function engineerJourney(browser: Browser) {
   await page.waitForSelector('[data-testid=conflict-notice]', { state: 'detached' })
   assert.equal(await page.inputValue('#f-notes'), 'Changed elsewhere.')
   assert.equal(await page.inputValue('#f-name'), 'Thornwaite sluice')
+  assert.match(await page.innerText('[data-testid=reach-summary]'), /4 points/, 'the typed reach points were stored')
+
+  // Head against flow: checked row by row, sorted, saved with the overview, then downloaded.
+  for (const [q, h] of [['1', '1.8'], ['20', '1.1'], ['10', '1,5']]) {
+    await page.click('[data-testid=head-add]')
+    await page.fill(`#head-${(await page.locator('[data-testid=head-table] tbody tr[data-testid]').count()) - 1}-flow`, q!)
+    await page.fill(`#head-${(await page.locator('[data-testid=head-table] tbody tr[data-testid]').count()) - 1}-head`, h!)
+  }
+  await page.click('[data-testid=site-overview-form] [data-testid=save]')
+  await page.waitForSelector('#head-2-flow-error')
+  assert.match(await page.innerText('#head-2-flow-error'), /must rise down the table/)
+  assert.match(await page.innerText('[data-testid=site-overview-form] [data-testid=form-error]'), /head table/)
+  await page.locator('[data-testid=head-table]').scrollIntoViewIfNeeded()
+  await shot(page, '04b-head-table-errors')
+  await page.click('[data-testid=head-sort]')
+  await page.waitForSelector('#head-2-flow-error', { state: 'detached' })
+  await page.click('[data-testid=site-overview-form] [data-testid=save]')
+  await page.waitForSelector('[data-testid=site-overview-form] [data-testid=saved]')
+  const stored = await page.evaluate(async (id) => (await (await fetch(`/api/sites/${id}`)).json()).headTable, siteId)
+  assert.deepEqual(stored, [{ flow: 1, head: 1.8 }, { flow: 10, head: 1.5 }, { flow: 20, head: 1.1 }])
+  const headCsv = await downloadOf(page, '[data-testid=head-table-csv]')
+  assert.equal(headCsv.name, 'Thornwaite-sluice-head-table.csv')
+  assert.deepEqual(headCsv.lines, ['flow_m3s,gross_head_m', '1,1.8', '10,1.5', '20,1.1'])
+  await shot(page, '04c-head-table-saved')
 
   // Hydrology: FDC rows are checked row by row, then saved and charted.
   await page.click('[data-testid=tab-hydrology]')
@@ -173,6 +225,8 @@ async function engineerJourney(browser: Browser) {
   await page.waitForSelector('[data-testid=fdc-editor] [data-testid=saved]')
   await page.waitForSelector('[data-testid=fdc-chart] canvas')
   assert.match(await page.innerText('[data-testid=hydrology-stats]'), /Entered FDC, 3 points/)
+  const fdcCsv = await downloadOf(page, '[data-testid=fdc-points-csv]')
+  assert.deepEqual(fdcCsv.lines, ['exceedance_pct,flow_m3s', '10,6', '50,3.2', '95,1'])
   await shot(page, '06-fdc-chart')
 
   // Upload: refused lines are listed, ambiguous columns are asked for, a good file is stored.
@@ -197,6 +251,17 @@ async function engineerJourney(browser: Browser) {
   await page.waitForFunction(() => /1,095 days/.test(document.querySelector('[data-testid=flow-record-card]')?.textContent ?? ''))
   await page.waitForSelector('[data-testid=hydrograph] canvas')
   assert.match(await page.innerText('[data-testid=hydrology-stats]'), /Daily flow record/)
+  // The whole record downloads from the server, one line a day, the gap (day 400) an empty cell.
+  const recordCsv = await downloadOf(page, '[data-testid=record-csv]')
+  assert.equal(recordCsv.name, 'Thornwaite-sluice-daily-flows.csv')
+  assert.equal(recordCsv.lines[0], 'date,flow_m3s')
+  assert.equal(recordCsv.lines.length, 1 + 3 * 365)
+  assert.equal(recordCsv.lines[1 + 400], '2020-02-05,')
+  await page.click('details:has([data-testid=hydrology-monthly]) summary')
+  const monthlyCsv = await downloadOf(page, '[data-testid=monthly-csv]')
+  assert.equal(monthlyCsv.lines[0], 'month,days_with_flow,q95_m3s,q50_m3s,q10_m3s,mean_m3s')
+  assert.equal(monthlyCsv.lines.length, 13)
+  assert.match(monthlyCsv.lines[2]!, /^February,84,/, 'February: 28 + 29 + 28 days with a flow, less the gap on 5 February 2020')
   await shot(page, '09-record-uploaded')
 
   // Months.
@@ -210,6 +275,10 @@ async function engineerJourney(browser: Browser) {
   await page.fill('#f-months-0-upstreamOxygen-value', '11.2')
   await page.click('[data-testid=site-months-form] [data-testid=save]')
   await page.waitForSelector('[data-testid=site-months-form] [data-testid=saved]')
+  const monthsCsv = await downloadOf(page, '[data-testid=months-csv]')
+  assert.equal(monthsCsv.lines[0], 'month,water_temp_c,upstream_oxygen_value,upstream_oxygen_unit')
+  assert.equal(monthsCsv.lines[1], 'January,10,11.2,mg/L')
+  assert.equal(monthsCsv.lines[7], 'July,17.5,100,%sat')
   await shot(page, '10-months')
 
   // Attachments: upload with progress, list, refuse a non-image, remove.
@@ -247,6 +316,15 @@ async function viewerJourney(browser: Browser) {
   assert.equal(await page.locator('[data-testid=delete-site]').count(), 0, 'viewers get no Delete')
   assert.equal(await page.locator('[data-testid=map-mode-reach]').count(), 0, 'viewers get no map tools')
   assert.equal(await page.getAttribute('#f-name', 'readonly'), '')
+  // The viewer reads the head table (the first site by name has one) and may download it, not change it.
+  assert.equal(await page.locator('[data-testid=head-add]').count(), 0, 'viewers get no head-table editing')
+  const rowsShown = await page.locator('[data-testid=head-table] tbody tr[data-testid]').count()
+  assert.ok(rowsShown > 0, 'the demo head table is shown')
+  const viewerCsv = await downloadOf(page, '[data-testid=head-table-csv]')
+  assert.equal(viewerCsv.lines.length, 1 + rowsShown)
+  await page.click('[data-testid=reach-points] summary')
+  assert.equal(await page.locator('[data-testid=reach-point-add]').count(), 0, 'viewers cannot add reach points')
+  assert.equal(await page.getAttribute('#reach-0-lat', 'readonly'), '', 'viewers read the reach points')
   await shot(page, '13-viewer-site')
   await page.click('[data-testid=tab-hydrology]')
   await page.waitForSelector('[data-testid=fdc-chart] canvas')
