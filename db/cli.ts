@@ -3,7 +3,8 @@
 import { Hash } from '@adonisjs/hash'
 import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
 import { migrateToLatest, openDatabase } from './connection'
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './demo-scenario'
+import { summaryPath } from '../shared/schemas/summaryLink'
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SUMMARY_TOKEN } from './demo-scenario'
 import { seedDemo } from './seed'
 
 const path = process.env.DATABASE_PATH || '.data/gillwatt.sqlite'
@@ -21,6 +22,8 @@ async function main() {
       console.log(created ? `Demo scenario loaded (${created} new records).` : 'Demo scenario already present; nothing changed.')
       console.log(`Demo accounts (password "${DEMO_PASSWORD}", demo only):`)
       for (const a of DEMO_ACCOUNTS) console.log(`  ${a.role.padEnd(9)} ${a.email.padEnd(34)} ${a.name}, ${a.story}`)
+      const appUrl = (process.env.NUXT_PUBLIC_APP_URL || 'http://localhost:3000').replace(/\/+$/, '')
+      console.log(`Demo summary link (demo-only fixed token, no sign-in): ${appUrl}${summaryPath(DEMO_SUMMARY_TOKEN)}`)
     } else if (command !== 'migrate') {
       throw new Error(`Unknown command "${command}". Use "migrate" or "seed".`)
     }

@@ -226,3 +226,50 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
     },
   },
 ]
+
+// ——— Review, comments, summary link and invitation ———
+// Idris submits the two-unit option at Hollin Mill weir; he and Elspeth talk it through; Elspeth
+// accepts it with conditions (the stored assessment shows a small net oxygen loss in June and
+// September, so the conditions hold the units off then). Idris shares a summary link with Tobias;
+// Morwenna has invited a second (invented) agency officer to review Skelby gauging weir only.
+
+/** One comment of the demo thread; `by` is a demo account's role. */
+export interface DemoComment {
+  by: 'engineer' | 'reviewer'
+  body: string
+  month?: number
+  flagId?: 'gas-supersaturation' | 'oxygen-below-target' | 'net-oxygen-loss' | 'cavitation'
+}
+
+export const DEMO_REVIEW = {
+  siteName: 'Hollin Mill weir',
+  optionName: 'Two units in the old leat',
+  note: 'Two units in the old leat mouth, Q95 kept over the weir. Twelve years of logger flows behind it.',
+  comments: [
+    { by: 'engineer', body: '@Elspeth Garrow the reserved flow is the Q95 of the owner\'s logger record; the gap in July 2018 is left out, not filled.' },
+    {
+      by: 'reviewer',
+      body: 'June and September show a small net oxygen loss below the weir, though the river stays well above the 6 mg/L target. Could the units be held off in those months? @Idris Penrose',
+      month: 6,
+      flagId: 'net-oxygen-loss',
+    },
+    { by: 'engineer', body: 'Yes: the controller can hold them off by month. The gas check is clear at every flow.', flagId: 'gas-supersaturation' },
+  ] satisfies DemoComment[],
+  decision: {
+    decision: 'accepted-with-conditions' as const,
+    reason:
+      'The Q95 reserved flow is kept at every flow, the river stays above the 6 mg/L target in every month with and without the scheme, and the gas check is clear. The small net oxygen loss in June and September is dealt with by condition 2.',
+    conditions:
+      '1. Keep at least the Q95 flow over the weir crest and fish pass at all times.\n2. Hold the units off in June and September until two years of monitoring show no net oxygen loss below the weir.\n3. Log dissolved oxygen below the weir monthly for the first two years and send the readings to the agency.\n4. Screen the venturi intakes before the first run.',
+  },
+}
+
+/**
+ * Token of the demo summary link, DEMO ONLY: it is fixed so the README can show `/s/<token>`. Real
+ * links are 128-bit random and shown once. The seed stores only its hash, like any other.
+ */
+export const DEMO_SUMMARY_TOKEN = 'demo-hollin-mill-summary-2026'
+export const DEMO_SUMMARY_LINK = { siteName: 'Hollin Mill weir', note: 'For Tobias Wren (landowner, left bank)', days: 365 }
+
+/** A pending invitation: a second (invented) agency officer, asked to review one site. */
+export const DEMO_INVITATION = { email: 'rhiannon@fellside-agency.example', role: 'reviewer' as const, siteName: 'Skelby gauging weir' }

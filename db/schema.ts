@@ -167,6 +167,127 @@ export interface AssessmentPayloadsTable {
   result_json: string
 }
 
+// ——— Review, e-mail, invitations, password reset, summary links (migration 0004) ———
+
+/** Review state names (shared/schemas/review.ts REVIEW_STATES). */
+type ReviewStateColumn = 'draft' | 'submitted' | 'accepted' | 'accepted-with-conditions' | 'returned'
+
+/** The current review of a site; a site without a row is in draft. */
+export interface SiteReviewsTable {
+  site_id: number
+  org_id: number
+  state: ReviewStateColumn
+  assessment_id: number | null
+  submitted_by: number | null
+  submitted_at: string | null
+  decided_by: number | null
+  decided_at: string | null
+  reason: string | null
+  conditions: string | null
+  updated_at: ColumnType<string, string | undefined, string>
+}
+
+/** Every change of a review: who, from, to, reason, conditions, assessment, when. */
+export interface ReviewEventsTable {
+  id: Generated<number>
+  site_id: number
+  org_id: number
+  kind: 'submitted' | 'decided'
+  from_state: ReviewStateColumn
+  to_state: ReviewStateColumn
+  user_id: number | null
+  assessment_id: number | null
+  note: string | null
+  reason: string | null
+  conditions: string | null
+  created_at: CreatedAt
+}
+
+export interface CommentsTable {
+  id: Generated<number>
+  site_id: number
+  org_id: number
+  user_id: number | null
+  body: string
+  assessment_id: number | null
+  month: number | null
+  flag_id: string | null
+  /** JSON: ids of the users mentioned. */
+  mentions: ColumnType<string, string | undefined, string>
+  created_at: CreatedAt
+}
+
+/** A reviewer of one site only, without membership of its organisation. */
+export interface SiteGrantsTable {
+  user_id: number
+  site_id: number
+  org_id: number
+  role: 'reviewer'
+  granted_by: number | null
+  created_at: CreatedAt
+}
+
+export interface OutboxTable {
+  id: Generated<number>
+  org_id: number | null
+  to_address: string
+  subject: string
+  text: string
+  html: string
+  kind: string
+  created_at: CreatedAt
+  sent_at: string | null
+  error: string | null
+}
+
+export interface InvitationsTable {
+  id: Generated<number>
+  org_id: number
+  email: string
+  role: Role
+  site_id: number | null
+  /** SHA-256 hex of the token; the token itself is only ever in the e-mail. */
+  token_hash: string
+  invited_by: number | null
+  created_at: CreatedAt
+  expires_at: string
+  accepted_at: string | null
+  accepted_by: number | null
+  revoked_at: string | null
+  revoked_by: number | null
+}
+
+export interface PasswordResetsTable {
+  id: Generated<number>
+  user_id: number
+  token_hash: string
+  created_at: CreatedAt
+  expires_at: string
+  used_at: string | null
+}
+
+export interface PasswordResetRequestsTable {
+  id: Generated<number>
+  email: string
+  /** Unix time in milliseconds. */
+  requested_at: number
+}
+
+export interface SummaryLinksTable {
+  id: Generated<number>
+  site_id: number
+  org_id: number
+  token_hash: string
+  note: string | null
+  created_by: number | null
+  created_at: CreatedAt
+  expires_at: string
+  revoked_at: string | null
+  revoked_by: number | null
+  view_count: ColumnType<number, number | undefined, number>
+  last_viewed_at: string | null
+}
+
 /** The whole database, as Kysely sees it. */
 export interface Database {
   users: UsersTable
@@ -181,6 +302,15 @@ export interface Database {
   options: OptionsTable
   assessments: AssessmentsTable
   assessment_payloads: AssessmentPayloadsTable
+  site_reviews: SiteReviewsTable
+  review_events: ReviewEventsTable
+  comments: CommentsTable
+  site_grants: SiteGrantsTable
+  outbox: OutboxTable
+  invitations: InvitationsTable
+  password_resets: PasswordResetsTable
+  password_reset_requests: PasswordResetRequestsTable
+  summary_links: SummaryLinksTable
 }
 
 export type UserRow = Selectable<UsersTable>
@@ -194,3 +324,9 @@ export type AttachmentRow = Selectable<AttachmentsTable>
 export type OptionRow = Selectable<OptionsTable>
 export type AssessmentRow = Selectable<AssessmentsTable>
 export type NewAssessment = Insertable<AssessmentsTable>
+export type SiteReviewRow = Selectable<SiteReviewsTable>
+export type ReviewEventRow = Selectable<ReviewEventsTable>
+export type CommentRow = Selectable<CommentsTable>
+export type InvitationRow = Selectable<InvitationsTable>
+export type SummaryLinkRow = Selectable<SummaryLinksTable>
+export type OutboxRow = Selectable<OutboxTable>

@@ -4,6 +4,7 @@ import type { Database } from './schema'
 import { assess } from '../shared/engine/assess'
 import { OptionInputSchema } from '../shared/schemas/option'
 import { buildAssessInput, insertAssessment, loadStoredRecord, storedOption } from './assessmentInput'
+import { seedReviewDemo } from './seedReview'
 import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_SITES, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
 
 /** Hashes a password the same way the server does (nuxt-auth-utils' scrypt). */
@@ -43,6 +44,7 @@ export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Prom
     const engineerId = (await trx.selectFrom('users').select('id').where('email', '=', engineer.email).executeTakeFirstOrThrow()).id
     for (const demo of DEMO_SITES) created += await seedSite(trx, org.id, engineerId, demo)
     for (const demo of DEMO_OPTIONS) created += await seedOption(trx, org.id, engineerId, demo)
+    created += await seedReviewDemo(trx, org.id)
     if (created) {
       await trx.insertInto('audit_log').values({ org_id: org.id, user_id: null, action: 'demo.seeded', detail: JSON.stringify({ accounts: DEMO_ACCOUNTS.length, sites: DEMO_SITES.length }) }).execute()
     }

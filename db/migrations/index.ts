@@ -2,6 +2,7 @@ import type { Migration, MigrationProvider } from 'kysely'
 import * as m0001 from './0001_foundation'
 import * as m0002 from './0002_sites'
 import * as m0003 from './0003_options_assessments'
+import * as m0004 from './0004_review_mail_links'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
@@ -9,6 +10,7 @@ export const migrations: Record<string, Migration> = {
   '0001_foundation': m0001,
   '0002_sites': m0002,
   '0003_options_assessments': m0003,
+  '0004_review_mail_links': m0004,
 }
 
 /** Kysely migration provider over the static list above. */

@@ -33,9 +33,28 @@ export async function requireSite(event: H3Event, siteId: number, roles: readonl
   if (!site) throw notFound()
   const isDeleted = site.deleted_at !== null
   if (isDeleted && opts.deleted !== 'only') throw notFound()
-  const { user, role } = await requireRole(event, site.org_id, roles)
+  // A single-site grant (an invited reviewer, migration 0004) counts as the reviewer role on this site only.
+  const grant = await siteGrantRole(event, site.id, site.org_id, roles)
+  const { user, role } = grant ?? (await requireRole(event, site.org_id, roles))
   if (!isDeleted && opts.deleted === 'only') throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Site is not deleted' })
   return { user, role, site }
+}
+
+/**
+ * The role a single-site grant gives on this site when the user is not a member of its organisation
+ * (or only a viewer): reviewer, with 403 when `roles` leaves reviewers out; null to fall back to
+ * `requireRole`.
+ */
+async function siteGrantRole(event: H3Event, siteId: number, orgId: number, roles: readonly Role[]): Promise<{ user: Awaited<ReturnType<typeof requireUser>>; role: Role } | null> {
+  const user = await requireUser(event)
+  const member = await roleIn(user.id, orgId)
+  if (member && member !== 'viewer') return null
+  const grant = await useDb().selectFrom('site_grants').select('role').where('user_id', '=', user.id).where('site_id', '=', siteId).executeTakeFirst()
+  if (!grant) return null
+  if (!roles.includes(grant.role)) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `This needs the ${roles.join(' or ')} role; you are reviewer of this site` })
+  }
+  return { user, role: grant.role }
 }
 
 /** Parses already-read input (multipart fields) like the house validator: 400 naming the field. */

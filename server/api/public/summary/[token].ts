@@ -1,0 +1,37 @@
+import { z } from 'zod'
+import type { PublicSummaryDto } from '../../../../shared/schemas/summaryLink'
+
+// GET /api/public/summary/[token]: the landowner summary behind a summary link: no sign-in,
+// read-only, only what PublicSummaryDto lists. An unknown, malformed, expired or revoked token, or a
+// deleted site, all get the same 404. This one file takes every method (no .get suffix) so that any
+// write answers 405 here instead of falling through to the page renderer.
+const Params = z.object({ token: z.string().max(200).optional() })
+
+const gone = () => createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This summary link does not work. It may have expired or been withdrawn; ask whoever sent it for a new one.' })
+
+export default defineEventHandler(async (event): Promise<PublicSummaryDto> => {
+  if (event.method !== 'GET' && event.method !== 'HEAD') {
+    setResponseHeader(event, 'Allow', 'GET, HEAD')
+    throw createError({ statusCode: 405, statusMessage: 'Method Not Allowed', message: 'A summary is read-only: only GET is allowed' })
+  }
+  // The token is a secret in the address: keep it out of caches, referrers and search engines.
+  setResponseHeaders(event, { 'Cache-Control': 'no-store', 'Referrer-Policy': 'no-referrer', 'X-Robots-Tag': 'noindex, nofollow' })
+  const parsed = Params.safeParse(getRouterParams(event, { decode: true }))
+  const token = parsed.success ? parsed.data.token : undefined
+  if (!token) throw gone()
+  const db = useDb()
+  const now = nowIso()
+  const link = await db.selectFrom('summary_links').selectAll().where('token_hash', '=', hashLinkToken(token)).executeTakeFirst()
+  if (!link || !linkTokenMatches(token, link.token_hash) || summaryLinkState(link, now) !== 'active') throw gone()
+  const site = await db.selectFrom('sites').selectAll().where('id', '=', link.site_id).where('deleted_at', 'is', null).executeTakeFirst()
+  if (!site) throw gone()
+  const summary = await loadPublicSummary(link, site)
+  if (event.method === 'GET') {
+    await db
+      .updateTable('summary_links')
+      .set((eb) => ({ view_count: eb('view_count', '+', 1), last_viewed_at: now }))
+      .where('id', '=', link.id)
+      .execute()
+  }
+  return summary
+})

@@ -1,0 +1,187 @@
+import { sql } from 'kysely'
+import type { SiteRow, SummaryLinkRow } from '../../db/schema'
+import type { AssessResult } from '../../shared/engine/assess'
+import type { OptionDesign } from '../../shared/schemas/option'
+import { REVIEW_STATE_LABELS, type ReviewState } from '../../shared/schemas/review'
+import type { Reach } from '../../shared/schemas/site'
+import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type SummaryLinkState } from '../../shared/schemas/summaryLink'
+import { CAUTIONS } from '../../shared/utils/cautions'
+
+// Summary links: their list rows, and the landowner summary one opens. The summary is built only
+// from named fields (never a row spread), so nothing but what PublicSummaryDto lists can leave.
+
+/** The state of a link at `now`: revoked wins over expired. */
+export function summaryLinkState(row: Pick<SummaryLinkRow, 'revoked_at' | 'expires_at'>, now = new Date().toISOString()): SummaryLinkState {
+  if (row.revoked_at) return 'revoked'
+  return row.expires_at <= now ? 'expired' : 'active'
+}
+
+/** A link row (with its site's and creator's names) as its managers see it. */
+export function summaryLinkDto(row: SummaryLinkRow & { site_name: string; creator_name: string | null }): SummaryLinkDto {
+  return {
+    id: row.id,
+    siteId: row.site_id,
+    siteName: row.site_name,
+    note: row.note,
+    state: summaryLinkState(row),
+    createdAt: row.created_at,
+    expiresAt: row.expires_at,
+    revokedAt: row.revoked_at,
+    viewCount: row.view_count,
+    lastViewedAt: row.last_viewed_at,
+    createdBy: row.created_by !== null && row.creator_name ? { id: row.created_by, name: row.creator_name } : null,
+  }
+}
+
+/** Summary-link rows with their site and creator names, for list routes to filter and page. */
+export function summaryLinkQuery() {
+  return useDb()
+    .selectFrom('summary_links')
+    .innerJoin('sites', 'sites.id', 'summary_links.site_id')
+    .leftJoin('users', 'users.id', 'summary_links.created_by')
+    .selectAll('summary_links')
+    .select(['sites.name as site_name', 'users.name as creator_name'])
+}
+
+/** SQL condition for a link state (for list filters). */
+export function summaryLinkStateCondition(state: SummaryLinkState, now = new Date().toISOString()) {
+  if (state === 'revoked') return sql<boolean>`summary_links.revoked_at is not null`
+  if (state === 'expired') return sql<boolean>`summary_links.revoked_at is null and summary_links.expires_at <= ${now}`
+  return sql<boolean>`summary_links.revoked_at is null and summary_links.expires_at > ${now}`
+}
+
+const fmt = (x: number, digits = 2) => x.toFixed(digits)
+
+/** What would be built, in plain words. */
+export function schemeInPlainWords(design: Pick<OptionDesign, 'units' | 'throatDiameter_m' | 'outletDiameter_m'>): string {
+  const units = design.units === 1 ? 'One venturi unit' : `${design.units} venturi units`
+  return (
+    `${units} set in the weir, each a pipe that narrows to a ${fmt(design.throatDiameter_m)} m throat and widens again to ${fmt(design.outletDiameter_m)} m where it meets the pool below. ` +
+    'River water runs through them; the suction at the narrow throat draws air down a pipe from the bank, the air turns a small turbine that makes electricity, and the bubbles add oxygen to the river.'
+  )
+}
+
+/** Whole homes whose yearly use the energy would cover, at the illustrative figure. */
+export const homesEquivalent = (annualEnergyMWh: number) => Math.max(0, Math.floor((annualEnergyMWh * 1000) / HOME_KWH_PER_YEAR))
+
+/** Everything the summary is built from. */
+export interface SummarySources {
+  site: Pick<SiteRow, 'name' | 'river_name' | 'lat' | 'lng' | 'reach' | 'gross_head_m' | 'target_oxygen_mgl'>
+  organisationName: string
+  creatorName: string | null
+  expiresAt: string
+  review: { state: ReviewState; reason: string | null; conditions: string | null; decidedAt: string | null }
+  assessment: {
+    kind: 'under-review' | 'latest'
+    createdAt: string
+    engineVersion: string
+    optionName: string
+    design: Pick<OptionDesign, 'units' | 'throatDiameter_m' | 'outletDiameter_m'>
+    result: AssessResult
+  } | null
+}
+
+/** The landowner summary from its sources: only the named fields, no ids, no e-mail addresses. */
+export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
+  const a = s.assessment
+  const decided = s.review.state === 'accepted' || s.review.state === 'accepted-with-conditions' || s.review.state === 'returned'
+  const cautions = CAUTIONS.map((c) => ({ title: c.title, text: c.text }))
+  if (a) {
+    for (const f of a.result.summary.flags) if (f.raised && f.safety) cautions.push({ title: `Check raised: ${f.id.replaceAll('-', ' ')}`, text: f.reason })
+  }
+  let river: PublicSummaryDto['river'] = null
+  if (a) {
+    const slf = a.result.summary.summerLowFlow
+    const gain = a.result.summary.netOxygenGainSummerLowFlow_mgL
+    const monthName = a.result.months.find((m) => m.month === slf.month)?.name ?? `month ${slf.month}`
+    const target = a.result.months[0]?.target_mgL ?? s.site.target_oxygen_mgl
+    river = {
+      targetMgL: target,
+      months: a.result.months.map((m) => ({ month: m.month, name: m.name, withoutMgL: m.downstreamWithout_mgL, withMgL: m.downstreamWith_mgL, targetMgL: m.target_mgL })),
+      summary:
+        gain >= 0
+          ? `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the scheme would add about ${fmt(gain)} mg/L of dissolved oxygen below the weir, compared with the weir alone.`
+          : `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the river below the weir would carry about ${fmt(-gain)} mg/L less dissolved oxygen than with the weir alone.`,
+    }
+  }
+  return {
+    site: {
+      name: s.site.name,
+      riverName: s.site.river_name,
+      location: { lat: s.site.lat, lng: s.site.lng },
+      reach: s.site.reach ? (JSON.parse(s.site.reach) as Reach) : null,
+      grossHeadM: s.site.gross_head_m,
+    },
+    scheme: a
+      ? { optionName: a.optionName, units: a.design.units, throatDiameterM: a.design.throatDiameter_m, outletDiameterM: a.design.outletDiameter_m, description: schemeInPlainWords(a.design) }
+      : null,
+    basis: a ? { kind: a.kind, assessedAt: a.createdAt, engineVersion: a.engineVersion } : null,
+    energy: a
+      ? {
+          annualEnergyMWh: a.result.summary.annualEnergy_MWh,
+          homesEquivalent: homesEquivalent(a.result.summary.annualEnergy_MWh),
+          kWhPerHomePerYear: HOME_KWH_PER_YEAR,
+          assumption: `Illustrative: a home is taken to use ${HOME_KWH_PER_YEAR.toLocaleString('en-GB')} kWh of electricity a year; real homes use more or less.`,
+          source: 'illustrative',
+        }
+      : null,
+    river,
+    review: {
+      state: s.review.state,
+      stateLabel: REVIEW_STATE_LABELS[s.review.state],
+      decisionText: decided ? s.review.reason : null,
+      conditions: decided ? s.review.conditions : null,
+      decidedAt: decided ? s.review.decidedAt : null,
+    },
+    cautions,
+    contact: { organisationName: s.organisationName, preparedBy: s.creatorName },
+    expiresAt: s.expiresAt,
+  }
+}
+
+/** Loads the sources of a live link's summary: the assessment under review, else the site's latest of a live option. */
+export async function loadPublicSummary(link: SummaryLinkRow, site: SiteRow): Promise<PublicSummaryDto> {
+  const db = useDb()
+  const [org, creator, review] = await Promise.all([
+    db.selectFrom('organisations').select('name').where('id', '=', site.org_id).executeTakeFirstOrThrow(),
+    link.created_by === null ? undefined : db.selectFrom('users').select('name').where('id', '=', link.created_by).executeTakeFirst(),
+    db.selectFrom('site_reviews').selectAll().where('site_id', '=', site.id).executeTakeFirst(),
+  ])
+  const pick = (q: ReturnType<typeof assessmentQuery>) => q.executeTakeFirst()
+  const assessmentQuery = () =>
+    db
+      .selectFrom('assessments')
+      .innerJoin('options', 'options.id', 'assessments.option_id')
+      .innerJoin('assessment_payloads', 'assessment_payloads.assessment_id', 'assessments.id')
+      .select([
+        'assessments.created_at',
+        'assessments.engine_version',
+        'options.name as option_name',
+        'assessment_payloads.result_json',
+        sql<string>`json_extract(assessment_payloads.input_json, '$.option')`.as('option_json'),
+      ])
+      .where('assessments.site_id', '=', site.id)
+  let kind: 'under-review' | 'latest' = 'under-review'
+  let row = review?.assessment_id ? await pick(assessmentQuery().where('assessments.id', '=', review.assessment_id)) : undefined
+  if (!row) {
+    kind = 'latest'
+    row = await pick(assessmentQuery().where('options.deleted_at', 'is', null).orderBy('assessments.id', 'desc').limit(1))
+  }
+  return buildPublicSummary({
+    site,
+    organisationName: org.name,
+    creatorName: creator?.name ?? null,
+    expiresAt: link.expires_at,
+    review: { state: review?.state ?? 'draft', reason: review?.reason ?? null, conditions: review?.conditions ?? null, decidedAt: review?.decided_at ?? null },
+    assessment: row
+      ? {
+          kind,
+          createdAt: row.created_at,
+          engineVersion: row.engine_version,
+          optionName: row.option_name,
+          design: JSON.parse(row.option_json) as OptionDesign,
+          result: JSON.parse(row.result_json) as AssessResult,
+        }
+      : null,
+  })
+}

@@ -1,0 +1,207 @@
+// The review of a site by environmental officers: its states, the submit and decision bodies, the
+// comment thread and what GET /api/sites/[id]/review and /review/brief answer. Shared by the server
+// routes (server/api/sites/[id]/review/**, server/api/sites/[id]/comments*) and the review forms.
+// Keep the exported names stable: the UI imports them.
+import { z } from 'zod'
+import type { FlagId } from '../engine/assess'
+import { IdSchema } from './common'
+import type { ReservedFlow } from './site'
+import type { Role } from '../utils/roles'
+
+/** Every state a site's review can be in; a site nobody has submitted is `draft`. */
+export const REVIEW_STATES = ['draft', 'submitted', 'accepted', 'accepted-with-conditions', 'returned'] as const
+export type ReviewState = (typeof REVIEW_STATES)[number]
+
+/** The decisions a reviewer can record on a submitted site. */
+export const REVIEW_DECISIONS = ['accepted', 'accepted-with-conditions', 'returned'] as const
+export type ReviewDecision = (typeof REVIEW_DECISIONS)[number]
+
+/** Plain-language label of each state, as the UI and the e-mails show it. */
+export const REVIEW_STATE_LABELS: Record<ReviewState, string> = {
+  draft: 'Not yet submitted',
+  submitted: 'Submitted for review',
+  accepted: 'Accepted',
+  'accepted-with-conditions': 'Accepted with conditions',
+  returned: 'Returned for changes',
+}
+
+/** Roles that may submit a site for review (and re-submit it after it is returned). */
+export const REVIEW_SUBMIT_ROLES = ['admin', 'engineer'] as const satisfies readonly Role[]
+/** Roles that may record a decision (a single-site reviewer counts as reviewer on that site). */
+export const REVIEW_DECIDE_ROLES = ['admin', 'reviewer'] as const satisfies readonly Role[]
+/** Roles that may add to a site's comment thread (viewers read it). */
+export const COMMENT_ROLES = ['admin', 'engineer', 'reviewer'] as const satisfies readonly Role[]
+
+/** The page of a site's review, where e-mails link to. */
+export const siteReviewPath = (siteId: number) => `/sites/${siteId}?tab=review`
+
+/** The flag ids a comment may point at (the engine's flags). */
+export const FLAG_IDS = ['cavitation', 'gas-supersaturation', 'oxygen-below-target', 'net-oxygen-loss', 'head-limited-never-runs'] as const satisfies readonly FlagId[]
+
+export const REVIEW_NOTE_MAX = 4000
+export const REVIEW_REASON_MAX = 4000
+export const REVIEW_CONDITIONS_MAX = 10_000
+export const COMMENT_MAX = 5000
+
+const text = (max: number) => z.string({ error: 'must be text' }).trim().max(max, `is too long (${max.toLocaleString('en-GB')} characters at most)`)
+
+/** Route parameters of every /api/sites/[id]/review… and /comments route. */
+export const ReviewParamsSchema = z.object({ id: IdSchema })
+
+/** Body of POST /api/sites/[id]/review/submit: the assessment (of this site) to review, and a note. */
+export const ReviewSubmitSchema = z.object({
+  assessmentId: IdSchema,
+  note: text(REVIEW_NOTE_MAX).optional(),
+})
+export type ReviewSubmitInput = z.infer<typeof ReviewSubmitSchema>
+
+/**
+ * Body of POST /api/sites/[id]/review/decision. `reason` is always required; `conditions` is required
+ * for `accepted-with-conditions` and refused with any other decision (an empty string counts as none).
+ */
+export const ReviewDecisionSchema = z
+  .object({
+    decision: z.enum(REVIEW_DECISIONS, { error: `must be one of ${REVIEW_DECISIONS.join(', ')}` }),
+    reason: text(REVIEW_REASON_MAX).min(1, 'is required: say why'),
+    conditions: text(REVIEW_CONDITIONS_MAX).optional(),
+  })
+  .superRefine((v, ctx) => {
+    const has = !!v.conditions
+    if (v.decision === 'accepted-with-conditions' && !has) {
+      ctx.addIssue({ code: 'custom', path: ['conditions'], message: 'is required when accepting with conditions' })
+    }
+    if (v.decision !== 'accepted-with-conditions' && has) {
+      ctx.addIssue({ code: 'custom', path: ['conditions'], message: 'only goes with accepted-with-conditions' })
+    }
+  })
+  .transform((v) => ({ ...v, conditions: v.conditions || undefined }))
+export type ReviewDecisionInput = z.infer<typeof ReviewDecisionSchema>
+
+/** Body of POST /api/sites/[id]/comments. `@name` or `@e-mail` in the body mentions a member. */
+export const CommentInputSchema = z.object({
+  body: text(COMMENT_MAX).min(1, 'is required'),
+  /** An assessment of this site the comment is about. */
+  assessmentId: IdSchema.optional(),
+  /** A month, 1 = January. */
+  month: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 to 12').max(12, 'must be 1 to 12').optional(),
+  flagId: z.enum(FLAG_IDS, { error: `must be one of ${FLAG_IDS.join(', ')}` }).optional(),
+})
+export type CommentInput = z.infer<typeof CommentInputSchema>
+
+/** Query of GET /api/sites/[id]/comments: oldest first, paged. */
+export const CommentListQuerySchema = z.object({
+  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
+  pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(100),
+})
+
+/** A person as review records show them (never their e-mail). */
+export interface PersonRef {
+  id: number
+  name: string
+}
+
+/** The assessment a review is about, with its headline figures. */
+export interface ReviewAssessmentRef {
+  id: number
+  optionId: number
+  optionName: string
+  engineVersion: string
+  createdAt: string
+  annualEnergyMWh: number
+  netOxygenGainSlfMgL: number
+  flagsRaised: FlagId[]
+}
+
+/** One line of a review's history (review_events). */
+export interface ReviewEventDto {
+  id: number
+  /** `submitted` for a (re-)submission, `decided` for a decision. */
+  kind: 'submitted' | 'decided'
+  from: ReviewState
+  to: ReviewState
+  by: PersonRef | null
+  assessmentId: number | null
+  note: string | null
+  reason: string | null
+  conditions: string | null
+  at: string
+}
+
+/** GET /api/sites/[id]/review. */
+export interface ReviewDto {
+  siteId: number
+  state: ReviewState
+  stateLabel: string
+  /** The assessment under review (the last one submitted), or null while draft. */
+  assessment: ReviewAssessmentRef | null
+  submittedBy: PersonRef | null
+  submittedAt: string | null
+  /** The latest decision, while the site is in a decided state. */
+  decision: { decision: ReviewDecision; reason: string; conditions: string | null; by: PersonRef | null; at: string } | null
+  /** Every change, oldest first. */
+  history: ReviewEventDto[]
+  /** What the caller may do now (the server checks again). */
+  can: { submit: boolean; decide: boolean; comment: boolean }
+}
+
+/** Response of POST /review/submit and /review/decision: the new state and the event written. */
+export interface ReviewChangeDto {
+  state: ReviewState
+  event: ReviewEventDto
+}
+
+/** One comment of a site's thread. */
+export interface CommentDto {
+  id: number
+  siteId: number
+  body: string
+  author: PersonRef | null
+  assessmentId: number | null
+  month: number | null
+  flagId: FlagId | null
+  /** Members mentioned and notified. */
+  mentions: PersonRef[]
+  createdAt: string
+}
+
+/** GET /api/sites/[id]/comments. */
+export interface CommentListDto {
+  page: number
+  pageSize: number
+  total: number
+  comments: CommentDto[]
+}
+
+/** GET /api/sites/[id]/review/brief: what the reviewer judges, from the stored result. */
+export interface ReviewBriefDto {
+  siteId: number
+  siteName: string
+  assessment: ReviewAssessmentRef
+  reservedFlow: {
+    /** Flow always left in the river, m³/s. */
+    flow_m3s: number
+    /** The site's setting the assessment ran with. */
+    setting: ReservedFlow
+    /** Plain words: "Q95 of the gauged daily record" or "fixed at 1.10 m³/s". */
+    basis: string
+    /** True when, at every flow of the assessment's table, at least the reserved flow stays in the river. */
+    keptAtEveryFlow: boolean
+  }
+  /** Oxygen downstream by month, without and with the scheme, against the target (mg/L). */
+  oxygenByMonth: {
+    month: number
+    name: string
+    flow_m3s: number
+    temperature_C: number
+    without_mgL: number
+    with_mgL: number
+    target_mgL: number
+    netGain_mgL: number
+    meetsTargetWithout: boolean
+    meetsTargetWith: boolean
+  }[]
+  netGainSummerLowFlow: { value_mgL: number; month: number; flow_m3s: number; temperature_C: number; basis: string }
+  gasSupersaturation: { raised: boolean; reason: string; maxUnitTotalDissolvedGas: number }
+  /** Every flag of the assessment, raised or clear, with its reason. */
+  flags: { id: FlagId; raised: boolean; safety: boolean; reason: string }[]
+}

@@ -1,0 +1,50 @@
+import { describe, expect, it } from 'vitest'
+import { assess } from '../../../shared/engine/assess'
+import { reservedFlowBasis, reviewBrief } from '../../../server/utils/review'
+import { draft, parse } from '../engine/fixtures'
+
+// The brief only re-reads a stored result: every figure must be the result's own.
+const input = parse(draft())
+const result = assess(input)
+const brief = reviewBrief(result, input.reservedFlow)
+
+describe('reviewBrief', () => {
+  it('carries the reserved flow with its basis, and checks it is kept at every flow of the table', () => {
+    expect(brief.reservedFlow.flow_m3s).toBe(result.hydrology.reservedFlow_m3s)
+    expect(brief.reservedFlow.setting).toEqual({ kind: 'percentile', exceedance: 95 })
+    expect(brief.reservedFlow.basis).toMatch(/^Q95 of the flow-duration curve/)
+    expect(brief.reservedFlow.keptAtEveryFlow).toBe(true)
+  })
+
+  it('notices a table that takes water from the reserve', () => {
+    const robbed = structuredClone(result)
+    const row = robbed.perFlow.find((r) => r.unitsRunning > 0)!
+    row.unitFlow_m3s = row.riverFlow_m3s / row.unitsRunning // every drop through the units
+    expect(reviewBrief(robbed, input.reservedFlow).reservedFlow.keptAtEveryFlow).toBe(false)
+  })
+
+  it('gives oxygen by month without and with the scheme against the target', () => {
+    expect(brief.oxygenByMonth).toHaveLength(12)
+    brief.oxygenByMonth.forEach((m, i) => {
+      const r = result.months[i]!
+      expect(m).toMatchObject({ month: i + 1, without_mgL: r.downstreamWithout_mgL, with_mgL: r.downstreamWith_mgL, target_mgL: r.target_mgL, netGain_mgL: r.netGain_mgL })
+      expect(m.meetsTargetWith).toBe(r.downstreamWith_mgL >= r.target_mgL)
+      expect(m.meetsTargetWithout).toBe(r.downstreamWithout_mgL >= r.target_mgL)
+    })
+  })
+
+  it('gives the net gain at summer low flow and the gas flag with its reason', () => {
+    expect(brief.netGainSummerLowFlow.value_mgL).toBe(result.summary.netOxygenGainSummerLowFlow_mgL)
+    expect(brief.netGainSummerLowFlow.month).toBe(result.summary.summerLowFlow.month)
+    const gas = result.summary.flags.find((f) => f.id === 'gas-supersaturation')!
+    expect(brief.gasSupersaturation).toEqual({ raised: gas.raised, reason: gas.reason, maxUnitTotalDissolvedGas: result.summary.maxUnitTotalDissolvedGas })
+    expect(brief.flags.map((f) => f.id)).toEqual(result.summary.flags.map((f) => f.id))
+  })
+})
+
+describe('reservedFlowBasis', () => {
+  it('says where the value came from', () => {
+    expect(reservedFlowBasis({ kind: 'fixed', flow: 1.1 }, 1.1, 'fdc')).toBe('fixed by the site at 1.10 m³/s')
+    expect(reservedFlowBasis({ kind: 'percentile', exceedance: 90 }, 1.6, 'record')).toMatch(/^Q90 of the gauged daily record \(1\.60 m³\/s/)
+  })
+})

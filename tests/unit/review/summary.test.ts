@@ -1,0 +1,80 @@
+import { describe, expect, it } from 'vitest'
+import { assess } from '../../../shared/engine/assess'
+import { HOME_KWH_PER_YEAR } from '../../../shared/schemas/summaryLink'
+import { CAUTIONS } from '../../../shared/utils/cautions'
+import { buildPublicSummary, homesEquivalent, schemeInPlainWords, summaryLinkState, type SummarySources } from '../../../server/utils/summary'
+import { draft, parse } from '../engine/fixtures'
+
+const input = parse(draft())
+const result = assess(input)
+const sources = (over: Partial<SummarySources> = {}): SummarySources => ({
+  site: { name: 'Test weir', river_name: 'Test Water', lat: 54.5, lng: -2.6, reach: JSON.stringify({ type: 'LineString', coordinates: [[-2.6, 54.5], [-2.59, 54.51]] }), gross_head_m: 2, target_oxygen_mgl: 6 },
+  organisationName: 'Test Org',
+  creatorName: 'Ada Engineer',
+  expiresAt: '2030-01-01T00:00:00.000Z',
+  review: { state: 'accepted-with-conditions', reason: 'Gain holds', conditions: 'Monitor monthly', decidedAt: '2026-03-01T10:00:00.000Z' },
+  assessment: { kind: 'under-review', createdAt: '2026-02-01T10:00:00.000Z', engineVersion: result.engineVersion, optionName: 'Two units', design: input.option, result },
+  ...over,
+})
+
+describe('homesEquivalent', () => {
+  it('counts whole homes at the illustrative 2,700 kWh a year', () => {
+    expect(HOME_KWH_PER_YEAR).toBe(2700) // illustrative, stated on the page
+    expect(homesEquivalent(27)).toBe(10)
+    expect(homesEquivalent(26.99)).toBe(9)
+    expect(homesEquivalent(0)).toBe(0)
+  })
+})
+
+describe('buildPublicSummary', () => {
+  const s = buildPublicSummary(sources())
+
+  it('has exactly the landowner fields and no ids', () => {
+    expect(Object.keys(s).sort()).toEqual(['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'review', 'river', 'scheme', 'site'])
+    const keys: string[] = []
+    const walk = (v: unknown) => {
+      if (Array.isArray(v)) v.forEach(walk)
+      else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) (keys.push(k), walk(x))
+    }
+    walk(s)
+    expect(keys.filter((k) => /id$/i.test(k))).toEqual([])
+    expect(JSON.stringify(s)).not.toMatch(/@/)
+  })
+
+  it('states the energy, the homes figure and its assumption as illustrative', () => {
+    expect(s.energy).toMatchObject({ annualEnergyMWh: result.summary.annualEnergy_MWh, homesEquivalent: homesEquivalent(result.summary.annualEnergy_MWh), kWhPerHomePerYear: 2700, source: 'illustrative' })
+    expect(s.energy!.assumption).toMatch(/^Illustrative/)
+  })
+
+  it('describes what would be built in plain words, and the river by month', () => {
+    expect(s.scheme).toMatchObject({ units: 2, throatDiameterM: 0.6, outletDiameterM: 1.2, optionName: 'Two units' })
+    expect(schemeInPlainWords({ units: 1, throatDiameter_m: 0.5, outletDiameter_m: 1 })).toMatch(/^One venturi unit .* 0\.50 m throat .* 1\.00 m/)
+    expect(s.river!.months).toHaveLength(12)
+    expect(s.river!.months[7]).toEqual({ month: 8, name: result.months[7]!.name, withoutMgL: result.months[7]!.downstreamWithout_mgL, withMgL: result.months[7]!.downstreamWith_mgL, targetMgL: result.months[7]!.target_mgL })
+    expect(s.river!.summary).toMatch(/summer low flow/)
+  })
+
+  it('shows the decision, the cautions and who to contact', () => {
+    expect(s.review).toEqual({ state: 'accepted-with-conditions', stateLabel: 'Accepted with conditions', decisionText: 'Gain holds', conditions: 'Monitor monthly', decidedAt: '2026-03-01T10:00:00.000Z' })
+    expect(s.cautions.slice(0, CAUTIONS.length)).toEqual(CAUTIONS.map((c) => ({ ...c })))
+    expect(s.contact).toEqual({ organisationName: 'Test Org', preparedBy: 'Ada Engineer' })
+  })
+
+  it('keeps a pending decision out, and has no figures without an assessment', () => {
+    const bare = buildPublicSummary(sources({ review: { state: 'submitted', reason: 'old reason', conditions: 'old', decidedAt: null }, assessment: null }))
+    expect(bare.review.decisionText).toBeNull()
+    expect(bare.review.conditions).toBeNull()
+    expect(bare.energy).toBeNull()
+    expect(bare.scheme).toBeNull()
+    expect(bare.river).toBeNull()
+  })
+})
+
+describe('summaryLinkState', () => {
+  it('is revoked before expired before active', () => {
+    const now = '2026-06-01T00:00:00.000Z'
+    expect(summaryLinkState({ revoked_at: '2026-01-01T00:00:00.000Z', expires_at: '2025-01-01T00:00:00.000Z' }, now)).toBe('revoked')
+    expect(summaryLinkState({ revoked_at: null, expires_at: now }, now)).toBe('expired')
+    expect(summaryLinkState({ revoked_at: null, expires_at: '2026-06-01T00:00:00.001Z' }, now)).toBe('active')
+  })
+})
