@@ -1,13 +1,14 @@
 // The sections of the site page and which one the address asks for.
 
 /** A section of the site page. */
-export type SiteTab = 'overview' | 'hydrology' | 'months' | 'attachments'
+export type SiteTab = 'overview' | 'hydrology' | 'months' | 'options' | 'attachments'
 
 /** Sections in the order shown. */
 export const SITE_TABS: readonly { id: SiteTab; label: string }[] = [
   { id: 'overview', label: 'Overview' },
   { id: 'hydrology', label: 'Hydrology' },
   { id: 'months', label: 'Months' },
+  { id: 'options', label: 'Design options' },
   { id: 'attachments', label: 'Photos and documents' },
 ]
 

@@ -1,0 +1,432 @@
+// Design options: the typed fetch wrappers over the option routes, and the option form's field
+// catalogue (label, unit, default and where the default comes from) with the draft ⇄ body mapping.
+// Shapes come from shared/schemas/option.ts, written once; defaults from shared/engine/defaults.ts.
+import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type ConstrictionType, type SourcedValue } from '~~/shared/engine/defaults'
+import { MONEY_DEFAULTS } from '~~/shared/engine/money'
+import { computed, reactive, ref, shallowRef, type Ref } from 'vue'
+import { issuesFromError } from './useSchemaForm'
+import {
+  OptionInputSchema,
+  type CompareDto,
+  type CompareItem,
+  type OptionDto,
+  type OptionInput,
+  type OptionListDto,
+  type OptionPatch,
+  type PortfolioDto,
+  type SweepSave,
+} from '~~/shared/schemas/option'
+
+// ——— the field catalogue ———
+
+/** The groups of the option form, in the order shown. */
+export const OPTION_GROUPS = [
+  { id: 'geometry', title: 'Units and throat', note: 'How many venturi units, their size and how deep the throat sits.' },
+  { id: 'losses', title: 'Constriction and losses', note: 'The kind of constriction and the losses on the water path.' },
+  { id: 'air', title: 'Air pipe and air pump', note: 'The pipe that carries air down to each throat, and how well the throat pumps it.' },
+  { id: 'turbine', title: 'Turbine and generator', note: 'The air turbine on the bank and its generator, per unit.' },
+  { id: 'money', title: 'Costs and money', note: 'All money defaults are illustrative: replace them with the project\'s own figures.' },
+  { id: 'settings', title: 'Engine settings', note: 'Safety limits, oxygen transfer and availability used by this option\'s assessments. The downstream oxygen target is the site\'s own.' },
+] as const
+export type OptionGroupId = (typeof OPTION_GROUPS)[number]['id']
+
+/** A choice of a select field. */
+export interface FieldChoice {
+  value: string
+  label: string
+}
+
+/** One field of the option form. `path` is the body path, as the schema reports errors (`design.air.pipeDiameter_m`). */
+export interface OptionField {
+  path: string
+  label: string
+  /** Unit shown beside the value; '–' for a pure number. */
+  unit: string
+  group: OptionGroupId
+  kind: 'number' | 'select'
+  /** Whole numbers only. */
+  integer?: boolean
+  /** The default in force for this draft (some depend on the constriction type); null when the field has none. */
+  defaultOf?: (draft: OptionDraft) => SourcedValue | null
+  /** What a blank field means when it is not simply "the default" (e.g. rating sized to the design). */
+  blankMeans?: string
+  choices?: readonly FieldChoice[]
+  /** A short line under the field. */
+  hint?: string
+  /** Shown under "more settings" (closed at first). */
+  advanced?: boolean
+}
+
+const CONSTRICTIONS: readonly FieldChoice[] = [
+  { value: 'venturi', label: 'Venturi with long diffuser' },
+  { value: 'short-nozzle', label: 'Short nozzle' },
+  { value: 'sharp-plate', label: 'Sharp-edged plate' },
+]
+const fixed = (d: SourcedValue) => () => d
+const byConstriction = (table: Readonly<Record<ConstrictionType, SourcedValue>>) => (draft: OptionDraft) =>
+  table[(draft.values['design.constriction'] as ConstrictionType | undefined) ?? 'venturi'] ?? table.venturi
+const PERCENT_NOTE = 'a fraction: 0.95 means 95 %'
+
+/** Every field of the option form, in order within its group. */
+export const OPTION_FIELDS: readonly OptionField[] = [
+  { path: 'design.units', label: 'Number of units', unit: 'units', group: 'geometry', kind: 'number', integer: true },
+  { path: 'design.throatDiameter_m', label: 'Throat diameter', unit: 'm', group: 'geometry', kind: 'number' },
+  { path: 'design.outletDiameter_m', label: 'Outlet diameter', unit: 'm', group: 'geometry', kind: 'number', hint: 'at least the throat diameter' },
+  { path: 'design.throatDepth_m', label: 'Throat submergence', unit: 'm', group: 'geometry', kind: 'number', hint: 'depth of the throat centreline below the tail-pool surface' },
+  {
+    path: 'design.staging', label: 'Staging', unit: '–', group: 'geometry', kind: 'select',
+    choices: [{ value: 'sequential', label: 'Units start one after another' }, { value: 'shared', label: 'Flow shared by all units' }],
+    hint: 'how units share a low flow',
+  },
+  { path: 'design.constriction', label: 'Constriction type', unit: '–', group: 'losses', kind: 'select', choices: CONSTRICTIONS },
+  { path: 'design.inletLoss', label: 'Inlet loss coefficient k_in', unit: '–', group: 'losses', kind: 'number', defaultOf: fixed(DEFAULTS.inletLoss), hint: 'on the throat velocity head' },
+  { path: 'design.diffuserEfficiency', label: 'Diffuser efficiency η_d', unit: 'fraction', group: 'losses', kind: 'number', defaultOf: byConstriction(DIFFUSER_EFFICIENCY), hint: 'share of the ideal pressure recovery' },
+  { path: 'design.flowCoefficient', label: 'Flow coefficient C', unit: '–', group: 'losses', kind: 'number', defaultOf: byConstriction(FLOW_COEFFICIENT) },
+  { path: 'design.diffuserLength_m', label: 'Diffuser length', unit: 'm', group: 'losses', kind: 'number', blankMeans: 'a cone of the diffuser half-angle set below' },
+  { path: 'settings.diffuserHalfAngle_deg', label: 'Diffuser half-angle', unit: '°', group: 'losses', kind: 'number', defaultOf: fixed(DEFAULTS.diffuserHalfAngle), hint: 'used when no diffuser length is given' },
+  { path: 'design.minUnitFlowFraction', label: 'Minimum unit flow', unit: 'fraction', group: 'losses', kind: 'number', defaultOf: fixed(DEFAULTS.minUnitFlowFraction), hint: 'of unit capacity; below it a unit stops' },
+  { path: 'design.air.pipeDiameter_m', label: 'Air pipe diameter', unit: 'm', group: 'air', kind: 'number' },
+  { path: 'design.air.pipeLength_m', label: 'Air pipe length', unit: 'm', group: 'air', kind: 'number' },
+  { path: 'design.air.pipeLossK', label: 'Air pipe fittings loss K', unit: '–', group: 'air', kind: 'number', defaultOf: fixed(DEFAULTS.airPipeLossK) },
+  { path: 'design.air.frictionFactor', label: 'Air pipe friction factor f', unit: '–', group: 'air', kind: 'number', defaultOf: fixed(DEFAULTS.airPipeFrictionFactor) },
+  { path: 'design.air.jetPumpEfficiency', label: 'Peak water-jet pump efficiency η_ej', unit: 'fraction', group: 'air', kind: 'number', defaultOf: fixed(DEFAULTS.jetPumpEfficiency) },
+  { path: 'design.air.maxGasLiquidRatio', label: 'Most air per water volume β_max', unit: 'm³/m³', group: 'air', kind: 'number', defaultOf: fixed(DEFAULTS.maxGasLiquidRatio) },
+  { path: 'design.turbine.efficiency', label: 'Air turbine efficiency', unit: 'fraction', group: 'turbine', kind: 'number', defaultOf: fixed(DEFAULTS.turbineEfficiency) },
+  { path: 'design.turbine.generatorEfficiency', label: 'Generator efficiency', unit: 'fraction', group: 'turbine', kind: 'number', defaultOf: fixed(DEFAULTS.generatorEfficiency) },
+  { path: 'design.turbine.ratedPower_kW', label: 'Rated electrical power per unit', unit: 'kW', group: 'turbine', kind: 'number', blankMeans: 'sized to the design point' },
+  { path: 'design.turbine.cutInFraction', label: 'Turbine cut-in', unit: 'fraction', group: 'turbine', kind: 'number', defaultOf: fixed(DEFAULTS.turbineCutInFraction), hint: 'of the rating' },
+  { path: 'design.costs.fixedCost', label: 'Fixed cost', unit: 'currency', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.fixedCost), hint: 'connection, design, consents' },
+  { path: 'design.costs.costPerKw', label: 'Cost per kW of rating', unit: 'currency/kW', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.costPerKw) },
+  { path: 'design.costs.civilsPerUnit', label: 'Civil works per unit', unit: 'currency/unit', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.civilsPerUnit) },
+  { path: 'settings.discountRate', label: 'Discount rate', unit: 'fraction/yr', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.discountRate), hint: '0.08 means 8 % a year' },
+  { path: 'settings.lifeYears', label: 'Economic life', unit: 'yr', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.lifeYears) },
+  { path: 'settings.opexFraction', label: 'Operating cost', unit: 'fraction/yr', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.opexFraction), hint: 'of the capital cost' },
+  { path: 'settings.exportPrice', label: 'Export price', unit: 'currency/MWh', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.exportPrice) },
+  { path: 'settings.gridFactor', label: 'Grid emission factor', unit: 't CO₂/MWh', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.gridFactor) },
+  { path: 'settings.availability', label: 'Availability', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.availability), hint: PERCENT_NOTE },
+  { path: 'settings.minCavitationMargin_m', label: 'Least cavitation margin', unit: 'm', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.minCavitationMargin) },
+  { path: 'settings.tdgLimit', label: 'Total dissolved gas limit', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.tdgLimit), hint: 'of saturation: 1.10 means 110 %' },
+  {
+    path: 'settings.oxygenMethod', label: 'Oxygen method for the summary', unit: '–', group: 'settings', kind: 'select',
+    choices: [{ value: 'field-transfer', label: 'Field transfer (ASCE/EWRI 2-06 form)' }, { value: 'bubble-contact', label: 'Bubble contact (Higbie penetration)' }],
+  },
+  { path: 'settings.sotePerMetre', label: 'Oxygen transfer per metre of submergence', unit: 'fraction/m', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.sotePerMetre) },
+  { path: 'settings.alpha', label: 'Transfer factor α', unit: '–', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.alpha), advanced: true },
+  { path: 'settings.beta', label: 'Saturation factor β', unit: '–', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.beta), advanced: true },
+  { path: 'settings.theta', label: 'Temperature factor θ', unit: '–', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.theta), advanced: true },
+  { path: 'settings.bubbleDiameter_m', label: 'Bubble diameter', unit: 'm', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.bubbleDiameter), advanced: true },
+  { path: 'settings.slipVelocity_ms', label: 'Bubble slip velocity', unit: 'm/s', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.slipVelocity), advanced: true },
+  { path: 'settings.oxygenDiffusivity20', label: 'O₂ diffusivity at 20 °C', unit: 'm²/s', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.oxygenDiffusivity20), advanced: true },
+  { path: 'settings.plumeTime_s', label: 'Plume time in the tail pool', unit: 's', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.plumeTime), advanced: true },
+  { path: 'settings.upstreamNitrogenSaturation', label: 'Upstream nitrogen saturation', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.upstreamNitrogenSaturation), advanced: true },
+  { path: 'settings.airTemperatureOffset_K', label: 'Intake air above water temperature', unit: 'K', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.airTemperatureOffset), advanced: true },
+]
+
+/** Select fields with the value a blank draft starts at (the schema's default). */
+const SELECT_DEFAULTS: Record<string, string> = {
+  'design.staging': 'sequential',
+  'design.constriction': 'venturi',
+  'settings.oxygenMethod': 'field-transfer',
+}
+
+// ——— the draft ———
+
+/** A field's value in the form: a number, null when blank, NaN when the text is not a number; selects hold text. */
+export type DraftValue = number | string | null
+
+/** What the option form holds. */
+export interface OptionDraft {
+  name: string
+  notes: string
+  values: Record<string, DraftValue>
+}
+
+function getPath(obj: unknown, path: string): unknown {
+  return path.split('.').slice(1).reduce<unknown>((o, k) => (o && typeof o === 'object' ? (o as Record<string, unknown>)[k] : undefined), obj)
+}
+
+function setPath(obj: Record<string, unknown>, keys: string[], value: unknown) {
+  let o = obj
+  keys.slice(0, -1).forEach((k) => {
+    o[k] ??= {}
+    o = o[k] as Record<string, unknown>
+  })
+  o[keys[keys.length - 1]!] = value
+}
+
+/** An empty draft: every field blank (defaults apply), selects at their schema default. */
+export function blankOptionDraft(name = ''): OptionDraft {
+  const values: Record<string, DraftValue> = {}
+  for (const f of OPTION_FIELDS) values[f.path] = f.kind === 'select' ? (SELECT_DEFAULTS[f.path] ?? null) : null
+  return { name, notes: '', values }
+}
+
+/** A draft holding a stored option's values. */
+export function draftFromOption(o: Pick<OptionDto, 'name' | 'notes' | 'design' | 'settings'>): OptionDraft {
+  const draft = blankOptionDraft(o.name)
+  draft.notes = o.notes
+  const source = { design: o.design, settings: o.settings }
+  for (const f of OPTION_FIELDS) {
+    const v = getPath(source[f.path.split('.')[0] as 'design' | 'settings'], f.path)
+    if (typeof v === 'number' || typeof v === 'string') draft.values[f.path] = v
+  }
+  return draft
+}
+
+/**
+ * The body the draft stands for (before the schema check): blank fields are left out so the
+ * schema's defaults fill them, except a blank rating, which is sent as null (sized to the design).
+ */
+export function bodyFromDraft(draft: OptionDraft): Record<string, unknown> {
+  const body: Record<string, unknown> = { name: draft.name, notes: draft.notes, design: { air: {} }, settings: {} }
+  for (const f of OPTION_FIELDS) {
+    const v = draft.values[f.path]
+    if (v === null || v === undefined || v === '') {
+      if (f.path === 'design.turbine.ratedPower_kW') setPath(body, f.path.split('.'), null)
+      continue
+    }
+    setPath(body, f.path.split('.'), v)
+  }
+  return body
+}
+
+/** Errors of a draft by field path, checked by the server's own schema; null errors when it passes. */
+export function checkOptionDraft(draft: OptionDraft): { input: OptionInput | null; errors: Record<string, string> } {
+  const result = OptionInputSchema.safeParse(bodyFromDraft(draft))
+  if (result.success) return { input: result.data, errors: {} }
+  const errors: Record<string, string> = {}
+  for (const issue of result.error.issues) errors[issue.path.map(String).join('.') || 'form'] ??= issue.message
+  return { input: null, errors }
+}
+
+/** True when two drafts hold the same values. */
+export function sameDraft(a: OptionDraft, b: OptionDraft): boolean {
+  if (a.name !== b.name || a.notes !== b.notes) return false
+  return OPTION_FIELDS.every((f) => Object.is(a.values[f.path] ?? null, b.values[f.path] ?? null))
+}
+
+/** A starting design for a new option, for a weir of 1–3 m: two units of a 0.5 m throat set 2.5 m deep. */
+export function starterDraft(name: string): OptionDraft {
+  const d = blankOptionDraft(name)
+  Object.assign(d.values, {
+    'design.units': 2, 'design.throatDiameter_m': 0.5, 'design.outletDiameter_m': 1.0, 'design.throatDepth_m': 2.5,
+    'design.air.pipeDiameter_m': 0.4, 'design.air.pipeLength_m': 8,
+  })
+  return d
+}
+
+// ——— fetch wrappers ———
+
+/** A site's live options, each with its newest assessment. */
+export function useSiteOptions(siteId: Ref<number>) {
+  return useFetch<OptionListDto>(() => `/api/sites/${siteId.value}/options`, { key: computed(() => `options-${siteId.value}`) })
+}
+
+/** One option. */
+export function useOption(id: Ref<number>) {
+  return useFetch<OptionDto>(() => `/api/options/${id.value}`, { key: computed(() => `option-${id.value}`) })
+}
+
+/** Creates an option at a site; answers the stored option. */
+export function createOption(siteId: number, input: OptionInput): Promise<OptionDto> {
+  return $fetch<OptionDto>(`/api/sites/${siteId}/options`, { method: 'POST', body: input })
+}
+
+/** Changes the fields given; `version` must be the one last read (a stale one answers 409). */
+export function patchOption(id: number, patch: OptionPatch): Promise<OptionDto> {
+  return $fetch<OptionDto>(`/api/options/${id}`, { method: 'PATCH', body: patch })
+}
+
+/** Deletes the option. */
+export function deleteOption(id: number): Promise<{ id: number; deletedAt: string }> {
+  return $fetch<{ id: number; deletedAt: string }>(`/api/options/${id}`, { method: 'DELETE' })
+}
+
+/** Saves one sweep point as a new option at the same site. */
+export function saveSweepPoint(optionId: number, body: SweepSave): Promise<OptionDto> {
+  return $fetch<OptionDto>(`/api/options/${optionId}/sweep/save`, { method: 'POST', body })
+}
+
+// ——— the editor's state ———
+
+/** HTTP status of a failed $fetch, or 0. */
+export function httpStatus(error: unknown): number {
+  const e = error as { statusCode?: unknown; status?: unknown; response?: { status?: unknown } } | null
+  const code = e?.statusCode ?? e?.status ?? e?.response?.status
+  return typeof code === 'number' ? code : 0
+}
+
+/**
+ * The option form's state: the draft the fields show, per-field errors from the shared schema (or
+ * the server's 4xx), saving a new option or a change with the version last read (409 → `conflict`).
+ */
+export function useOptionEditor(initial: OptionDraft) {
+  const draft = reactive<OptionDraft>(structuredClone(initial))
+  const baseline = shallowRef<OptionDraft>(structuredClone(initial))
+  const errors = ref<Record<string, string>>({})
+  const formError = ref('')
+  const busy = ref(false)
+  const conflict = ref(false)
+  const saved = ref(false)
+  const dirty = computed(() => !sameDraft(draft, baseline.value))
+
+  function set(path: string, value: DraftValue) {
+    draft.values[path] = value
+    saved.value = false
+    if (errors.value[path]) {
+      const { [path]: _gone, ...rest } = errors.value
+      errors.value = rest
+    }
+  }
+  function setText(key: 'name' | 'notes', value: string) {
+    draft[key] = value
+    saved.value = false
+    if (key === 'name' && errors.value['name']) {
+      const { name: _gone, ...rest } = errors.value
+      errors.value = rest
+    }
+  }
+  function reset(next: OptionDraft) {
+    draft.name = next.name
+    draft.notes = next.notes
+    draft.values = { ...next.values }
+    baseline.value = structuredClone(next)
+    errors.value = {}
+    formError.value = ''
+    conflict.value = false
+  }
+  function check(): OptionInput | null {
+    const { input, errors: found } = checkOptionDraft(draft)
+    errors.value = found
+    formError.value = input ? '' : `Check the ${Object.keys(found).length === 1 ? 'marked field' : `${Object.keys(found).length} marked fields`}.`
+    return input
+  }
+  function fail(error: unknown) {
+    if (httpStatus(error) === 409) {
+      conflict.value = true
+      return
+    }
+    const { fields, message } = issuesFromError(error)
+    errors.value = fields
+    formError.value = Object.keys(fields).length ? `Check the marked fields: ${message}` : message
+  }
+  /** Checks, then sends; answers the stored option, or null when the check or the server refused. */
+  async function send(write: (input: OptionInput) => Promise<OptionDto>): Promise<OptionDto | null> {
+    saved.value = false
+    const input = check()
+    if (!input) return null
+    busy.value = true
+    try {
+      const stored = await write(input)
+      reset(draftFromOption(stored))
+      saved.value = true
+      return stored
+    } catch (error) {
+      fail(error)
+      return null
+    } finally {
+      busy.value = false
+    }
+  }
+  const saveNew = (siteId: number) => send((input) => createOption(siteId, input))
+  const saveChanges = (option: Pick<OptionDto, 'id' | 'version'>) =>
+    send((input) => patchOption(option.id, { ...input, version: option.version }))
+
+  return { draft, errors, formError, busy, conflict, saved, dirty, set, setText, reset, check, fail, saveNew, saveChanges }
+}
+
+/** The option form's state, as the form components take it. */
+export type OptionEditor = ReturnType<typeof useOptionEditor>
+
+// ——— comparison ———
+
+/** One row of the comparison table: a label with its unit, one cell per option, and which is best. */
+export interface CompareRow {
+  key: string
+  label: string
+  unit: string
+  section: 'design' | 'figures'
+  cells: (string | number | null)[]
+  /** Indexes of the best cells (ties all marked); empty when the row has no better or worse. */
+  best: number[]
+  /** True when the options do not all hold the same value. */
+  differs: boolean
+  /** Decimals to show numbers with. */
+  digits: number
+}
+
+const CONSTRICTION_LABEL: Record<string, string> = { 'venturi': 'venturi', 'short-nozzle': 'short nozzle', 'sharp-plate': 'sharp-edged plate' }
+const round = (x: number | null | undefined, d: number) => (x === null || x === undefined || !Number.isFinite(x) ? null : Math.round(x * 10 ** d) / 10 ** d)
+
+/** The comparison's rows: the design, then the newest assessment's headline figures, best per row marked. */
+export function compareRows(items: readonly CompareItem[]): CompareRow[] {
+  const row = (key: string, label: string, unit: string, section: CompareRow['section'], cells: (string | number | null)[], digits = 0, better?: 'high' | 'low'): CompareRow => {
+    const nums = cells.map((c) => (typeof c === 'number' ? c : null))
+    const present = nums.filter((n): n is number => n !== null)
+    const target = better && present.length >= 2 ? (better === 'high' ? Math.max(...present) : Math.min(...present)) : null
+    const best = target === null || present.every((n) => n === target) ? [] : nums.flatMap((n, i) => (n === target ? [i] : []))
+    return { key, label, unit, section, cells, best, differs: new Set(cells.map((c) => String(c))).size > 1, digits }
+  }
+  const a = items.map((i) => i.latestAssessment)
+  return [
+    row('site', 'Site', '', 'design', items.map((i) => `${i.site.name} (${i.site.riverName})`)),
+    row('head', 'Gross head', 'm', 'design', items.map((i) => i.site.grossHeadM), 2),
+    row('units', 'Units', 'units', 'design', items.map((i) => i.option.design.units)),
+    row('constriction', 'Constriction', '', 'design', items.map((i) => CONSTRICTION_LABEL[i.option.design.constriction] ?? i.option.design.constriction)),
+    row('throat', 'Throat diameter', 'm', 'design', items.map((i) => i.option.design.throatDiameter_m), 2),
+    row('outlet', 'Outlet diameter', 'm', 'design', items.map((i) => i.option.design.outletDiameter_m), 2),
+    row('depth', 'Throat submergence', 'm', 'design', items.map((i) => i.option.design.throatDepth_m), 2),
+    row('pipe', 'Air pipe diameter', 'm', 'design', items.map((i) => i.option.design.air.pipeDiameter_m), 2),
+    row('pipeLength', 'Air pipe length', 'm', 'design', items.map((i) => i.option.design.air.pipeLength_m), 1),
+    row('ratedEntered', 'Rated power per unit as entered', 'kW', 'design', items.map((i) => i.option.design.turbine.ratedPower_kW ?? 'sized to design'), 1),
+    row('energy', 'Annual energy', 'MWh/yr', 'figures', a.map((x) => round(x?.annualEnergyMWh, 1)), 1, 'high'),
+    row('cf', 'Capacity factor', '%', 'figures', a.map((x) => round(x ? x.capacityFactor * 100 : null, 1)), 1, 'high'),
+    row('rated', 'Rated power (all units)', 'kW', 'figures', a.map((x) => round(x?.ratedPowerKw, 1)), 1),
+    row('margin', 'Least cavitation margin', 'm', 'figures', a.map((x) => (x ? (x.minCavitationMarginM === null ? 'never runs' : round(x.minCavitationMarginM, 2)) : null)), 2, 'high'),
+    row('oxygen', 'Net O₂ gain, summer low flow', 'mg/L', 'figures', a.map((x) => round(x?.netOxygenGainSlfMgL, 2)), 2, 'high'),
+    row('lcoe', 'LCOE', 'currency/MWh', 'figures', a.map((x) => (x ? (x.lcoe === null ? 'no energy' : round(x.lcoe, 0)) : null)), 0, 'low'),
+    row('flags', 'Flags raised', 'flags', 'figures', a.map((x) => (x ? x.flagsRaised.length : null)), 0, 'low'),
+    row('engine', 'Engine version', '', 'figures', a.map((x) => (x ? `${x.engineVersion}${x.stale ? ' (older engine)' : ''}` : 'not assessed'))),
+  ]
+}
+
+/** The comparison as CSV rows: header of option names, then one row per figure with its unit. */
+export function compareCsvRows(items: readonly CompareItem[]): (string | number | null)[][] {
+  return [
+    ['Figure', 'Unit', ...items.map((i) => i.option.name)],
+    ...compareRows(items).map((r) => [r.label, r.unit || '-', ...r.cells]),
+  ]
+}
+
+/** The comparison of 2–6 options, in the order asked; null while fewer than 2 are picked. */
+export function useCompare(ids: Ref<number[]>) {
+  const fetcher = useRequestFetch()
+  return useAsyncData(
+    () => `compare-${ids.value.join(',')}`,
+    () => (ids.value.length >= 2 ? fetcher<CompareDto>('/api/compare', { query: { options: ids.value.join(',') } }) : Promise.resolve(null)),
+    { watch: [ids] },
+  )
+}
+
+/** One site of the organisation with its live options, for picking options to compare. */
+export interface SiteOptions {
+  siteId: number
+  siteName: string
+  riverName: string
+  options: OptionDto[]
+}
+
+/** Every live site of the organisation (up to 200) with its options. */
+export function useOrgOptions(orgId: Ref<number | null | undefined>) {
+  const fetcher = useRequestFetch()
+  return useAsyncData(
+    () => `org-options-${orgId.value}`,
+    async (): Promise<SiteOptions[]> => {
+      if (!orgId.value) return []
+      const p = await fetcher<PortfolioDto>(`/api/orgs/${orgId.value}/portfolio`, { query: { pageSize: 200 } })
+      const lists = await Promise.all(p.rows.map((r) => fetcher<OptionListDto>(`/api/sites/${r.siteId}/options`)))
+      return p.rows.map((r, i) => ({ siteId: r.siteId, siteName: r.name, riverName: r.riverName, options: lists[i]?.options ?? [] }))
+    },
+    { watch: [orgId] },
+  )
+}

@@ -1,0 +1,36 @@
+// The comparison table's rows (best value per row, differences) and its CSV rows.
+import { describe, expect, it } from 'vitest'
+import { OptionInputSchema, type AssessmentDto, type CompareItem } from '../../../shared/schemas/option'
+import { compareCsvRows, compareRows } from '../../../composables/useOptions'
+
+function item(id: number, units: number, figures: Partial<AssessmentDto> | null): CompareItem {
+  const o = OptionInputSchema.parse({ name: `Option ${id}`, design: { units, throatDiameter_m: 0.5, outletDiameter_m: 1, throatDepth_m: 2, air: { pipeDiameter_m: 0.4, pipeLength_m: 8 } } })
+  const latest: AssessmentDto | null = figures && {
+    id: id * 10, siteId: 1, optionId: id, engineVersion: '0.1.0', stale: false, createdAt: '2026-01-01', createdBy: null, supersedes: null, supersededBy: null,
+    annualEnergyMWh: 100, capacityFactor: 0.4, ratedPowerKw: 30, minCavitationMarginM: 4, netOxygenGainSlfMgL: 0.2, lcoe: 150, flagsRaised: [], ...figures,
+  }
+  return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHeadM: 2 }, latestAssessment: latest }
+}
+
+describe('comparison rows', () => {
+  const items = [item(1, 2, { annualEnergyMWh: 120, lcoe: 180 }), item(2, 3, { annualEnergyMWh: 150, lcoe: 140, flagsRaised: ['cavitation'] }), item(3, 3, null)]
+  const rows = Object.fromEntries(compareRows(items).map((r) => [r.key, r]))
+
+  it('marks the most energy and the least LCOE as best, ignoring an option never assessed', () => {
+    expect(rows['energy']!.best).toEqual([1])
+    expect(rows['lcoe']!.best).toEqual([1])
+    expect(rows['flags']!.best).toEqual([0])
+  })
+
+  it('marks no best where all are equal, and flags rows whose values differ', () => {
+    expect(rows['cf']!.best).toEqual([]) // 40 % in both assessed options
+    expect(rows['throat']!.differs).toBe(false)
+    expect(rows['units']!.differs).toBe(true)
+  })
+
+  it('writes a CSV with a unit column and one column per option', () => {
+    const csv = compareCsvRows(items)
+    expect(csv[0]).toEqual(['Figure', 'Unit', 'Option 1', 'Option 2', 'Option 3'])
+    expect(csv.find((r) => r[0] === 'Annual energy')).toEqual(['Annual energy', 'MWh/yr', 120, 150, null])
+  })
+})

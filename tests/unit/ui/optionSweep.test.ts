@@ -1,0 +1,71 @@
+// The sweep page's grid from typed ranges (with the 400-point cap) and its pick of the best safe point.
+import { describe, expect, it } from 'vitest'
+import { sweep } from '../../../shared/engine/sweep'
+import { SweepGridSchema } from '../../../shared/schemas/assess'
+import { bestSafePoint, gridFromRanges, rangeValues, rangesAround, unitValues, type SweepRanges } from '../../../composables/useSweep'
+import { draft, parse } from '../engine/fixtures'
+
+const ranges = (over: Partial<SweepRanges> = {}): SweepRanges => ({
+  throatFrom: 0.4, throatTo: 0.6, throatStep: 0.1, units: '1, 2', depthFrom: 1, depthTo: 2, depthStep: 0.5, ...over,
+})
+
+describe('sweep grid from ranges', () => {
+  it('steps from/to inclusive without floating-point creep', () => {
+    expect(rangeValues(0.4, 0.7, 0.1, 'Throat diameter', 0.01, 10)).toEqual([0.4, 0.5, 0.6, 0.7])
+    expect(rangeValues(1, 2, 0.5, 'Throat submergence', 0, 30)).toEqual([1, 1.5, 2])
+  })
+
+  it('reads unit lists and spans, and refuses what is not a whole number', () => {
+    expect(unitValues('3, 1 2')).toEqual([1, 2, 3])
+    expect(unitValues('1-4')).toEqual([1, 2, 3, 4])
+    expect(unitValues('1.5')).toMatch(/not a whole number/)
+    expect(unitValues('')).toMatch(/at least one/)
+  })
+
+  it('builds a grid the server schema accepts, with its size', () => {
+    const g = gridFromRanges(ranges())
+    expect(g.errors).toEqual([])
+    expect(g.count).toBe(3 * 2 * 3)
+    expect(SweepGridSchema.safeParse(g.grid).success).toBe(true)
+  })
+
+  it('caps the grid at 400 points with a clear message, and names a bad range', () => {
+    const big = gridFromRanges(ranges({ throatFrom: 0.1, throatTo: 2.0, throatStep: 0.1, units: '1-5', depthFrom: 0, depthTo: 2, depthStep: 0.5 }))
+    expect(big.count).toBe(20 * 5 * 5)
+    expect(big.grid).toBeNull()
+    expect(big.errors.join(' ')).toMatch(/500 points is more than the 400/)
+    const backwards = gridFromRanges(ranges({ depthFrom: 3, depthTo: 1 }))
+    expect(backwards.errors.join(' ')).toMatch(/Throat submergence: "to" must not be below "from"/)
+  })
+
+  it('starts around the option so its own design is on the grid', () => {
+    const g = gridFromRanges(rangesAround({ throatDiameter_m: 0.55, units: 2, throatDepth_m: 2.5 }))
+    expect(g.errors).toEqual([])
+    expect(g.grid!.throatDiameters_m).toContain(0.55)
+    expect(g.grid!.units).toContain(2)
+    expect(g.grid!.throatDepths_m).toContain(2.5)
+  })
+})
+
+describe('best safe point', () => {
+  it('picks the point the engine\'s own sweep picks (the worker runs points one by one)', () => {
+    // A weir that aerates little (submerged sluice): some points are safe, the most energetic are not.
+    const d = draft()
+    d.site.weirShape = 'sluice-gate-submerged'
+    const grid = { throatDiameters_m: [0.4, 0.6, 0.8], units: [1, 2], throatDepths_m: [0.5, 1.5, 3] }
+    const whole = sweep(parse(d), grid)
+    const most = Math.max(...whole.points.map((p) => p.annualEnergy_MWh))
+    expect(whole.best).not.toBeNull()
+    expect(whole.best!.annualEnergy_MWh).toBeLessThan(most)
+    expect(bestSafePoint(whole.points)).toEqual(whole.best)
+  })
+
+  it('never picks an unsafe point or one without energy', () => {
+    const p = { throatDiameter_m: 1, outletDiameter_m: 2, units: 1, throatDepth_m: 1, capacityFactor: 0.5, ratedPower_kW: 10, minCavitationMargin_m: 3, netOxygenGainSummerLowFlow_mgL: 0.1, maxUnitTotalDissolvedGas: 1, lcoe: 100, raisedFlags: [] }
+    const unsafe = { ...p, annualEnergy_MWh: 90, safe: false, raisedFlags: ['cavitation' as const] }
+    const none = { ...p, annualEnergy_MWh: 0, safe: true }
+    const ok = { ...p, annualEnergy_MWh: 40, safe: true }
+    expect(bestSafePoint([unsafe, none, ok])).toBe(ok)
+    expect(bestSafePoint([unsafe, none])).toBeNull()
+  })
+})
