@@ -21,11 +21,13 @@ export async function roleIn(userId: number, orgId: number): Promise<Role | null
 /**
  * Gate for every organisation-scoped route: 401 when signed out, 404 when the user is not a
  * member (so ids do not leak across organisations), 403 when their role is not in `roles`.
+ * `notFound` is the 404's message: callers gating a record pass the message they give for a
+ * missing record, so an outsider cannot tell an existing id from a missing one.
  */
-export async function requireRole(event: H3Event, orgId: number, roles: readonly Role[]) {
+export async function requireRole(event: H3Event, orgId: number, roles: readonly Role[], notFound = 'Organisation not found') {
   const user = await requireUser(event)
   const role = await roleIn(user.id, orgId)
-  if (!role) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Organisation not found' })
+  if (!role) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: notFound })
   if (!roles.includes(role)) {
     throw createError({
       statusCode: 403,

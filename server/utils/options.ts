@@ -12,11 +12,11 @@ import type { Role } from '../../shared/utils/roles'
  * soft-deleted, or its site is deleted or belongs to an organisation the user is not in; 403 when
  * the user's role is not in `roles`.
  */
-export async function requireOption(event: H3Event, optionId: number, roles: readonly Role[]) {
+export async function requireOption(event: H3Event, optionId: number, roles: readonly Role[], notFound = 'Option not found') {
   await requireUser(event)
   const option = await useDb().selectFrom('options').selectAll().where('id', '=', optionId).where('deleted_at', 'is', null).executeTakeFirst()
-  if (!option) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Option not found' })
-  const { user, role, site } = await requireSite(event, option.site_id, roles)
+  if (!option) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: notFound })
+  const { user, role, site } = await requireSite(event, option.site_id, roles, { notFound })
   return { user, role, site, option }
 }
 
@@ -25,7 +25,7 @@ export async function requireAssessment(event: H3Event, assessmentId: number, ro
   await requireUser(event)
   const assessment = await useDb().selectFrom('assessments').selectAll().where('id', '=', assessmentId).executeTakeFirst()
   if (!assessment) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Assessment not found' })
-  const { user, role, site, option } = await requireOption(event, assessment.option_id, roles)
+  const { user, role, site, option } = await requireOption(event, assessment.option_id, roles, 'Assessment not found')
   return { user, role, site, option, assessment }
 }
 

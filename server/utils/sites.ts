@@ -20,22 +20,23 @@ import type {
 import type { Role } from '../../shared/utils/roles'
 import { daySpan } from './flowCsv'
 
-const notFound = () => createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Site not found' })
+const notFoundError = (message: string) => createError({ statusCode: 404, statusMessage: 'Not Found', message })
 
 /**
  * Gate for every site-scoped route: 401 signed out, 404 when the site does not exist, is
  * soft-deleted (unless `deleted: 'only'`, for the admin's restore) or belongs to an organisation the
  * user is not in, 403 when their role is not in `roles`.
  */
-export async function requireSite(event: H3Event, siteId: number, roles: readonly Role[], opts: { deleted?: 'only' } = {}) {
+export async function requireSite(event: H3Event, siteId: number, roles: readonly Role[], opts: { deleted?: 'only'; notFound?: string } = {}) {
   await requireUser(event)
+  const notFound = opts.notFound ?? 'Site not found'
   const site = await useDb().selectFrom('sites').selectAll().where('id', '=', siteId).executeTakeFirst()
-  if (!site) throw notFound()
+  if (!site) throw notFoundError(notFound)
   const isDeleted = site.deleted_at !== null
-  if (isDeleted && opts.deleted !== 'only') throw notFound()
+  if (isDeleted && opts.deleted !== 'only') throw notFoundError(notFound)
   // A single-site grant (an invited reviewer, migration 0004) counts as the reviewer role on this site only.
   const grant = await siteGrantRole(event, site.id, site.org_id, roles)
-  const { user, role } = grant ?? (await requireRole(event, site.org_id, roles))
+  const { user, role } = grant ?? (await requireRole(event, site.org_id, roles, notFound))
   if (!isDeleted && opts.deleted === 'only') throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Site is not deleted' })
   return { user, role, site }
 }
@@ -207,8 +208,8 @@ export const likeAnywhere = (text: string) => `%${text.replace(/[\\%_]/g, (c) =>
 export async function requireAttachment(event: H3Event, attachmentId: number, roles: readonly Role[]) {
   await requireUser(event)
   const attachment = await useDb().selectFrom('attachments').selectAll().where('id', '=', attachmentId).where('deleted_at', 'is', null).executeTakeFirst()
-  if (!attachment) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Attachment not found' })
-  const { user, role, site } = await requireSite(event, attachment.site_id, roles)
+  if (!attachment) throw notFoundError('Attachment not found')
+  const { user, role, site } = await requireSite(event, attachment.site_id, roles, { notFound: 'Attachment not found' })
   return { user, role, site, attachment }
 }
 

@@ -8,7 +8,7 @@ export default defineEventHandler(async (event): Promise<SummaryLinkDto> => {
   await requireUser(event)
   const link = await useDb().selectFrom('summary_links').selectAll().where('id', '=', id).executeTakeFirst()
   if (!link) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Summary link not found' })
-  const { user, site } = await requireSite(event, link.site_id, EDITOR_ROLES)
+  const { user, site } = await requireSite(event, link.site_id, EDITOR_ROLES, { notFound: 'Summary link not found' })
   const at = nowIso()
   const updated = await useDb()
     .updateTable('summary_links')

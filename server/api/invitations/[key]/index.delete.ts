@@ -7,7 +7,7 @@ export default defineEventHandler(async (event): Promise<InvitationDto> => {
   await requireUser(event)
   const row = await useDb().selectFrom('invitations').selectAll().where('id', '=', id).executeTakeFirst()
   if (!row) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Invitation not found' })
-  const { user } = await requireRole(event, row.org_id, ['admin'])
+  const { user } = await requireRole(event, row.org_id, ['admin'], 'Invitation not found')
   const at = nowIso()
   const before = invitationState(row, at)
   if (before !== 'pending') {
