@@ -1,4 +1,5 @@
 // Browser journey through sites, maps, hydrology and attachments, against a running, seeded server.
+// `npm test` runs it through scripts/e2e.mjs (its own server on a fresh demo database); by hand:
 //   DATABASE_PATH=/tmp/ui.sqlite npm run db:seed
 //   PORT=3200 NODE_ENV=production NUXT_SESSION_PASSWORD=… DATABASE_PATH=/tmp/ui.sqlite node <copy of .output>/server/index.mjs
 //   GW_BASE_URL=http://localhost:3200 node --import tsx tests/e2e/sites.e2e.ts
@@ -344,7 +345,7 @@ async function adminRestores(browser: Browser, siteId: number) {
 
 mkdirSync(SHOTS, { recursive: true })
 const browser = await chromium.launch({
-  executablePath: '/usr/bin/chromium',
+  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
   args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
 })
 try {
