@@ -26,13 +26,3 @@ export function useMembers(orgId: Ref<number | null | undefined>) {
     watch: [orgId],
   })
 }
-
-/** One page of an organisation's audit trail (admins only). */
-export function useAuditLog(orgId: Ref<number | null | undefined>, page: Ref<number>) {
-  return useFetch<{ page: number; pageSize: number; total: number; entries: AuditEntry[] }>(() => `/api/orgs/${orgId.value}/audit`, {
-    key: computed(() => `audit-${orgId.value}-${page.value}`),
-    query: { page, pageSize: 25 },
-    immediate: !!orgId.value,
-    watch: [orgId],
-  })
-}

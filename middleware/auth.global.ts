@@ -1,7 +1,8 @@
 // Client-side guard: signed-out visitors go to the sign-in on "/", signed-in ones get their
 // organisations loaded. It only redirects; every API route checks access itself.
-const PUBLIC_PATHS = ['/', '/signup']
-const isPublic = (path: string) => PUBLIC_PATHS.includes(path) || path.startsWith('/s/')
+const PUBLIC_PATHS = ['/', '/signup', '/reset-password']
+const PUBLIC_PREFIXES = ['/s/', '/invitations/', '/reset-password/']
+const isPublic = (path: string) => PUBLIC_PATHS.includes(path) || PUBLIC_PREFIXES.some((p) => path.startsWith(p))
 
 export default defineNuxtRouteMiddleware(async (to) => {
   const { loggedIn, clear } = useUserSession()

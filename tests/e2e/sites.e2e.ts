@@ -9,6 +9,7 @@ import assert from 'node:assert/strict'
 import { mkdirSync, readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { chromium, type Browser, type Page } from 'playwright-core'
+import { waitForHydrationOnLoad } from './hydration'
 
 const BASE = process.env.GW_BASE_URL ?? 'http://localhost:3200'
 const SHOTS = fileURLToPath(new URL('./screenshots/', import.meta.url))
@@ -36,6 +37,7 @@ function wasProvoked(text: string): boolean {
 async function openPage(browser: Browser): Promise<Page> {
   const context = await browser.newContext({ viewport: { width: 1360, height: 1000 } })
   const page = await context.newPage()
+  waitForHydrationOnLoad(page)
   page.on('console', (m) => {
     if ((m.type() === 'error' || m.type() === 'warning') && !wasProvoked(m.text())) problems.push(`console ${m.type()} on ${page.url()}: ${m.text()}`)
   })
