@@ -18,15 +18,7 @@ export default defineEventHandler(async (event) => {
     .where('deleted_at', 'is', null)
     .returningAll()
     .executeTakeFirst()
-  if (!updated) {
-    const current = await useDb().selectFrom('options').select(['version', 'updated_at']).where('id', '=', id).executeTakeFirst()
-    throw createError({
-      statusCode: 409,
-      statusMessage: 'Conflict',
-      message: `version: the option was changed by someone else (now version ${current?.version ?? '?'}, you sent ${version}); reload it and apply your change again`,
-      data: { currentVersion: current?.version ?? null, updatedAt: current?.updated_at ?? null },
-    })
-  }
+  if (!updated) throw await staleVersionError('options', id, version, 'option')
   await audit({ orgId: site.org_id, userId: user.id, action: 'option.updated', targetType: 'option', targetId: id, detail: { siteId: site.id, fields: changed, version: updated.version } })
   return loadOptionDto(updated)
 })

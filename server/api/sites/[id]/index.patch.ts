@@ -17,15 +17,7 @@ export default defineEventHandler(async (event) => {
     .where('deleted_at', 'is', null)
     .returningAll()
     .executeTakeFirst()
-  if (!updated) {
-    const current = await useDb().selectFrom('sites').select(['version', 'updated_at']).where('id', '=', id).executeTakeFirst()
-    throw createError({
-      statusCode: 409,
-      statusMessage: 'Conflict',
-      message: `version: the site was changed by someone else (now version ${current?.version ?? '?'}, you sent ${version}); reload it and apply your change again`,
-      data: { currentVersion: current?.version ?? null, updatedAt: current?.updated_at ?? null },
-    })
-  }
+  if (!updated) throw await staleVersionError('sites', id, version, 'site')
   await audit({ orgId: site.org_id, userId: user.id, action: 'site.updated', targetType: 'site', targetId: id, detail: { fields: changed, version: updated.version } })
   return siteDto(updated)
 })
