@@ -1,19 +1,17 @@
 // Live preview of an option while it is edited: the engine from shared/ runs in the browser on the
 // site (as stored) and the draft option, debounced, keeping the last good figures when the draft is
 // not valid. The engine is imported lazily so pages without a preview do not ship it.
-import { isaPressure } from '~~/shared/engine/atmosphere'
 import type { AssessResult } from '~~/shared/engine/assess'
-import { DEFAULTS } from '~~/shared/engine/defaults'
-import { oxygenSaturation } from '~~/shared/engine/oxygenSaturation'
-import { AssessInputSchema, OptionInputSchema as EngineOptionSchema, SettingsInputSchema, type AssessInput, type AssessInputDraft } from '~~/shared/schemas/assess'
-import type { FlowRecordDto, Month, SiteDto } from '~~/shared/schemas/site'
+import { AssessInputSchema, OptionInputSchema as EngineOptionSchema, SettingsInputSchema, type AssessInput } from '~~/shared/schemas/assess'
+import type { FlowRecordDto, SiteDto } from '~~/shared/schemas/site'
+import { siteToEngine, SiteNotReadyError, type EngineSitePart, type SiteForEngine } from '~~/shared/utils/siteEngineInput'
 import { bodyFromDraft, type OptionDraft } from './useOptions'
 
 /** Debounce of the live preview, ms. */
 export const PREVIEW_DELAY_MS = 300
 
 /** The site's part of an engine input, assembled once per site. */
-export type PreviewSite = Pick<AssessInputDraft, 'site' | 'hydrology' | 'gaugeScaling' | 'reservedFlow'> & { targetOxygen_mgL: number }
+export type PreviewSite = EngineSitePart
 
 /** The preview cannot run: `field` names the input to fix (`design.throatDiameter_m`, `site.hydrology`). */
 export class PreviewInputError extends Error {
@@ -26,45 +24,17 @@ export class PreviewInputError extends Error {
   }
 }
 
-/** Upstream oxygen in mg/L: a %-saturation reading times the Benson & Krause saturation at the site's air pressure. */
-function oxygenMgL(reading: Month['upstreamOxygen'], tC: number, altitudeM: number): number {
-  if (reading.unit === 'mg/L') return reading.value
-  return (reading.value / 100) * oxygenSaturation(tC, isaPressure(altitudeM), DEFAULTS.salinity.value)
-}
-
 /**
- * The site's part of the engine input, the same mapping the server uses for stored assessments
- * (db/assessmentInput.ts `buildAssessInput`; a unit test holds the two together). `days` are the
- * site's daily flows as GET /api/sites/[id]/flow-record gives them: already scaled to the site.
- * Throws PreviewInputError when the site cannot be assessed yet.
+ * The site's part of the engine input: `siteToEngine`, the same mapping the server uses for stored
+ * assessments. `days` are the site's daily flows as GET /api/sites/[id]/flow-record gives them,
+ * already scaled to the site. Throws PreviewInputError when the site cannot be assessed yet.
  */
-export function previewSiteFrom(site: Pick<SiteDto, 'altitudeM' | 'weir' | 'headTable' | 'months' | 'reservedFlow' | 'catchment' | 'fdcPoints' | 'targetOxygenMgL'>, days: { date: string; flow: number | null }[] | null): PreviewSite {
-  let hydrology: AssessInputDraft['hydrology']
-  let gaugeScaling: AssessInputDraft['gaugeScaling'] = null
-  if (days) {
-    if (!days.some((d) => d.flow !== null)) throw new PreviewInputError('site.hydrology', 'the stored flow record has no day with a flow')
-    hydrology = { kind: 'record', days }
-  } else if (site.fdcPoints.length >= 3) {
-    hydrology = { kind: 'fdc', points: site.fdcPoints }
-    if (site.catchment) gaugeScaling = { siteArea_km2: site.catchment.siteAreaKm2, gaugeArea_km2: site.catchment.gaugeAreaKm2 }
-  } else {
-    throw new PreviewInputError('site.hydrology', 'add FDC points or upload a flow record to the site first')
-  }
-  if (site.months.length !== 12) throw new PreviewInputError('site.months', 'needs 12 months, January first')
-  return {
-    site: {
-      altitude_m: site.altitudeM,
-      grossHead_m: site.weir.grossHeadM,
-      headTable: site.headTable.map((r) => ({ flow_m3s: r.flow, head_m: r.head })),
-      salinity_gkg: DEFAULTS.salinity.value,
-      months: site.months.map((m) => ({ temperature_C: m.waterTempC, upstreamOxygen_mgL: oxygenMgL(m.upstreamOxygen, m.waterTempC, site.altitudeM) })),
-      waterQuality: site.weir.waterQuality,
-      weirShape: site.weir.shape,
-    },
-    hydrology,
-    gaugeScaling,
-    reservedFlow: site.reservedFlow,
-    targetOxygen_mgL: site.targetOxygenMgL,
+export function previewSiteFrom(site: SiteForEngine, days: { date: string; flow: number | null }[] | null): PreviewSite {
+  try {
+    return siteToEngine(site, days ? { days, scale: null } : null)
+  } catch (error) {
+    if (error instanceof SiteNotReadyError) throw new PreviewInputError(error.field, error.message)
+    throw error
   }
 }
 

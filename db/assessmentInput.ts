@@ -3,30 +3,14 @@
 // (server/utils/assessmentInput.ts) and the demo loader (db/seed.ts) both call it.
 import type { Kysely } from 'kysely'
 import type { AssessResult } from '../shared/engine/assess'
-import { isaPressure } from '../shared/engine/atmosphere'
-import { DEFAULTS } from '../shared/engine/defaults'
-import { oxygenSaturation } from '../shared/engine/oxygenSaturation'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../shared/schemas/assess'
 import type { OptionDesign, OptionSettings } from '../shared/schemas/option'
 import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../shared/schemas/site'
+import { siteToEngine, SiteNotReadyError, type RecordForEngine } from '../shared/utils/siteEngineInput'
 import type { AssessmentsTable, Database, OptionRow, SiteRow } from './schema'
 
-/** The site cannot be assessed as it stands; `field` names what to fix (e.g. `site.hydrology`). */
-export class AssessmentInputError extends Error {
-  override readonly name = 'AssessmentInputError'
-  constructor(
-    readonly field: string,
-    message: string,
-  ) {
-    super(message)
-  }
-}
-
 /** A site's stored daily record as gauged (before scaling), with the area ratio its flows get. */
-export interface StoredRecord {
-  days: { date: string; flow: number | null }[]
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number } | null
-}
+export type StoredRecord = RecordForEngine
 
 /** What the builder needs of a stored option. */
 export interface StoredOption {
@@ -34,67 +18,32 @@ export interface StoredOption {
   settings: OptionSettings
 }
 
-/** Upstream oxygen in mg/L: a %-saturation reading times the Benson & Krause saturation at the site's air pressure (as the engine computes it). */
-export function oxygenMgL(reading: Month['upstreamOxygen'], waterTempC: number, altitudeM: number, salinity_gkg: number = DEFAULTS.salinity.value): number {
-  if (reading.unit === 'mg/L') return reading.value
-  return (reading.value / 100) * oxygenSaturation(waterTempC, isaPressure(altitudeM), salinity_gkg)
-}
-
 /**
- * The engine input for one option at one site, defaults filled in and checked with AssessInputSchema.
- * Hydrology: the stored record when there is one (its own area ratio as gaugeScaling), else the
- * entered FDC points (the site's catchment ratio as gaugeScaling). The site's downstream oxygen
- * target replaces the option's setting, since the regulator sets it per site.
- * Throws AssessmentInputError naming the field when the site cannot be assessed yet.
+ * The engine input for one option at one site, defaults filled in and checked with AssessInputSchema:
+ * the site's part from `siteToEngine` (shared with the browser's live preview), the option's design
+ * and settings, and the site's downstream oxygen target in place of the option's (the regulator
+ * sets it per site).
+ * Throws SiteNotReadyError naming the field when the site cannot be assessed yet.
  */
 export function buildAssessInput(site: SiteRow, record: StoredRecord | null, option: StoredOption): AssessInput {
-  const weir = JSON.parse(site.weir) as Weir
-  const months = JSON.parse(site.months) as Month[]
-  const headTable = JSON.parse(site.head_table) as HeadRow[]
-  const reserved = JSON.parse(site.reserved_flow) as ReservedFlow
-  const points = JSON.parse(site.fdc_points) as FdcPointInput[]
-  const catchment = site.catchment === null ? null : (JSON.parse(site.catchment) as Catchment)
-
-  let hydrology: AssessInputDraft['hydrology']
-  let gaugeScaling: AssessInputDraft['gaugeScaling'] = null
-  if (record) {
-    if (!record.days.some((d) => d.flow !== null)) {
-      throw new AssessmentInputError('site.hydrology', 'the stored flow record has no day with a flow; upload another record or delete it and enter FDC points')
-    }
-    hydrology = { kind: 'record', days: record.days }
-    if (record.scale) gaugeScaling = { siteArea_km2: record.scale.siteAreaKm2, gaugeArea_km2: record.scale.gaugeAreaKm2 }
-  } else if (points.length >= 3) {
-    hydrology = { kind: 'fdc', points }
-    if (catchment) gaugeScaling = { siteArea_km2: catchment.siteAreaKm2, gaugeArea_km2: catchment.gaugeAreaKm2 }
-  } else {
-    throw new AssessmentInputError('site.hydrology', 'add FDC points or upload a flow record first')
-  }
-  if (months.length !== 12) throw new AssessmentInputError('site.months', 'needs 12 months, January first')
-
-  const salinity = DEFAULTS.salinity.value
-  const draft: AssessInputDraft = {
-    site: {
-      altitude_m: site.altitude_m,
-      grossHead_m: weir.grossHeadM,
-      headTable: headTable.map((r) => ({ flow_m3s: r.flow, head_m: r.head })),
-      salinity_gkg: salinity,
-      months: months.map((m) => ({
-        temperature_C: m.waterTempC,
-        upstreamOxygen_mgL: oxygenMgL(m.upstreamOxygen, m.waterTempC, site.altitude_m, salinity),
-      })),
-      waterQuality: weir.waterQuality,
-      weirShape: weir.shape,
+  const { targetOxygen_mgL, ...sitePart } = siteToEngine(
+    {
+      altitudeM: site.altitude_m,
+      weir: JSON.parse(site.weir) as Weir,
+      headTable: JSON.parse(site.head_table) as HeadRow[],
+      months: JSON.parse(site.months) as Month[],
+      reservedFlow: JSON.parse(site.reserved_flow) as ReservedFlow,
+      catchment: site.catchment === null ? null : (JSON.parse(site.catchment) as Catchment),
+      fdcPoints: JSON.parse(site.fdc_points) as FdcPointInput[],
+      targetOxygenMgL: site.target_oxygen_mgl,
     },
-    hydrology,
-    gaugeScaling,
-    reservedFlow: reserved,
-    option: option.design,
-    settings: { ...option.settings, oxygenTarget_mgL: site.target_oxygen_mgl },
-  }
+    record,
+  )
+  const draft: AssessInputDraft = { ...sitePart, option: option.design, settings: { ...option.settings, oxygenTarget_mgL: targetOxygen_mgL } }
   const parsed = AssessInputSchema.safeParse(draft)
   if (!parsed.success) {
     const issue = parsed.error.issues[0]!
-    throw new AssessmentInputError(issue.path.map(String).join('.') || 'input', issue.message)
+    throw new SiteNotReadyError(issue.path.map(String).join('.') || 'input', issue.message)
   }
   return parsed.data
 }

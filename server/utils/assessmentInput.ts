@@ -1,4 +1,5 @@
-import { AssessmentInputError, buildAssessInput, insertAssessment, loadStoredRecord, storedOption } from '../../db/assessmentInput'
+import { buildAssessInput, insertAssessment, loadStoredRecord, storedOption } from '../../db/assessmentInput'
+import { SiteNotReadyError } from '../../shared/utils/siteEngineInput'
 import type { OptionRow, SiteRow } from '../../db/schema'
 import type { AssessResult } from '../../shared/engine/assess'
 import type { AssessInput } from '../../shared/schemas/assess'
@@ -17,7 +18,7 @@ export async function assessmentInputFor(site: SiteRow, option: Pick<OptionRow, 
   try {
     return buildAssessInput(site, record, storedOption(option))
   } catch (error) {
-    if (error instanceof AssessmentInputError) throw unassessable(error.field, error.message)
+    if (error instanceof SiteNotReadyError) throw unassessable(error.field, error.message)
     throw error
   }
 }

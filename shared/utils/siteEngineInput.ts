@@ -1,0 +1,88 @@
+// The site's part of the engine's input, from a site as the API describes it. One mapping for the
+// server's stored assessments (db/assessmentInput.ts) and the browser's live preview
+// (composables/useLivePreview.ts), so both compute from the same input.
+import { isaPressure } from '../engine/atmosphere'
+import { DEFAULTS } from '../engine/defaults'
+import { oxygenSaturation } from '../engine/oxygenSaturation'
+import type { AssessInputDraft } from '../schemas/assess'
+import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../schemas/site'
+
+/** What the mapping needs of a site. */
+export interface SiteForEngine {
+  altitudeM: number
+  weir: Weir
+  headTable: HeadRow[]
+  months: Month[]
+  reservedFlow: ReservedFlow
+  catchment: Catchment | null
+  fdcPoints: FdcPointInput[]
+  targetOxygenMgL: number
+}
+
+/** A daily record for the engine, with the area ratio its flows still need (null when already at the site). */
+export interface RecordForEngine {
+  days: { date: string; flow: number | null }[]
+  scale: { siteAreaKm2: number; gaugeAreaKm2: number } | null
+}
+
+/** The site's part of an engine input, and the downstream oxygen target the site's regulator sets. */
+export type EngineSitePart = Pick<AssessInputDraft, 'site' | 'hydrology' | 'gaugeScaling' | 'reservedFlow'> & { targetOxygen_mgL: number }
+
+/** The site cannot be assessed as it stands; `field` names what to fix (e.g. `site.hydrology`). */
+export class SiteNotReadyError extends Error {
+  override readonly name = 'SiteNotReadyError'
+  constructor(
+    readonly field: string,
+    message: string,
+  ) {
+    super(message)
+  }
+}
+
+/** Upstream oxygen in mg/L: a %-saturation reading times the Benson & Krause saturation at the site's air pressure (as the engine computes it). */
+export function upstreamOxygenMgL(reading: Month['upstreamOxygen'], waterTempC: number, altitudeM: number, salinity_gkg: number = DEFAULTS.salinity.value): number {
+  if (reading.unit === 'mg/L') return reading.value
+  return (reading.value / 100) * oxygenSaturation(waterTempC, isaPressure(altitudeM), salinity_gkg)
+}
+
+/**
+ * The site's part of the engine input. Hydrology: the daily record when there is one (its own area
+ * ratio as gaugeScaling), else the entered FDC points (the site's catchment ratio as gaugeScaling).
+ * Throws SiteNotReadyError naming the field when the site cannot be assessed yet.
+ */
+export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null): EngineSitePart {
+  let hydrology: AssessInputDraft['hydrology']
+  let gaugeScaling: AssessInputDraft['gaugeScaling'] = null
+  if (record) {
+    if (!record.days.some((d) => d.flow !== null)) {
+      throw new SiteNotReadyError('site.hydrology', 'the stored flow record has no day with a flow; upload another record or delete it and enter FDC points')
+    }
+    hydrology = { kind: 'record', days: record.days }
+    if (record.scale) gaugeScaling = { siteArea_km2: record.scale.siteAreaKm2, gaugeArea_km2: record.scale.gaugeAreaKm2 }
+  } else if (site.fdcPoints.length >= 3) {
+    hydrology = { kind: 'fdc', points: site.fdcPoints }
+    if (site.catchment) gaugeScaling = { siteArea_km2: site.catchment.siteAreaKm2, gaugeArea_km2: site.catchment.gaugeAreaKm2 }
+  } else {
+    throw new SiteNotReadyError('site.hydrology', 'add FDC points or upload a flow record first')
+  }
+  if (site.months.length !== 12) throw new SiteNotReadyError('site.months', 'needs 12 months, January first')
+  const salinity = DEFAULTS.salinity.value
+  return {
+    site: {
+      altitude_m: site.altitudeM,
+      grossHead_m: site.weir.grossHeadM,
+      headTable: site.headTable.map((r) => ({ flow_m3s: r.flow, head_m: r.head })),
+      salinity_gkg: salinity,
+      months: site.months.map((m) => ({
+        temperature_C: m.waterTempC,
+        upstreamOxygen_mgL: upstreamOxygenMgL(m.upstreamOxygen, m.waterTempC, site.altitudeM, salinity),
+      })),
+      waterQuality: site.weir.waterQuality,
+      weirShape: site.weir.shape,
+    },
+    hydrology,
+    gaugeScaling,
+    reservedFlow: site.reservedFlow,
+    targetOxygen_mgL: site.targetOxygenMgL,
+  }
+}
