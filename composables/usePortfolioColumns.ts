@@ -1,34 +1,56 @@
-// Columns of the portfolio's site table. The table takes a list of these, so later work can add
-// headline figures (energy, oxygen, cost, review state) without touching the page.
-import type { HydrologySource, SiteListItem, SiteSort } from '~~/shared/schemas/site'
+// Columns of the portfolio's site table, typed on PortfolioRow (GET /api/orgs/[orgId]/portfolio).
+// The table takes a list of these, so a new headline figure needs no change to the page or table.
+import type { PortfolioLatest, PortfolioRow, PortfolioSort } from '~~/shared/schemas/option'
+import { REVIEW_STATE_LABELS } from '~~/shared/schemas/review'
 
 /** One column of the site table. */
-export interface SiteColumn {
+export interface PortfolioColumn {
   /** Stable key, also the cell's data-testid suffix. */
   key: string
   /** Header text. */
   label: string
-  /** Unit shown in the header, e.g. "m". */
+  /** Unit shown in the header, e.g. "MWh/yr". */
   unit?: string
   /** Server sort key when the column can be sorted. */
-  sort?: SiteSort
+  sort?: PortfolioSort
   /** Right-align numbers. */
   numeric?: boolean
+  /**
+   * A figure of the latest assessment: for a site never assessed, the table joins the (adjacent)
+   * figure columns into one "not assessed" cell, and `value` is only called when `latest` is set.
+   */
+  figure?: boolean
   /** The cell's text for a row. */
-  value: (site: SiteListItem) => string
+  value: (row: PortfolioRow) => string
+  /** Optional fuller wording (cell title), e.g. the flags' names. */
+  title?: (row: PortfolioRow) => string | undefined
 }
 
-const SOURCE_TEXT: Record<HydrologySource, string> = { record: 'Daily record', points: 'Entered FDC', none: 'None yet' }
+/** Number with at most `digits` decimals, grouped, or a dash. */
+export const fixed = (v: number | null | undefined, digits: number) =>
+  v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: 0 })
 
-/** Number with at most `digits` decimals, or a dash. */
-const fixed = (v: number | null | undefined, digits: number) => (v === null || v === undefined || !Number.isFinite(v) ? '–' : String(Number(v.toFixed(digits))))
+/** A signed number ("+0.42", "−0.10", "0"). */
+export const signed = (v: number, digits: number) => (v > 0 ? `+${fixed(v, digits)}` : v < 0 ? `−${fixed(-v, digits)}` : '0')
+
+/** A figure of the latest assessment (the table calls it only for assessed sites). */
+const of = <T>(r: PortfolioRow, pick: (l: PortfolioLatest) => T) => pick(r.latest!)
 
 /** The columns shown by default (the name column always leads and links to the site). */
-export const DEFAULT_SITE_COLUMNS: SiteColumn[] = [
-  { key: 'river', label: 'River', sort: 'riverName', value: (s) => s.riverName },
-  { key: 'head', label: 'Gross head', unit: 'm', sort: 'grossHeadM', numeric: true, value: (s) => fixed(s.grossHeadM, 2) },
-  { key: 'altitude', label: 'Altitude', unit: 'm', numeric: true, value: (s) => fixed(s.altitudeM, 0) },
-  { key: 'hydrology', label: 'Hydrology', value: (s) => SOURCE_TEXT[s.hydrologySource] },
-  { key: 'meanFlow', label: 'Mean flow', unit: 'm³/s', numeric: true, value: (s) => fixed(s.recordMeanFlow, 2) },
-  { key: 'updated', label: 'Changed', sort: 'updatedAt', value: (s) => new Date(s.updatedAt).toLocaleDateString('en-GB') },
+export const DEFAULT_PORTFOLIO_COLUMNS: PortfolioColumn[] = [
+  { key: 'river', label: 'River', sort: 'riverName', value: (r) => r.riverName },
+  { key: 'energy', label: 'Annual energy', unit: 'MWh/yr', sort: 'annualEnergyMWh', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.annualEnergyMWh), 1) },
+  // The engine stores the capacity factor as a fraction of 1; the table shows per cent.
+  { key: 'capacity', label: 'Capacity factor', unit: '%', sort: 'capacityFactor', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.capacityFactor) * 100, 1) },
+  { key: 'oxygen', label: 'Net O₂ gain at summer low flow', unit: 'mg/L', sort: 'netOxygenGainSlfMgL', numeric: true, figure: true, value: (r) => signed(of(r, (l) => l.netOxygenGainSlfMgL), 2) },
+  {
+    key: 'lcoe', label: 'LCOE', unit: 'currency/MWh', sort: 'lcoe', numeric: true, figure: true,
+    value: (r) => { const v = of(r, (l) => l.lcoe); return v === null ? 'no cost entered' : fixed(v, 0) },
+  },
+  {
+    key: 'flags', label: 'Safety flags raised', unit: 'count', sort: 'flagsRaised', numeric: true, figure: true,
+    value: (r) => String(of(r, (l) => l.flagsRaised.length)),
+    title: (r) => (r.latest?.flagsRaised.length ? r.latest.flagsRaised.join(', ') : undefined),
+  },
+  { key: 'review', label: 'Review', sort: 'reviewState', value: (r) => REVIEW_STATE_LABELS[r.reviewState] },
 ]

@@ -8,6 +8,7 @@ import type { Database } from '../../db/schema'
 import type { FlagId } from '../../shared/engine/assess'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 import type { PortfolioQuery, PortfolioRow, PortfolioSort } from '../../shared/schemas/option'
+import { REVIEW_STATES, type ReviewState } from '../../shared/schemas/review'
 
 // Sort keys as the `page` step sees them: site columns from `latest`, figures from the assessment.
 const SORT_COLUMNS = {
@@ -22,7 +23,12 @@ const SORT_COLUMNS = {
   netOxygenGainSlfMgL: 'a.net_oxygen_gain_slf_mgl',
   lcoe: 'a.lcoe',
   flagsRaised: 'a.flag_count',
+  reviewState: 'l.review_rank',
 } as const satisfies Record<PortfolioSort, string>
+
+/** The review state of `sites` (no site_reviews row: `draft`), and its place in REVIEW_STATES (sort order). */
+const reviewStateSql = sql<ReviewState>`coalesce(${sql.ref('r.state')}, 'draft')`
+const reviewRankSql = sql<number>`case ${reviewStateSql} ${sql.join(REVIEW_STATES.map((s, i) => sql`when ${s} then ${i}`), sql` `)} end`
 
 /** A LIKE pattern finding `text` anywhere, with % _ and \ taken literally (use with `escape '\'`). */
 const likeAnywhere = (text: string) => `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
@@ -43,7 +49,10 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
       (d) => {
         let sites = d
           .selectFrom('sites')
+          .leftJoin('site_reviews as r', (j) => j.onRef('r.site_id', '=', 'sites.id').on('r.org_id', '=', orgId))
           .select((eb) => [
+            reviewStateSql.as('review_state'),
+            reviewRankSql.as('review_rank'),
             'sites.id as site_id',
             'sites.name',
             'sites.river_name',
@@ -66,6 +75,7 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
           sites = sites.where((eb) => eb.or([sql<boolean>`${sql.ref('sites.name')} like ${pattern} escape '\\'`, sql<boolean>`${sql.ref('sites.river_name')} like ${pattern} escape '\\'`]))
         }
         if (query.river) sites = sites.where('sites.river_name', '=', query.river)
+        if (query.reviewState) sites = sites.where(reviewStateSql, '=', query.reviewState)
         return sites
       },
     )
@@ -81,6 +91,7 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
           'l.lng',
           'l.gross_head_m',
           'l.latest_id',
+          'l.review_state',
           sql<string | number | null>`${sql.ref(SORT_COLUMNS[query.sort])}`.as('sort_key'),
           sql<number>`count(*) over ()`.as('total'),
         ])
@@ -100,6 +111,7 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
       'p.lng',
       'p.gross_head_m',
       'p.total',
+      'p.review_state',
       'a.id as assessment_id',
       'a.option_id',
       'o.name as option_name',
@@ -134,6 +146,7 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
     riverName: r.river_name,
     location: { lat: r.lat, lng: r.lng },
     grossHeadM: r.gross_head_m,
+    reviewState: r.review_state,
     latest:
       r.assessment_id === null
         ? null
@@ -158,13 +171,13 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
 /** Text a spreadsheet will not run as a formula (a leading = + - @ gets a quote mark). */
 const safeText = (s: string) => (/^[=+\-@\t\r]/.test(s) ? `'${s}` : s)
 
-/** The portfolio rows as CSV, units in the header. */
+/** The portfolio rows as CSV, units in the header, every line (the last too) ended by CRLF. */
 export function portfolioCsv(rows: readonly PortfolioRow[]): string {
-  return Papa.unparse({
+  return `${Papa.unparse({
     fields: [
       'Site id', 'Site', 'River', 'Latitude (°)', 'Longitude (°)', 'Gross head (m)', 'Option', 'Assessed at (UTC)', 'Engine version', 'Stale (-)',
       'Annual energy (MWh/yr)', 'Capacity factor (-)', 'Rated power (kW)', 'Net oxygen gain at summer low flow (mg/L)',
-      'Levelised cost (currency/MWh)', 'Minimum cavitation margin (m)', 'Flags raised (-)',
+      'Levelised cost (currency/MWh)', 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
     ],
     data: rows.map((r) => {
       const l = r.latest
@@ -172,8 +185,8 @@ export function portfolioCsv(rows: readonly PortfolioRow[]): string {
         r.siteId, safeText(r.name), safeText(r.riverName), r.location.lat, r.location.lng, r.grossHeadM,
         l ? safeText(l.optionName) : '', l?.assessedAt ?? '', l?.engineVersion ?? '', l ? (l.stale ? 'yes' : 'no') : '',
         l?.annualEnergyMWh ?? '', l?.capacityFactor ?? '', l?.ratedPowerKw ?? '', l?.netOxygenGainSlfMgL ?? '',
-        l?.lcoe ?? '', l?.minCavitationMarginM ?? '', l ? l.flagsRaised.join(' ') : '',
+        l?.lcoe ?? '', l?.minCavitationMarginM ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
       ]
     }),
-  })
+  })}\r\n`
 }

@@ -12,6 +12,7 @@ import {
   type AssessInput,
 } from './assess'
 import { IdSchema, NameSchema } from './common'
+import { REVIEW_STATES, type ReviewState } from './review'
 
 export { EngineOptionSchema }
 
@@ -190,6 +191,7 @@ export type SweepSave = z.infer<typeof SweepSaveSchema>
 export const PORTFOLIO_SORTS = [
   'name', 'riverName', 'grossHeadM', 'assessedAt',
   'annualEnergyMWh', 'capacityFactor', 'ratedPowerKw', 'minCavitationMarginM', 'netOxygenGainSlfMgL', 'lcoe', 'flagsRaised',
+  'reviewState',
 ] as const
 export type PortfolioSort = (typeof PORTFOLIO_SORTS)[number]
 
@@ -205,8 +207,14 @@ export const PortfolioQuerySchema = z.object({
   river: z.string().trim().max(120, 'is too long').optional(),
   /** `yes`: only sites with an assessment; `no`: only sites without one. */
   assessed: z.enum(['yes', 'no'], { error: "must be 'yes' or 'no'" }).optional(),
-  format: z.enum(['json', 'csv'], { error: "must be 'json' or 'csv'" }).default('json'),
+  /** Only sites whose review is in this state (a site never submitted is `draft`). */
+  reviewState: z.enum(REVIEW_STATES, { error: `must be one of ${REVIEW_STATES.join(', ')}` }).optional(),
+  /** `csv`: every matching row as CSV; `map`: every matching row (up to PORTFOLIO_MAP_MAX) as JSON, unpaged. */
+  format: z.enum(['json', 'csv', 'map'], { error: "must be 'json', 'csv' or 'map'" }).default('json'),
 })
+
+/** Most rows `format=map` answers (the map shows every site; this bounds the answer). */
+export const PORTFOLIO_MAP_MAX = 2000
 export type PortfolioQuery = z.infer<typeof PortfolioQuerySchema>
 
 /** The headline figures of a site's latest assessment (of any of its live options). */
@@ -233,6 +241,8 @@ export interface PortfolioRow {
   riverName: string
   location: { lat: number; lng: number }
   grossHeadM: number
+  /** The site's review state; `draft` when nobody has submitted it. */
+  reviewState: ReviewState
   /** Null when no live option of the site has an assessment yet. */
   latest: PortfolioLatest | null
 }

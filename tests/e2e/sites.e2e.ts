@@ -117,6 +117,62 @@ async function engineerJourney(browser: Browser) {
   await page.waitForFunction(() => document.querySelectorAll('[data-testid=site-table] tbody tr').length === 1)
   assert.match((await names())[0]!, /mill/i)
   await page.fill('[data-testid=site-filter]', '')
+  await page.waitForFunction((n) => document.querySelectorAll('[data-testid=site-table] tbody tr').length === n, before.length)
+
+  // Headline figures of each latest assessment, units in the headers, and the review state in words.
+  const head = ((await page.locator('[data-testid=site-table] thead').textContent()) ?? '').replace(/\s+/g, ' ')
+  for (const h of ['Annual energy (MWh/yr)', 'Capacity factor (%)', 'Net O₂ gain at summer low flow (mg/L)', 'LCOE (currency/MWh)', 'Safety flags raised (count)', 'Review']) {
+    assert.ok(head.includes(h), `the header shows ${h}`)
+  }
+  const hollin = page.locator('[data-testid=site-table] tbody tr', { hasText: 'Hollin Mill weir' })
+  assert.equal(await hollin.locator('[data-testid=cell-review]').innerText(), 'Accepted with conditions', 'the demo review decision is shown in words')
+  assert.match(await hollin.locator('[data-testid=cell-energy]').innerText(), /^\d[\d,]*(\.\d)?$/)
+  assert.match(await hollin.locator('[data-testid=cell-capacity]').innerText(), /^\d+(\.\d)?$/)
+  assert.match(await hollin.locator('[data-testid=cell-oxygen]').innerText(), /^([+−]\d+(\.\d+)?|0)$/, 'the oxygen gain is signed')
+  assert.match(await hollin.locator('[data-testid=cell-flags]').innerText(), /^\d+$/)
+  // Sorting by a figure is done by the server: energies come back in order.
+  const energies = async () => (await page.locator('[data-testid=site-table] tbody [data-testid=cell-energy]').allInnerTexts()).map((t) => Number(t.replace(/,/g, '')))
+  await Promise.all([
+    page.waitForResponse((r) => r.url().includes('/portfolio?') && r.url().includes('sort=annualEnergyMWh') && r.ok()),
+    page.click('[data-testid=sort-annualEnergyMWh]'),
+  ])
+  await page.waitForSelector('th[aria-sort=ascending] [data-testid=sort-annualEnergyMWh]')
+  // The old page may still be on screen for a frame: wait (bounded by the step's timeout) for the rows to settle in order.
+  await page.waitForFunction(() => {
+    const v = [...document.querySelectorAll('[data-testid=site-table] tbody [data-testid=cell-energy]')].map((c) => Number((c.textContent ?? '').replace(/,/g, '')))
+    return v.length > 1 && v.every((x, i) => i === 0 || v[i - 1]! <= x)
+  })
+  const sortedUp = await energies()
+  assert.ok(sortedUp.length > 1, 'several sites have an annual energy')
+  assert.deepEqual(sortedUp, [...sortedUp].sort((a, b) => a - b), 'annual energy sorts ascending')
+  // The review-state filter, and the CSV download of the same filter.
+  await page.selectOption('[data-testid=review-filter]', 'accepted-with-conditions')
+  await page.waitForFunction(() => document.querySelectorAll('[data-testid=site-table] tbody tr').length === 1)
+  assert.deepEqual(await names(), ['Hollin Mill weir'])
+  const csvHref = (await page.getAttribute('[data-testid=portfolio-csv]', 'href')) ?? ''
+  assert.match(csvHref, /format=csv/)
+  assert.match(csvHref, /reviewState=accepted-with-conditions/)
+  const portfolioCsv = await downloadOf(page, '[data-testid=portfolio-csv]')
+  assert.equal(portfolioCsv.lines.length, 2, 'the CSV holds the one filtered site')
+  assert.ok(portfolioCsv.lines[0]!.includes('Annual energy (MWh/yr)') && portfolioCsv.lines[0]!.endsWith('Review state'))
+  assert.match(portfolioCsv.lines[1]!, /,Hollin Mill weir,.*,accepted-with-conditions$/)
+  await page.selectOption('[data-testid=review-filter]', '')
+  await page.waitForFunction((n) => document.querySelectorAll('[data-testid=site-table] tbody tr').length === n, before.length)
+
+  // The map is coloured by the chosen figure; the legend states range and units, the popup the value.
+  assert.match(await page.locator('[data-testid=map-legend-range]').innerText(), /MWh\/yr.*MWh\/yr/s, 'the energy range has its unit')
+  await page.selectOption('[data-testid=map-colour]', 'netOxygenGainSlfMgL')
+  await page.waitForFunction(() => /mg\/L/.test(document.querySelector('[data-testid=map-legend]')?.textContent ?? ''))
+  await page.selectOption('[data-testid=map-colour]', 'reviewState')
+  await page.waitForFunction(() => (document.querySelector('[data-testid=map-legend]')?.textContent ?? '').includes('Accepted with conditions'))
+  const accepted = page.locator('[data-testid=map-sites] path.leaflet-interactive[fill="#bccd45"]')
+  await accepted.first().waitFor()
+  assert.equal(await accepted.count(), 1, 'one marker takes the accepted-with-conditions colour')
+  await accepted.first().click()
+  const openNote = page.locator('[data-testid=map-sites] .leaflet-popup-content [data-testid=map-popup-note]')
+  await openNote.waitFor()
+  assert.equal(await openNote.innerText(), 'Review: Accepted with conditions', 'the open popup says the state in words')
+  await shot(page, '01b-portfolio-by-review')
 
   // New site: required fields are reported per field before anything is sent.
   await page.click('[data-testid=new-site]')
@@ -342,6 +398,9 @@ async function adminRestores(browser: Browser, siteId: number) {
   await page.click('[data-testid=deleted-sites] summary')
   await page.click(`[data-testid=restore-${siteId}]`)
   await page.waitForSelector(`[data-testid=site-row-${siteId}]`)
+  // The restored site has never been assessed: one "not assessed" cell across the figures.
+  assert.equal(await page.locator(`[data-testid=site-row-${siteId}] [data-testid=cell-not-assessed]`).innerText(), 'not assessed')
+  assert.equal(await page.locator(`[data-testid=site-row-${siteId}] [data-testid=cell-energy]`).count(), 0)
   await page.context().close()
 }
 

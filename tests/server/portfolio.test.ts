@@ -26,6 +26,10 @@ beforeAll(async () => {
   const gone = await createOption(team.engineer, ids['Birch weir']!, { name: 'Birch deleted' })
   await createAssessment(team.engineer, gone.id)
   expect((await team.engineer.delete(`/api/options/${gone.id}`)).status).toBe(200)
+  // Reviews: Alder submitted, Birch submitted then accepted; Cedar and =Danger never submitted (draft).
+  expect((await team.engineer.post(`/api/sites/${ids['Alder weir']}/review/submit`, { assessmentId: latestOfAlder.id })).status).toBe(200)
+  expect((await team.engineer.post(`/api/sites/${ids['Birch weir']}/review/submit`, { assessmentId: bigger.id })).status).toBe(200)
+  expect((await team.reviewer.post(`/api/sites/${ids['Birch weir']}/review/decision`, { decision: 'accepted', reason: 'Oxygen and cost both fine.' })).status).toBe(200)
 })
 
 const get = (query = '') => team.viewer.get(`/api/orgs/${team.orgId}/portfolio${query}`)
@@ -53,6 +57,34 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     const birch = res.body.rows.find((r: { name: string }) => r.name === 'Birch weir')
     expect(birch.latest.assessmentId).toBe(bigger.id)
     expect(res.body.rows.find((r: { name: string }) => r.name === 'Cedar weir').latest).toBeNull()
+    expect(Object.fromEntries(res.body.rows.map((r: { name: string; reviewState: string }) => [r.name, r.reviewState]))).toEqual({
+      '=Danger weir': 'draft', 'Alder weir': 'submitted', 'Birch weir': 'accepted', 'Cedar weir': 'draft',
+    })
+  })
+
+  it('sorts by review state in the order of the review (draft, submitted, accepted…), ties by site', async () => {
+    // Ties (both draft) go by site id in the same direction; Cedar was made before =Danger.
+    expect(names((await get('?sort=reviewState&dir=asc')).body.rows)).toEqual(['Cedar weir', '=Danger weir', 'Alder weir', 'Birch weir'])
+    expect(names((await get('?sort=reviewState&dir=desc')).body.rows)).toEqual(['Birch weir', 'Alder weir', '=Danger weir', 'Cedar weir'])
+  })
+
+  it('filters by review state, a site never submitted counting as draft, with the total to match', async () => {
+    const draft = await get('?reviewState=draft')
+    expect(names(draft.body.rows)).toEqual(['=Danger weir', 'Cedar weir'])
+    expect(draft.body.total).toBe(2)
+    expect(names((await get('?reviewState=submitted')).body.rows)).toEqual(['Alder weir'])
+    expect(names((await get('?reviewState=accepted')).body.rows)).toEqual(['Birch weir'])
+    expect((await get('?reviewState=returned')).body).toMatchObject({ total: 0, rows: [] })
+    expect(names((await get('?reviewState=draft&q=cedar')).body.rows)).toEqual(['Cedar weir'])
+  })
+
+  it('answers every matching row unpaged for the map (format=map), filters still applied', async () => {
+    const map = await get('?format=map&pageSize=1&page=3')
+    expect(map.status).toBe(200)
+    expect(map.body.total).toBe(4)
+    expect(names(map.body.rows)).toEqual(['=Danger weir', 'Alder weir', 'Birch weir', 'Cedar weir'])
+    expect(map.body.rows[1].latest.netOxygenGainSlfMgL).toBe(latestOfAlder.netOxygenGainSlfMgL)
+    expect(names((await get('?format=map&reviewState=accepted')).body.rows)).toEqual(['Birch weir'])
   })
 
   it('sorts by an allow-listed figure either way, sites never assessed last', async () => {
@@ -99,7 +131,7 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
   })
 
   it('answers 400 naming the field for a bad query', async () => {
-    for (const [query, field] of [['?sort=password', 'sort'], ['?dir=up', 'dir'], ['?page=0', 'page'], ['?pageSize=500', 'pageSize'], ['?assessed=maybe', 'assessed'], ['?format=xml', 'format']]) {
+    for (const [query, field] of [['?sort=password', 'sort'], ['?dir=up', 'dir'], ['?page=0', 'page'], ['?pageSize=500', 'pageSize'], ['?assessed=maybe', 'assessed'], ['?format=xml', 'format'], ['?reviewState=maybe', 'reviewState']]) {
       const res = await get(query)
       expect(res.status, query).toBe(400)
       expect(res.body.message, query).toMatch(new RegExp(`^${field}:`))
@@ -119,7 +151,9 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     expect(res.status).toBe(200)
     expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
     expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename=".+\.csv"$/)
-    const lines = new TextDecoder().decode(res.bytes).trim().split(/\r\n/)
+    const text = new TextDecoder().decode(res.bytes)
+    expect(text.endsWith('\r\n')).toBe(true) // RFC 4180, 2.2: the last record may end with a line break; Gillwatt's CSVs always do
+    const lines = text.trim().split(/\r\n/)
     expect(lines[0]).toContain('Annual energy (MWh/yr)')
     expect(lines[0]).toContain('Net oxygen gain at summer low flow (mg/L)')
     expect(lines).toHaveLength(5)
@@ -127,6 +161,12 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     expect(lines[1]).toMatch(new RegExp(`^${ids[top.name]},${top.name},Portfolio Water,`))
     expect(lines[1]).toContain(`,${top.a.annualEnergyMWh},`)
     expect(lines.find((l) => l.includes('Danger'))).toMatch(/^\d+,'=Danger weir,/)
+    expect(lines[0]!.split(',').at(-1)).toBe('Review state')
+    expect(lines.find((l) => l.includes('Alder weir'))!.split(',').at(-1)).toBe('submitted')
+    expect(lines.find((l) => l.includes('Cedar weir'))!.split(',').at(-1)).toBe('draft')
+    const filtered = new TextDecoder().decode((await team.viewer.download(`/api/orgs/${team.orgId}/portfolio?format=csv&reviewState=accepted`)).bytes).trim().split(/\r\n/)
+    expect(filtered).toHaveLength(2)
+    expect(filtered[1]).toMatch(new RegExp(`^${ids['Birch weir']},Birch weir,`))
     expect((await team.outsider.download(`/api/orgs/${team.orgId}/portfolio?format=csv`)).status).toBe(404)
   })
 
