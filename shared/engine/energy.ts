@@ -161,8 +161,8 @@ export interface PowerSample {
   state: number
 }
 
-/** Bisection steps that place a jump inside a table cell (cell width / 2^24: far below any flow the data can resolve). */
-const JUMP_STEPS = 24
+/** Bisection steps that place a jump inside a table cell (cell width / 2^12: a few millionths of the flow, far below what the data can resolve). */
+const JUMP_STEPS = 12
 
 /** One month's table: nodes in log flow, power there, and where a cell holds a jump, its place and the power either side. */
 interface PowerTable {
