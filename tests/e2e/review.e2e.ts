@@ -10,17 +10,13 @@
 // exits non-zero on the first failed check or on any console error, page error or failed request.
 import assert from 'node:assert/strict'
 import { mkdirSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
 import Database from 'better-sqlite3'
 import { chromium, type Browser, type Page } from 'playwright-core'
-import { waitForHydrationOnLoad } from './hydration'
+import { BASE, expectRefusal, openPage, problems, shot, SHOTS, signIn } from './journey'
 
-const BASE = process.env.GW_BASE_URL ?? 'http://localhost:3200'
 const DB_PATH = process.env.GW_DATABASE_PATH ?? ''
 const REVIEW_PATH = process.env.GW_REVIEW_PATH ?? '/sites/{id}?tab=review'
 const SHARING_PATH = process.env.GW_SHARING_PATH ?? '/sites/{id}?tab=sharing'
-const SHOTS = fileURLToPath(new URL('./screenshots/', import.meta.url))
-const PASSWORD = 'brackwin-demo-2026'
 const ADMIN = 'morwenna@tarnbeck.example'
 const ENGINEER = 'idris@tarnbeck.example'
 const REVIEWER = 'elspeth@fellside-agency.example'
@@ -29,47 +25,7 @@ const INVITED = 'bryony@fellside-agency.example'
 // The demo's draft site (Hollin Mill weir is already decided in the demo scenario).
 const SITE = 'Skelby gauging weir'
 
-const problems: string[] = []
-/** Refusals the journey provokes on purpose (status → how many): the browser logs each one. */
-const provoked = new Map<number, number>()
-function expectRefusal(status: number) {
-  provoked.set(status, (provoked.get(status) ?? 0) + 1)
-}
-function wasProvoked(text: string): boolean {
-  const status = Number(/Failed to load resource: the server responded with a status of (\d{3})/.exec(text)?.[1])
-  const left = provoked.get(status) ?? 0
-  if (!left) return false
-  provoked.set(status, left - 1)
-  return true
-}
 
-async function openPage(browser: Browser): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1360, height: 1000 } })
-  await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: BASE })
-  const page = await context.newPage()
-  page.on('console', (m) => {
-    if ((m.type() === 'error' || m.type() === 'warning') && !wasProvoked(m.text())) problems.push(`console ${m.type()} on ${page.url()}: ${m.text()}`)
-  })
-  page.on('pageerror', (e) => problems.push(`page error on ${page.url()}: ${e.message}`))
-  waitForHydrationOnLoad(page)
-  page.on('requestfailed', (r) => {
-    if (!/net::ERR_ABORTED/.test(r.failure()?.errorText ?? '')) problems.push(`request failed: ${r.url()} ${r.failure()?.errorText}`)
-  })
-  return page
-}
-
-async function shot(page: Page, name: string) {
-  await page.waitForTimeout(300)
-  await page.screenshot({ path: `${SHOTS}${name}.png`, fullPage: true })
-}
-
-async function signIn(page: Page, email: string, password = PASSWORD) {
-  await page.goto(`${BASE}/`)
-  await page.fill('#f-email', email)
-  await page.fill('#f-password', password)
-  await page.click('[data-testid=sign-in-form] button[type=submit]')
-  await page.waitForSelector('[data-testid=site-table] tbody tr')
-}
 
 const at = (path: string, id: number) => `${BASE}${path.replace('{id}', String(id))}`
 
@@ -83,7 +39,7 @@ async function siteIdOf(page: Page, name: string): Promise<number> {
 
 /** The engineer submits the site for review and shares a summary link; answers the link's URL. */
 async function engineerJourney(browser: Browser, siteId: number): Promise<string> {
-  const page = await openPage(browser)
+  const page = await openPage(browser, { clipboard: true })
   await signIn(page, ENGINEER)
   await page.goto(at(REVIEW_PATH, siteId))
   await page.waitForSelector('[data-testid=review-submit-form] select option', { state: 'attached' })
@@ -120,7 +76,7 @@ async function engineerJourney(browser: Browser, siteId: number): Promise<string
 
 /** The reviewer reads the brief, is refused without conditions, decides with conditions, comments. */
 async function reviewerJourney(browser: Browser, siteId: number) {
-  const page = await openPage(browser)
+  const page = await openPage(browser, { clipboard: true })
   await signIn(page, REVIEWER)
   await page.goto(at(REVIEW_PATH, siteId))
   await page.waitForSelector('[data-testid=review-brief]')
@@ -166,7 +122,7 @@ async function reviewerJourney(browser: Browser, siteId: number) {
 
 /** A landowner without an account reads the summary, and prints it. */
 async function landownerJourney(browser: Browser, url: string) {
-  const page = await openPage(browser)
+  const page = await openPage(browser, { clipboard: true })
   await page.goto(url)
   await page.waitForSelector('[data-testid=summary-page]')
   await page.waitForSelector('[data-testid=summary-map] .leaflet-interactive')
@@ -194,7 +150,7 @@ async function landownerJourney(browser: Browser, url: string) {
 
 /** The admin invites a single-site reviewer, revokes the link, filters the audit trail and reads the outbox. */
 async function adminJourney(browser: Browser, siteId: number, summaryUrl: string): Promise<string> {
-  const page = await openPage(browser)
+  const page = await openPage(browser, { clipboard: true })
   await signIn(page, ADMIN)
   await page.goto(`${BASE}/admin`)
   await page.waitForSelector('[data-testid=invite-form]')
@@ -252,7 +208,7 @@ async function adminJourney(browser: Browser, siteId: number, summaryUrl: string
   await page.context().close()
 
   // The revoked link now shows the neutral page.
-  const visitor = await openPage(browser)
+  const visitor = await openPage(browser, { clipboard: true })
   expectRefusal(404)
   await visitor.goto(summaryUrl)
   await visitor.waitForSelector('[data-testid=summary-unavailable]')
@@ -262,7 +218,7 @@ async function adminJourney(browser: Browser, siteId: number, summaryUrl: string
 
 /** The invited reviewer creates an account from the link and lands on the one site. */
 async function invitedJourney(browser: Browser, token: string, siteId: number) {
-  const page = await openPage(browser)
+  const page = await openPage(browser, { clipboard: true })
   expectRefusal(404)
   await page.goto(`${BASE}/invitations/not-a-real-invitation-token`)
   await page.waitForSelector('[data-testid=invitation-closed]')
@@ -279,7 +235,7 @@ async function invitedJourney(browser: Browser, token: string, siteId: number) {
   await page.waitForURL(`${BASE}/sites/${siteId}`)
   await page.context().close()
 
-  const again = await openPage(browser)
+  const again = await openPage(browser, { clipboard: true })
   expectRefusal(410)
   await again.goto(`${BASE}/invitations/${token}`)
   await again.waitForSelector('[data-testid=invitation-closed]')
@@ -290,7 +246,7 @@ async function invitedJourney(browser: Browser, token: string, siteId: number) {
 
 /** The landowner forgets their password, asks for a link and sets a new one. */
 async function resetJourney(browser: Browser) {
-  const page = await openPage(browser)
+  const page = await openPage(browser, { clipboard: true })
   await page.goto(`${BASE}/`)
   await page.click('[data-testid=forgot-password]')
   await page.waitForURL(`${BASE}/reset-password`)
@@ -334,7 +290,7 @@ const browser = await chromium.launch({
   args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
 })
 try {
-  const probe = await openPage(browser)
+  const probe = await openPage(browser, { clipboard: true })
   await signIn(probe, ENGINEER)
   const siteId = await siteIdOf(probe, SITE)
   await probe.context().close()

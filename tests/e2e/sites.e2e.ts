@@ -7,60 +7,14 @@
 // exits non-zero on the first failed check or on any console error, page error or failed request.
 import assert from 'node:assert/strict'
 import { mkdirSync, readFileSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
 import { chromium, type Browser, type Page } from 'playwright-core'
-import { waitForHydrationOnLoad } from './hydration'
+import { expectRefusal, openPage, problems, shot, SHOTS, signIn, unseenRefusals } from './journey'
 
-const BASE = process.env.GW_BASE_URL ?? 'http://localhost:3200'
-const SHOTS = fileURLToPath(new URL('./screenshots/', import.meta.url))
-const PASSWORD = 'brackwin-demo-2026'
 const ENGINEER = 'idris@tarnbeck.example'
 const VIEWER = 'tobias@brackwin-farm.example'
 const ADMIN = 'morwenna@tarnbeck.example'
 
-const problems: string[] = []
-/** Refusals the journey provokes on purpose (status → how many): the browser logs each one. */
-const provoked = new Map<number, number>()
-function expectRefusal(status: number) {
-  provoked.set(status, (provoked.get(status) ?? 0) + 1)
-}
-/** True (and counted off) when a console line is the browser's log of a refusal provoked on purpose. */
-function wasProvoked(text: string): boolean {
-  const status = Number(/Failed to load resource: the server responded with a status of (\d{3})/.exec(text)?.[1])
-  const left = provoked.get(status) ?? 0
-  if (!left) return false
-  provoked.set(status, left - 1)
-  return true
-}
 
-/** A page that records every console error or warning, page error and failed request. */
-async function openPage(browser: Browser): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1360, height: 1000 } })
-  const page = await context.newPage()
-  waitForHydrationOnLoad(page)
-  page.on('console', (m) => {
-    if ((m.type() === 'error' || m.type() === 'warning') && !wasProvoked(m.text())) problems.push(`console ${m.type()} on ${page.url()}: ${m.text()}`)
-  })
-  page.on('pageerror', (e) => problems.push(`page error on ${page.url()}: ${e.message}`))
-  page.on('requestfailed', (r) => {
-    // A download link opened in a new tab may be cancelled by the browser; nothing else may fail.
-    if (!/net::ERR_ABORTED/.test(r.failure()?.errorText ?? '')) problems.push(`request failed: ${r.url()} ${r.failure()?.errorText}`)
-  })
-  return page
-}
-
-async function shot(page: Page, name: string) {
-  await page.waitForTimeout(300)
-  await page.screenshot({ path: `${SHOTS}${name}.png`, fullPage: true })
-}
-
-async function signIn(page: Page, email: string) {
-  await page.goto(`${BASE}/`)
-  await page.fill('#f-email', email)
-  await page.fill('#f-password', PASSWORD)
-  await page.click('[data-testid=sign-in-form] button[type=submit]')
-  await page.waitForSelector('[data-testid=site-table] tbody tr')
-}
 
 /** Clicks the Leaflet map at a fraction of its width and height. */
 async function clickMap(page: Page, fx: number, fy: number) {
@@ -414,7 +368,7 @@ try {
   await viewerJourney(browser)
   await adminRestores(browser, siteId)
   assert.deepEqual(problems, [], 'no console errors, page errors or failed requests')
-  assert.deepEqual([...provoked.values()].filter((n) => n > 0), [], 'every refusal provoked on purpose was seen')
+  assert.deepEqual(unseenRefusals(), [], 'every refusal provoked on purpose was seen')
   console.log(`sites journey passed; screenshots in ${SHOTS}`)
 } finally {
   await browser.close()
