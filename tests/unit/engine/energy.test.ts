@@ -7,9 +7,9 @@ import {
   annualEnergyFromRecord,
   loadFigures,
 } from '../../../shared/engine/energy'
-import { EngineInputError } from '../../../shared/engine/errors'
 import { fdcFromPoints, fdcFromRecord, monthlyFdcs } from '../../../shared/engine/hydrology'
 import type { DailyFlow } from '../../../shared/engine/hydrology'
+import { expectInputError, record } from './fixtures'
 
 // Water at 20 °C, ρ = 998.207 kg/m³ (IAPWS-95); standard gravity g = 9.80665 m/s² (CGPM 1901).
 const RHO = 998.207
@@ -17,23 +17,6 @@ const G = 9.80665
 
 /** Hydropower P = ρ g Q H η, W (textbook hydropower formula). */
 const hydroPower = (q: number, h: number, eta: number): number => RHO * G * q * h * eta
-
-/** Consecutive days from a start date (UTC), one per flow. */
-function record(start: string, flows: readonly (number | null)[]): DailyFlow[] {
-  const t0 = Date.parse(`${start}T00:00:00Z`)
-  return flows.map((flow, i) => ({ date: new Date(t0 + i * 86_400_000).toISOString().slice(0, 10), flow }))
-}
-
-function expectInputError(fn: () => unknown, field: string): void {
-  try {
-    fn()
-  } catch (e) {
-    expect(e).toBeInstanceOf(EngineInputError)
-    expect((e as EngineInputError).field).toBe(field)
-    return
-  }
-  throw new Error(`expected an EngineInputError on ${field}`)
-}
 
 const sum = (xs: readonly (number | null)[]): number => xs.reduce<number>((s, x) => s + (x ?? 0), 0)
 

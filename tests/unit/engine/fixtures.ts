@@ -1,4 +1,7 @@
 // Invented demo site for engine tests (illustrative numbers, no real place).
+import { expect } from 'vitest'
+import { EngineInputError } from '../../../shared/engine/errors'
+import type { DailyFlow } from '../../../shared/engine/hydrology'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
 
 export const TEMPS = [4, 5, 7, 9, 12, 15, 17, 17, 14, 11, 7, 5]
@@ -42,4 +45,22 @@ export function numbersIn(v: unknown, path = '$'): Array<[string, number]> {
   if (Array.isArray(v)) return v.flatMap((x, i) => numbersIn(x, `${path}[${i}]`))
   if (v !== null && typeof v === 'object') return Object.entries(v).flatMap(([k, x]) => numbersIn(x, `${path}.${k}`))
   return []
+}
+
+/** Consecutive days from a start date (UTC), one per flow. */
+export function record(start: string, flows: readonly (number | null)[]): DailyFlow[] {
+  const t0 = Date.parse(`${start}T00:00:00Z`)
+  return flows.map((flow, i) => ({ date: new Date(t0 + i * 86_400_000).toISOString().slice(0, 10), flow }))
+}
+
+/** Expect `fn` to throw an EngineInputError on `field`. */
+export function expectInputError(fn: () => unknown, field: string): void {
+  try {
+    fn()
+  } catch (e) {
+    expect(e).toBeInstanceOf(EngineInputError)
+    expect((e as EngineInputError).field).toBe(field)
+    return
+  }
+  throw new Error(`expected an EngineInputError on ${field}`)
 }

@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest'
-import { EngineInputError } from '../../../shared/engine/errors'
 import {
   HYDROLOGY_DEFAULTS,
   exceedanceGrid,
@@ -15,25 +14,7 @@ import {
   scaleFdcByAreaRatio,
   scaleRecordByAreaRatio,
 } from '../../../shared/engine/hydrology'
-import type { DailyFlow } from '../../../shared/engine/hydrology'
-
-/** Consecutive days from a start date (UTC), one per flow. */
-function record(start: string, flows: readonly (number | null)[]): DailyFlow[] {
-  const t0 = Date.parse(`${start}T00:00:00Z`)
-  return flows.map((flow, i) => ({ date: new Date(t0 + i * 86_400_000).toISOString().slice(0, 10), flow }))
-}
-
-/** Expect `fn` to throw an EngineInputError on `field`. */
-function expectInputError(fn: () => unknown, field: string): void {
-  try {
-    fn()
-  } catch (e) {
-    expect(e).toBeInstanceOf(EngineInputError)
-    expect((e as EngineInputError).field).toBe(field)
-    return
-  }
-  throw new Error(`expected an EngineInputError on ${field}`)
-}
+import { expectInputError, record } from './fixtures'
 
 describe('fdcFromRecord — Weibull plotting position', () => {
   // Sample 3, 1, 4, 1, 5, (gap), 9, 2: n = 7 days with data.
