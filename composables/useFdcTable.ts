@@ -8,6 +8,18 @@ export type TableRow<C extends string> = { key: number } & Record<C, string>
 /** Messages for one row's cells. */
 export type TableRowErrors<C extends string> = Partial<Record<C, string>>
 
+/** One column of a table editor (components/form/FormNumberTable.vue). */
+export interface NumberTableColumn<C extends string> {
+  /** The row field the column edits; also ends the cell ids (`fdc-0-flow`). */
+  key: C
+  /** Column heading with its unit, e.g. "Flow (m³/s)". */
+  heading: string
+  /** Unit shown after each cell. */
+  unit: string
+  /** Name of the cell in its accessible label: "Row 3 <label>". */
+  cellLabel: string
+}
+
 /** What a cell must hold: its name in messages, its unit and its range (inclusive). */
 export interface CellRule {
   /** Lower-case name used in messages, e.g. "flow". */
