@@ -1,14 +1,20 @@
 /**
- * True once Leaflet's module is loaded and the component is still mounted. Mount `<LMap>` behind it:
- * LMap loads Leaflet itself and builds the map afterwards, so a map torn down while the module was
- * still arriving (a quick tab switch or navigation) would find no container and throw. With the
- * module already loaded, LMap builds its map before any further click or navigation can unmount it.
+ * True once Leaflet's module and its marker images are loaded and the component is still mounted.
+ * Mount `<LMap>` behind it: LMap loads Leaflet and the three marker images itself and builds the map
+ * afterwards, so a map torn down while any of them was still arriving (a quick tab switch or
+ * navigation) would find no container and throw. With all four already loaded, LMap's own loads
+ * settle at once and it builds its map before any further click or navigation can unmount it.
  */
 export function useLeafletReady() {
   const ready = ref(false)
   let mounted = true
   onMounted(async () => {
-    await import('leaflet')
+    await Promise.all([
+      import('leaflet'),
+      import('leaflet/dist/images/marker-icon-2x.png'),
+      import('leaflet/dist/images/marker-icon.png'),
+      import('leaflet/dist/images/marker-shadow.png'),
+    ])
     if (mounted) ready.value = true
   })
   onBeforeUnmount(() => {
