@@ -168,7 +168,15 @@ async function engineerJourney(browser: Browser) {
   assert.equal(await page.locator('[data-testid=map-site-editor] .leaflet-marker-icon').count(), 5, 'four reach points and the site on the map')
   await page.fill('#f-weir-grossHeadM', '1.8')
   await page.fill('#f-weir-crestWidthM', '11.5')
+  // The head table can be started on the new-site form; a wrong row holds the form back.
+  await page.click('[data-testid=head-add]')
+  await page.fill('#head-0-flow', '1')
+  await page.fill('#head-0-head', '-1.8')
   await page.fill('#f-months-6-waterTempC', '17.5')
+  await page.click('[data-testid=site-new-form] [data-testid=save]')
+  await page.waitForSelector('#head-0-head-error')
+  assert.match(await page.innerText('[data-testid=site-new-form] [data-testid=form-error]'), /head table/)
+  await page.fill('#head-0-head', '1.8')
   await shot(page, '03-new-site-filled')
   await page.click('[data-testid=site-new-form] [data-testid=save]')
   await page.waitForURL(/\/sites\/\d+$/)
@@ -176,6 +184,7 @@ async function engineerJourney(browser: Browser) {
   assert.equal(await page.innerText('[data-testid=site-name]'), 'Thornwaite sluice')
   const siteUrl = page.url()
   const siteId = Number(siteUrl.split('/').pop())
+  assert.equal(await page.inputValue('#head-0-head'), '1.8', 'the head row entered on the new-site form was stored')
 
   // Save a change, then lose a race against another save and reload.
   await page.fill('#f-notes', 'Sluice gate on the right bank.')
@@ -196,8 +205,8 @@ async function engineerJourney(browser: Browser) {
   assert.equal(await page.inputValue('#f-name'), 'Thornwaite sluice')
   assert.match(await page.innerText('[data-testid=reach-summary]'), /4 points/, 'the typed reach points were stored')
 
-  // Head against flow: checked row by row, sorted, saved with the overview, then downloaded.
-  for (const [q, h] of [['1', '1.8'], ['20', '1.1'], ['10', '1,5']]) {
+  // Head against flow: more rows, checked row by row, sorted, saved with the overview, then downloaded.
+  for (const [q, h] of [['20', '1.1'], ['10', '1,5']]) {
     await page.click('[data-testid=head-add]')
     await page.fill(`#head-${(await page.locator('[data-testid=head-table] tbody tr[data-testid]').count()) - 1}-flow`, q!)
     await page.fill(`#head-${(await page.locator('[data-testid=head-table] tbody tr[data-testid]').count()) - 1}-head`, h!)
