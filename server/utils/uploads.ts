@@ -16,9 +16,23 @@ export function tooLarge(what: string, limit: number) {
 }
 
 /**
+ * 400 unless the multipart body ends with its closing boundary (`--boundary--`). The multipart reader
+ * keeps the parts it found complete and drops the rest without a word, so a body cut short after the
+ * file part would lose the fields after it (an append would become a replace).
+ */
+async function requireWholeBody(event: H3Event, type: string, part: string) {
+  const boundary = /boundary=(?:"([^"]+)"|([^;]+))/i.exec(type)
+  const body = await readRawBody(event, false)
+  const close = boundary ? Buffer.from(`--${(boundary[1] ?? boundary[2] ?? '').trim()}--`) : null
+  if (!close || !body || body.indexOf(close) === -1) {
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${part}: the upload ended before its closing boundary (cut short); nothing was stored, send it again` })
+  }
+}
+
+/**
  * Reads a multipart/form-data upload with one file part: 415 when the request is not multipart,
  * 413 when Content-Length or the file itself is over `maxBytes`, 400 naming the part when it is
- * missing or empty. Text parts come back as `fields`.
+ * missing or empty, or when the body was cut short. Text parts come back as `fields`.
  */
 export async function readUpload(event: H3Event, maxBytes: number, part = 'file') {
   const type = getRequestHeader(event, 'content-type') ?? ''
@@ -32,6 +46,7 @@ export async function readUpload(event: H3Event, maxBytes: number, part = 'file'
   if (!file) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${part}: is required (a file part named "${part}")` })
   if (file.data.length === 0) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${part}: is empty (0 bytes)` })
   if (file.data.length > maxBytes) throw tooLarge(part, maxBytes)
+  await requireWholeBody(event, type, part)
   const fields: Record<string, string> = {}
   for (const p of parts) {
     if (p !== file && p.name && p.filename === undefined) fields[p.name] = p.data.toString('utf8')
