@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, inject, it } from 'vitest'
 import { Client, GOOD_PASSWORD, signUp, uniqueEmail } from './client'
 import { daysAgo, lastOutboxId, makePeople, outboxSince, siteWithAssessment, testDb, tokenFromMail } from './review-helpers'
 
@@ -118,6 +118,9 @@ describe('opening and accepting an invitation', () => {
     expect(twice.status).toBe(410)
     expect(twice.body.message).toMatch(/already been used/)
     expect((await new Client().get(`/api/invitations/${token}`)).status).toBe(410)
+    // The page at a used or unknown link answers with the same status as the API.
+    expect((await fetch(`${inject('baseURL')}/invitations/${token}`, { headers: { accept: 'text/html' } })).status).toBe(410)
+    expect((await fetch(`${inject('baseURL')}/invitations/not-a-real-invitation-token`, { headers: { accept: 'text/html' } })).status).toBe(404)
     const list = await team.admin.client.get(`/api/orgs/${team.orgId}/invitations?state=accepted`)
     expect(list.body.invitations.find((i: { id: number }) => i.id === invitation.id).state).toBe('accepted')
   })

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, inject, it } from 'vitest'
 import { Client } from './client'
 import { createAssessment, createOption } from './options-helpers'
 import { daysAgo, makePeople, siteWithAssessment, testDb } from './review-helpers'
@@ -155,6 +155,13 @@ describe('the public summary', () => {
     }
     expect(new Set(answers).size).toBe(1)
     expect(answers[0]).toMatch(/does not work/)
+    // The page at such a link is a 404 for the browser too, and the neutral page names nothing.
+    for (const token of ['AAAAAAAAAAAAAAAAAAAAAA', revoked.token]) {
+      const page = await fetch(`${inject('baseURL')}/s/${token}`, { headers: { accept: 'text/html' } })
+      expect(page.status, token.slice(0, 8)).toBe(404)
+      expect(await page.text()).toContain('data-testid="summary-unavailable"')
+    }
+    expect((await fetch(`${inject('baseURL')}/s/${link.token}`, { headers: { accept: 'text/html' } })).status).toBe(200)
   })
 
   it('stops working when its site is deleted', async () => {
