@@ -19,9 +19,9 @@ export function expectRefusal(status: number) {
   provoked.set(status, (provoked.get(status) ?? 0) + 1)
 }
 
-/** Refusals announced with `expectRefusal` that the browser never logged (empty when all were seen). */
-export function unseenRefusals(): number[] {
-  return [...provoked.values()].filter((n) => n > 0)
+/** Refusals announced with `expectRefusal` that the browser never logged, as "status ×count" (empty when all were seen). */
+export function unseenRefusals(): string[] {
+  return [...provoked].filter(([, n]) => n > 0).map(([status, n]) => `${status} ×${n}`)
 }
 
 /** True (and counted off) when a console line is the browser's log of a refusal provoked on purpose. */
@@ -80,4 +80,30 @@ export async function signIn(page: Page, email: string, password = PASSWORD) {
   await page.fill('#f-password', password)
   await page.click('[data-testid=sign-in-form] button[type=submit]')
   await page.waitForSelector('[data-testid=site-table] tbody tr')
+}
+
+/**
+ * Waits until the first canvas inside `selector` has at least `min` painted (not fully transparent)
+ * pixels and answers how many it has: a chart that mounted but drew nothing never passes.
+ */
+export async function waitForChart(page: Page, selector: string, min = 500): Promise<number> {
+  const handle = await page.waitForFunction(
+    ({ canvas, min }) => {
+      const el = document.querySelector(canvas) as HTMLCanvasElement | null
+      if (!el || el.width === 0 || el.height === 0) return false
+      // Read a copy, so the chart's own canvas is never read back (Chrome warns when one is read often).
+      const copy = document.createElement('canvas')
+      copy.width = el.width
+      copy.height = el.height
+      const ctx = copy.getContext('2d', { willReadFrequently: true })
+      if (!ctx) return false
+      ctx.drawImage(el, 0, 0)
+      const data = ctx.getImageData(0, 0, copy.width, copy.height).data
+      let n = 0
+      for (let i = 3; i < data.length; i += 4) if (data[i]! > 0) n++
+      return n >= min ? n : false
+    },
+    { canvas: `${selector} canvas`, min },
+  )
+  return (await handle.jsonValue()) as number
 }
