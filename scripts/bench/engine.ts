@@ -8,7 +8,7 @@ const DAYS = 36_525
 const RUNS = 40
 
 /** An invented, deterministic century of daily flows: a seasonal curve times a slow random walk. */
-function century(): { date: string; flow: number | null }[] {
+export function century(): { date: string; flow: number | null }[] {
   const out: { date: string; flow: number | null }[] = []
   const start = Date.UTC(1925, 0, 1)
   let walk = 1

@@ -7,6 +7,8 @@ export interface BenchFigure {
   unit: string
   target: string
   pass: boolean
+  /** Shown instead of `value` with its unit, for figures that are a word (e.g. "no"). */
+  display?: string
 }
 
 /** Milliseconds of each of `runs` calls, after a few warm-up calls. */
@@ -16,6 +18,18 @@ export function timeRuns(runs: number, fn: () => void): number[] {
   for (let i = 0; i < runs; i++) {
     const t = performance.now()
     fn()
+    out.push(performance.now() - t)
+  }
+  return out
+}
+
+/** Milliseconds of each of `runs` awaited calls, after `warmUp` calls. */
+export async function timeAsync(runs: number, fn: () => Promise<unknown>, warmUp = 5): Promise<number[]> {
+  for (let i = 0; i < warmUp; i++) await fn()
+  const out: number[] = []
+  for (let i = 0; i < runs; i++) {
+    const t = performance.now()
+    await fn()
     out.push(performance.now() - t)
   }
   return out
