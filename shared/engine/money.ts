@@ -95,7 +95,7 @@ export function annuityFactor(discountRate: number, lifeYears: number): number {
   return 1 / capitalRecoveryFactor(discountRate, lifeYears)
 }
 
-/** LCOE = (capex · CRF + opex) / annual energy, currency/MWh; null when energy is 0 (levelised cost of energy, annuity form). */
+/** LCOE = (capex · CRF + opex) / annual energy, currency/MWh; null when energy is 0, or so near 0 that the cost per MWh overflows (levelised cost of energy, annuity form). */
 export function lcoe(
   capexValue: number,
   opexPerYear: number,
@@ -107,7 +107,9 @@ export function lcoe(
   const o = checkNumber(opexPerYear, 'opexPerYear', { min: 0 })
   const e = checkNumber(annualEnergyMWh, 'annualEnergyMWh', { min: 0 })
   const crf = capitalRecoveryFactor(discountRate, lifeYears)
-  return e === 0 ? null : (c * crf + o) / e
+  if (e === 0) return null
+  const perMWh = (c * crf + o) / e
+  return Number.isFinite(perMWh) ? perMWh : null
 }
 
 /** NPV = −capex + (E · price − opex) · Σ_{t=1..n} (1+i)^−t, end-of-year cash flows (discounted cash flow). */

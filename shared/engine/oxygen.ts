@@ -103,7 +103,9 @@ export function fieldTransfer(f: FieldTransferInput): TransferResult {
   const cStar20 = oxygenSaturation(20, P_STD + (f.rho * G * Math.max(0, f.submergence_m)) / 2, f.salinity_gkg) * 1e-3
   const sote = Math.min(1, Math.max(0, f.sotePerMetre * f.submergence_m))
   const sotr = sote * oxygenSupply(f.airMassFlow_kgs)
-  const phi = cStar20 > 0 ? (sotr * f.alpha * f.theta ** (f.tC - 20)) / (cStar20 * f.unitFlow_m3s) : 0
+  // A unit flow so small that C*₂₀·Q underflows to 0 takes up no oxygen (and would give 0/0 = NaN).
+  const carried = cStar20 * f.unitFlow_m3s
+  const phi = carried > 0 ? (sotr * f.alpha * f.theta ** (f.tC - 20)) / carried : 0
   const cOut = exponentialApproach(cStar, f.cIn_mgL, phi)
   return {
     cStar_mgL: cStar, cOut_mgL: cOut, exponent: phi, fractionApproached: 1 - Math.exp(-phi),

@@ -1,6 +1,7 @@
 // Design sweep: throat diameter × number of units × submergence, and the best option that keeps every safety flag clear.
 import type { AssessInput, SweepGrid } from '../schemas/assess'
 import { assess, type FlagId } from './assess'
+import { EngineInputError } from './errors'
 
 /** One point of a sweep. */
 export interface SweepPoint {
@@ -32,6 +33,9 @@ export interface SweepResult {
 /** Replace the throat diameter (outlet scaled to keep the area ratio), units and submergence of an input. */
 export function withDesign(input: AssessInput, throatDiameter_m: number, units: number, throatDepth_m: number): AssessInput {
   const scale = throatDiameter_m / input.option.throatDiameter_m
+  if (!Number.isFinite(input.option.outletDiameter_m * scale)) {
+    throw new EngineInputError('option.throatDiameter_m', 'is too small to scale the outlet from for the sweep')
+  }
   return {
     ...input,
     option: {

@@ -85,11 +85,12 @@ export function cavitationMargin(p_atm: number, p_v: number, rho: number, suctio
   return (p_atm - p_v) / (rho * G) - suction_m
 }
 
-/** Throat cavitation index σ = (p_t,abs − p_v)/(½ρV_t²) with p_t,abs = p_atm − ρgs (classical definition, Knapp, Daily & Hammitt 1970); null when V_t = 0. */
+/** Throat cavitation index σ = (p_t,abs − p_v)/(½ρV_t²) with p_t,abs = p_atm − ρgs (classical definition, Knapp, Daily & Hammitt 1970); null when V_t = 0, or so near 0 that σ overflows. */
 export function cavitationIndex(p_atm: number, p_v: number, rho: number, suction_m: number, V_t: number): number | null {
   const dyn = 0.5 * rho * V_t * V_t
   if (!(dyn > 0)) return null
-  return (p_atm - rho * G * suction_m - p_v) / dyn
+  const sigma = (p_atm - rho * G * suction_m - p_v) / dyn
+  return Number.isFinite(sigma) ? sigma : null
 }
 
 /** Fraction of the throat differential recovered downstream, η_d(1 − r²)/(1 + k_in − r²), for an upstream pipe of the outlet's area (ISO 5167-4 view of a venturi in a pipe). */
@@ -123,10 +124,17 @@ export interface HeadPoint {
   head_m: number
 }
 
+/** True when each row's flow is at least the one before (NaN never is, so such a table is sorted as before). */
+function sortedByFlow(table: ReadonlyArray<HeadPoint>): boolean {
+  for (let i = 1; i < table.length; i++) if (!((table[i - 1] as HeadPoint).flow_m3s <= (table[i] as HeadPoint).flow_m3s)) return false
+  return true
+}
+
 /** Gross head at a river flow by linear interpolation in a head-vs-flow table, held flat beyond its ends (ENGINE §2). */
 export function headAtFlow(table: ReadonlyArray<HeadPoint>, flow_m3s: number, fallback_m: number): number {
   if (table.length === 0) return Math.max(0, fallback_m)
-  const pts = [...table].sort((a, b) => a.flow_m3s - b.flow_m3s)
+  // A table already in order (the engine sorts its table once) is used as it is: a stable sort would leave it unchanged.
+  const pts = sortedByFlow(table) ? table : [...table].sort((a, b) => a.flow_m3s - b.flow_m3s)
   const first = pts[0] as HeadPoint
   const last = pts[pts.length - 1] as HeadPoint
   if (flow_m3s <= first.flow_m3s) return Math.max(0, first.head_m)

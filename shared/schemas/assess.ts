@@ -8,6 +8,26 @@ const num = z.number({ error: 'must be a number' })
 const nonNegative = num.min(0, 'must be 0 or more')
 const positive = num.positive('must be more than 0')
 const fraction = num.min(0, 'must be between 0 and 1').max(1, 'must be between 0 and 1')
+/** Largest river flow accepted, m³/s: far above any river's (as the flow-record upload, server/utils/flowCsv.ts). */
+export const MAX_FLOW_M3S = 1_000_000
+const flow = nonNegative.max(MAX_FLOW_M3S, `must be ${MAX_FLOW_M3S.toLocaleString('en-GB')} m³/s or less`)
+/** Largest amount of money accepted for a cost, in the option's currency. */
+export const MAX_AMOUNT = 1e12
+const amount = nonNegative.max(MAX_AMOUNT, `must be ${MAX_AMOUNT.toLocaleString('en-GB')} or less`)
+/** Largest catchment area accepted, km². */
+const MAX_AREA_KM2 = 1_000_000
+/** Largest ratio of site to gauge catchment area, either way, for the area-ratio method (far past any sensible use). */
+export const MAX_AREA_RATIO = 1000
+
+/**
+ * Why a site and gauge catchment pair cannot scale flows by their ratio, naming the smaller area
+ * (the one too small next to the other), or null when it can.
+ */
+export function areaRatioProblem(siteArea: number, gaugeArea: number): { area: 'site' | 'gauge'; message: string } | null {
+  if (siteArea / gaugeArea > MAX_AREA_RATIO) return { area: 'gauge', message: `must be at least 1/${MAX_AREA_RATIO} of the site area for the area-ratio method` }
+  if (gaugeArea / siteArea > MAX_AREA_RATIO) return { area: 'site', message: `must be at least 1/${MAX_AREA_RATIO} of the gauge area for the area-ratio method` }
+  return null
+}
 const d = <K extends keyof typeof DEFAULTS>(k: K): number => DEFAULTS[k].value
 
 const WATER_QUALITY = Object.keys(WATER_QUALITY_A) as [WaterQualityClass, ...WaterQualityClass[]]
@@ -18,19 +38,19 @@ export const MonthInputSchema = z.object({
   temperature_C: num.min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
   upstreamOxygen_mgL: num.min(0, 'must be 0 or more').max(30, 'must be 30 mg/L or less'),
   /** Month's flow, used with an entered FDC (a record gives its own). */
-  flow_m3s: nonNegative.optional(),
+  flow_m3s: flow.optional(),
 })
 
 /** One entered FDC point, exceedance in % of time. */
 export const FdcPointSchema = z.object({
   exceedance: num.min(0).max(100, 'must be 100 % or less'),
-  flow: nonNegative,
+  flow,
 })
 
 /** One day of a gauged record; null flow marks a gap. */
 export const DailyFlowSchema = z.object({
   date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD'),
-  flow: nonNegative.nullable(),
+  flow: flow.nullable(),
 })
 
 /** Hydrology: entered FDC points or a daily record, optionally scaled from a gauge by catchment area. */
@@ -53,13 +73,16 @@ export const HydrologyInputSchema = z.discriminatedUnion('kind', [
 
 /** Catchment areas for the area-ratio method. */
 export const GaugeScalingSchema = z.object({
-  siteArea_km2: positive,
-  gaugeArea_km2: positive,
+  siteArea_km2: positive.max(MAX_AREA_KM2, 'is too large'),
+  gaugeArea_km2: positive.max(MAX_AREA_KM2, 'is too large'),
+}).superRefine((a, ctx) => {
+  const problem = areaRatioProblem(a.siteArea_km2, a.gaugeArea_km2)
+  if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteArea_km2' : 'gaugeArea_km2'], message: problem.message })
 })
 
 /** Reserved (hands-off) flow: fixed, or the flow at a named exceedance. */
 export const ReservedFlowInputSchema = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('fixed'), flow: nonNegative }),
+  z.object({ kind: z.literal('fixed'), flow }),
   z.object({ kind: z.literal('percentile'), exceedance: num.min(0).max(100) }),
 ])
 
@@ -69,7 +92,7 @@ export const SiteInputSchema = z.object({
   /** Gross head at the weir (head pool to tail pool) at ordinary flows, m. */
   grossHead_m: nonNegative.max(30, 'must be 30 m or less'),
   /** Gross head against river flow where the tailwater rises in floods. */
-  headTable: z.array(z.object({ flow_m3s: nonNegative, head_m: nonNegative.max(30) })).max(50).default([]),
+  headTable: z.array(z.object({ flow_m3s: flow, head_m: nonNegative.max(30) })).max(50).default([]),
   salinity_gkg: nonNegative.max(40).default(d('salinity')),
   months: z.array(MonthInputSchema).length(12, 'needs 12 months, January first'),
   waterQuality: z.enum(WATER_QUALITY).default('clean'),
@@ -97,9 +120,9 @@ export const TurbineInputSchema = z.object({
 
 /** Costs of an option (all defaults illustrative). */
 export const CostInputSchema = z.object({
-  fixedCost: nonNegative.default(MONEY_DEFAULTS.fixedCost.value),
-  costPerKw: nonNegative.default(MONEY_DEFAULTS.costPerKw.value),
-  civilsPerUnit: nonNegative.default(MONEY_DEFAULTS.civilsPerUnit.value),
+  fixedCost: amount.default(MONEY_DEFAULTS.fixedCost.value),
+  costPerKw: amount.default(MONEY_DEFAULTS.costPerKw.value),
+  civilsPerUnit: amount.default(MONEY_DEFAULTS.civilsPerUnit.value),
 })
 
 /** One design option. */
@@ -143,9 +166,9 @@ export const SettingsInputSchema = z.object({
   airTemperatureOffset_K: num.min(-30).max(30).default(d('airTemperatureOffset')),
   oxygenMethod: z.enum(['field-transfer', 'bubble-contact']).default('field-transfer'),
   discountRate: num.min(0).max(0.5).default(MONEY_DEFAULTS.discountRate.value),
-  lifeYears: positive.max(100).default(MONEY_DEFAULTS.lifeYears.value),
+  lifeYears: num.min(1, 'must be 1 year or more').max(100).default(MONEY_DEFAULTS.lifeYears.value),
   opexFraction: fraction.default(MONEY_DEFAULTS.opexFraction.value),
-  exportPrice: nonNegative.default(MONEY_DEFAULTS.exportPrice.value),
+  exportPrice: amount.default(MONEY_DEFAULTS.exportPrice.value),
   gridFactor: nonNegative.max(2).default(MONEY_DEFAULTS.gridFactor.value),
 })
 

@@ -3,11 +3,14 @@
 // and the site forms. Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
+import { MAX_FLOW_M3S, areaRatioProblem } from './assess'
 import { IdSchema, NameSchema } from './common'
 
 const num = z.number({ error: 'must be a number' })
 const nonNegative = num.min(0, 'must be 0 or more')
 const positive = num.positive('must be more than 0')
+/** A river flow, m³/s, at most MAX_FLOW_M3S (the engine's limit, and the flow-record upload's). */
+const flow = nonNegative.max(MAX_FLOW_M3S, `must be ${MAX_FLOW_M3S.toLocaleString('en-GB')} m³/s or less`)
 
 // ——— classes and limits ———
 
@@ -74,7 +77,7 @@ export const WeirSchema = z.object({
 /** One row of the gross head against river flow (tailwater rises in floods). */
 export const HeadRowSchema = z.object({
   /** River flow, m³/s. */
-  flow: nonNegative,
+  flow,
   /** Gross head at that flow, m. */
   head: nonNegative.max(MAX_GROSS_HEAD_M, `must be ${MAX_GROSS_HEAD_M} m or less`),
 })
@@ -94,7 +97,7 @@ export const HeadTableSchema = z
 export const ReservedFlowSchema = z.discriminatedUnion(
   'kind',
   [
-    z.object({ kind: z.literal('fixed'), flow: nonNegative }),
+    z.object({ kind: z.literal('fixed'), flow }),
     z.object({ kind: z.literal('percentile'), exceedance: num.min(0, 'must be between 0 and 100').max(100, 'must be between 0 and 100') }),
   ],
   { error: "must be 'fixed' or 'percentile'" },
@@ -124,12 +127,15 @@ export const MonthsSchema = z.array(MonthSchema).length(12, 'needs 12 months, Ja
 export const CatchmentSchema = z.object({
   siteAreaKm2: positive.max(1_000_000, 'is too large'),
   gaugeAreaKm2: positive.max(1_000_000, 'is too large'),
+}).superRefine((c, ctx) => {
+  const problem = areaRatioProblem(c.siteAreaKm2, c.gaugeAreaKm2)
+  if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: problem.message })
 })
 
 /** One entered FDC point: the flow equalled or exceeded `exceedance` % of the time. */
 export const FdcPointSchema = z.object({
   exceedance: num.min(0, 'must be between 0 and 100').max(100, 'must be between 0 and 100'),
-  flow: nonNegative,
+  flow,
 })
 
 /** Entered FDC: empty, or at least 3 points by rising exceedance with flow never rising. Errors name the row (`fdcPoints.3.flow`). */
@@ -368,6 +374,8 @@ export const FlowRecordFormSchema = z
     if ((f.siteAreaKm2 === undefined) !== (f.gaugeAreaKm2 === undefined)) {
       ctx.addIssue({ code: 'custom', path: [f.siteAreaKm2 === undefined ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: 'give both catchment areas, or neither' })
     }
+    const problem = f.siteAreaKm2 !== undefined && f.gaugeAreaKm2 !== undefined ? areaRatioProblem(f.siteAreaKm2, f.gaugeAreaKm2) : null
+    if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: problem.message })
   })
 export type FlowRecordForm = z.infer<typeof FlowRecordFormSchema>
 

@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const { user, site, option } = await requireOption(event, id, EDITOR_ROLES)
   const body = await readValidatedBody(event, validator(SweepSaveSchema, 'body'))
   const input = await assessmentInputFor(site, option)
-  const moved = withDesign(input, body.throatDiameter_m, body.units, body.throatDepth_m).option
+  const moved = runEngine(() => withDesign(input, body.throatDiameter_m, body.units, body.throatDepth_m)).option
   const checked = EngineOptionSchema.safeParse(moved)
   if (!checked.success) {
     const issue = checked.error.issues[0]!
