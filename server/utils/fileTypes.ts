@@ -21,3 +21,28 @@ export function contentDisposition(kind: 'inline' | 'attachment', fileName: stri
   const encoded = encodeURIComponent(fileName).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`)
   return `${kind}; filename="${fallback}"; filename*=UTF-8''${encoded}`
 }
+
+/** File-name endings that belong to each attachment type; the first is added when a name lacks one. */
+const EXTENSIONS: Record<AttachmentType, readonly string[]> = {
+  'image/jpeg': ['.jpg', '.jpeg'],
+  'image/png': ['.png'],
+  'image/webp': ['.webp'],
+  'application/pdf': ['.pdf'],
+}
+
+/** Raster images a browser shows inline without running anything; PDFs (viewers may script them) download. */
+const INLINE_TYPES: ReadonlySet<string> = new Set<AttachmentType>(['image/jpeg', 'image/png', 'image/webp'])
+
+/**
+ * How a stored file is served, decided from its bytes alone: the sniffed type (anything unknown is
+ * `application/octet-stream`), `inline` only for the raster images, and a download name that ends
+ * in the real type's extension, so "survey.html" holding a PNG saves as "survey.html.png" and never
+ * opens as a page from disk.
+ */
+export function servedAs(bytes: Uint8Array, originalName: string): { contentType: string; disposition: string } {
+  const type = sniffAttachmentType(bytes)
+  if (!type) return { contentType: 'application/octet-stream', disposition: contentDisposition('attachment', `${originalName}.bin`) }
+  const endings = EXTENSIONS[type]
+  const name = endings.some((e) => originalName.toLowerCase().endsWith(e)) ? originalName : `${originalName}${endings[0]}`
+  return { contentType: type, disposition: contentDisposition(INLINE_TYPES.has(type) ? 'inline' : 'attachment', name) }
+}
