@@ -83,9 +83,10 @@ export function expectSafe(res: Reply, label: string): void {
 }
 
 /**
- * True when h3 refuses a JSON body itself, before the route sees it, with the bare message "Invalid
- * JSON body": it reads bodies with destr in strict mode, which refuses a `__proto__` or `constructor`
- * key anywhere (prototype pollution) and a bare number of more than 16 digits (node_modules/destr).
+ * True when h3 refuses a JSON body itself, before any route sees it: it reads bodies with destr in
+ * strict mode, which refuses a `__proto__` or `constructor` key anywhere (prototype pollution) and a
+ * bare number of more than 16 digits (node_modules/destr). server/middleware/01.json-body.ts then
+ * answers with a message naming the body.
  */
 export function h3RefusesJson(text: string): boolean {
   if (['true', 'false', 'null'].includes(text.trim())) return false
@@ -94,12 +95,12 @@ export function h3RefusesJson(text: string): boolean {
 
 /**
  * A refused input: 400 whose message starts with the field it names (`assessmentId: …`); for a body
- * h3 refuses before the route (see h3RefusesJson) there is no field to name, and the message is h3's.
+ * h3 refuses before the route (see h3RefusesJson) the field named is the body itself.
  */
 export function expectFieldRefusal(res: Reply, label: string, body?: unknown): void {
   expectSafe(res, label)
   expect(res.status, `${label} → ${JSON.stringify(res.body)?.slice(0, 400)}`).toBe(400)
-  if (body !== undefined && h3RefusesJson(JSON.stringify(body))) expect(res.body.message, label).toBe('Invalid JSON body')
+  if (body !== undefined && h3RefusesJson(JSON.stringify(body))) expect(res.body.message, label).toMatch(/^body: is not valid JSON/)
   else expect(res.body.message, label).toMatch(/^[\w.-]+: \S/)
 }
 

@@ -42,3 +42,17 @@ describe('hostile request bodies', () => {
     expect(me.body.memberships.find((m: { orgId: number }) => m.orgId === orgId).role).toBe('admin')
   })
 })
+
+describe('bodies that are not JSON at all', () => {
+  it('are refused with a 400 naming the body, before any route reads them', async () => {
+    const client = new Client()
+    for (const text of ['{"email": ', '{"__proto__": {"admin": true}, "email": "a@b.example"}', '{"constructor": {"prototype": {}}}', '12345678901234567890']) {
+      const res = await client.request('POST', '/api/auth/login', text)
+      expect(res.status, text).toBe(400)
+      expect(res.body.message, text).toMatch(/^body: is not valid JSON/)
+    }
+    // A good body still reaches the route, whose own checks answer.
+    const good = await client.request('POST', '/api/auth/login', JSON.stringify({ email: 'nobody@nowhere.example', password: 'wrong-password-123' }))
+    expect(good.status).toBe(401)
+  })
+})
