@@ -19,6 +19,14 @@ export function useLeafletReady() {
   })
   onBeforeUnmount(() => {
     mounted = false
+    lastTeardown = performance.now()
   })
   return ready
+}
+
+let lastTeardown = Number.NEGATIVE_INFINITY
+
+/** True within a second after a map frame was torn down (see plugins/leafletTeardown.client.ts). */
+export function mapJustTornDown(): boolean {
+  return performance.now() - lastTeardown < 1000
 }

@@ -49,6 +49,18 @@ async function engineerJourney(browser: Browser) {
   await page.locator('[data-testid=site-table] tbody tr', { hasText: SITE }).locator('a').first().click()
   await page.waitForURL(/\/sites\/\d+$/)
   const siteId = Number(new URL(page.url()).pathname.split('/').pop())
+  // Tabs switched before the overview's map has finished drawing raise no error: a map torn down
+  // while Leaflet was still building it is quietly let go (plugins/leafletTeardown.client.ts).
+  for (let i = 0; i < 4; i++) {
+    await page.goto(`${BASE}/sites/${siteId}`)
+    await page.click('[data-testid=tab-options]')
+    await page.waitForTimeout(300)
+    await page.click('[data-testid=tab-overview]')
+    await page.waitForTimeout(100 * i)
+    await page.click('[data-testid=tab-options]')
+    await page.waitForSelector('[data-testid=option-list] tbody tr')
+  }
+  await page.click('[data-testid=tab-overview]')
   // The overview's map is built before the tab changes (as a person would see it drawn first).
   await page.waitForSelector('[data-testid=site-overview-form] .leaflet-container .leaflet-marker-icon')
   await page.click('[data-testid=tab-options]')
