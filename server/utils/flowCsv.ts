@@ -175,6 +175,31 @@ interface RawRow {
 
 /** Rows of the text with the line each starts on; blank lines and `#` comments left out. */
 function readRows(text: string, delimiter: string): RawRow[] {
+  return text.includes('"') ? readQuotedRows(text, delimiter) : readPlainRows(text, delimiter)
+}
+
+/**
+ * A text without a quote character: papaparse parses it whole in its fast mode, which splits on line
+ * ends and then on the delimiter, so data row i is line i + 1 and no line needs counting. A `#` comment
+ * (a line starting with `#`, as papaparse's `comments` option reads it) is a row whose first cell starts so.
+ */
+function readPlainRows(text: string, delimiter: string): RawRow[] {
+  const { data } = Papa.parse<string[]>(text, { delimiter, newline: '\n', skipEmptyLines: false, comments: false })
+  const rows: RawRow[] = []
+  for (let i = 0; i < data.length; i++) {
+    const cells = data[i]!
+    const first = cells[0] ?? ''
+    if (first.charCodeAt(0) === 35 /* # */ || (cells.length === 1 && first.trim() === '')) continue
+    rows.push({ cells, line: i + 1 })
+  }
+  return rows
+}
+
+/**
+ * A text with quoted fields, which may hold line breaks: papaparse row by row, each row's line worked
+ * out from where it ends (line breaks up to there, less those inside its cells).
+ */
+function readQuotedRows(text: string, delimiter: string): RawRow[] {
   const rows: RawRow[] = []
   let scanned = 0
   let newlines = 0
@@ -187,16 +212,86 @@ function readRows(text: string, delimiter: string): RawRow[] {
       const cells = result.data
       const end = result.meta.cursor
       const contentEnd = text[end - 1] === '\n' ? end - 1 : end
-      for (let i = scanned; i < contentEnd; i++) if (text.charCodeAt(i) === 10) newlines++
-      scanned = contentEnd
+      for (let i = text.indexOf('\n', scanned); i !== -1 && i < contentEnd; i = text.indexOf('\n', i + 1)) newlines++
+      if (contentEnd > scanned) scanned = contentEnd
       let inside = 0
-      for (const c of cells) for (let i = 0; i < c.length; i++) if (c.charCodeAt(i) === 10) inside++
+      for (const c of cells) {
+        if (!c.includes('\n')) continue
+        for (let i = c.indexOf('\n'); i !== -1; i = c.indexOf('\n', i + 1)) inside++
+      }
       const line = newlines + 1 - inside
       if (cells.length === 1 && cells[0]!.trim() === '') return
       rows.push({ cells, line })
     },
   })
   return rows
+}
+
+/** The first line that is neither blank nor a `#` comment, or '' (without splitting the whole text). */
+function firstContentLine(text: string): string {
+  for (let start = 0; start <= text.length; ) {
+    const nl = text.indexOf('\n', start)
+    const end = nl === -1 ? text.length : nl
+    const line = text.slice(start, end)
+    if (line.trim() !== '' && !line.trimStart().startsWith('#')) return line
+    start = end + 1
+  }
+  return ''
+}
+
+/** The number written by the ASCII digits t[from..to), or -1 when any is not a digit. */
+function digitsAt(t: string, from: number, to: number): number {
+  let n = 0
+  for (let i = from; i < to; i++) {
+    const c = t.charCodeAt(i) - 48
+    if (c < 0 || c > 9) return -1
+    n = n * 10 + c
+  }
+  return n
+}
+
+/**
+ * A date cell already in its plainest form, `YYYY-MM-DD` or `DD/MM/YYYY` (`.` or `-` alike) with no
+ * time and no space, and a real calendar day: its YYYY-MM-DD; null sends it to parseDay, which
+ * reads every other form and words every error.
+ */
+function plainDay(t: string, format: CsvDateFormat): string | null {
+  if (t.length !== 10) return null
+  let y: number, m: number, d: number
+  if (format === 'iso') {
+    if (t.charCodeAt(4) !== 45 || t.charCodeAt(7) !== 45) return null
+    ;[y, m, d] = [digitsAt(t, 0, 4), digitsAt(t, 5, 7), digitsAt(t, 8, 10)]
+  } else {
+    const sep = t.charCodeAt(2)
+    if ((sep !== 47 && sep !== 46 && sep !== 45) || t.charCodeAt(5) !== sep) return null
+    ;[d, m, y] = [digitsAt(t, 0, 2), digitsAt(t, 3, 5), digitsAt(t, 6, 10)]
+  }
+  if (y < 1800 || y > 2200 || m < 1 || m > 12 || d < 1 || d > daysIn(y, m)) return null
+  return format === 'iso' ? t : `${t.slice(6, 10)}-${t.slice(3, 5)}-${t.slice(0, 2)}`
+}
+
+/**
+ * A flow cell that is blank (a gap: null) or a plain unsigned decimal (`12`, `3.25`, `.5`; `2,5` in a
+ * semicolon file) no larger than MAX_PLAUSIBLE_FLOW; undefined sends it to parseFlowCell, which
+ * reads every other form (spaces, signs, exponents, gap words, flags) and words every error.
+ */
+function plainFlow(t: string, decimalComma: boolean): number | null | undefined {
+  if (t.length === 0) return null
+  let digits = 0
+  let points = 0
+  let comma = -1
+  for (let i = 0; i < t.length; i++) {
+    const c = t.charCodeAt(i)
+    if (c >= 48 && c <= 57) digits++
+    else if (c === 46) points++
+    else if (c === 44 && decimalComma) {
+      points++
+      comma = i
+    } else return undefined
+  }
+  if (digits === 0 || points > 1) return undefined
+  const q = Number(comma < 0 ? t : `${t.slice(0, comma)}.${t.slice(comma + 1)}`)
+  return q <= MAX_PLAUSIBLE_FLOW ? q : undefined
 }
 
 function findColumn(header: string[], wanted: string | undefined): number {
@@ -207,9 +302,10 @@ function findColumn(header: string[], wanted: string | undefined): number {
 
 /** Reads a whole daily flow record; every bad line is reported, nothing is partly accepted. */
 export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): FlowCsvResult {
-  const text = rawText.replace(/\r\n?/g, '\n')
-  const firstLine = text.split('\n').find((l) => l.trim() !== '' && !l.trimStart().startsWith('#')) ?? ''
-  const delimiter = pickDelimiter(firstLine)
+  let text = rawText.includes('\r') ? rawText.replace(/\r\n?/g, '\n') : rawText
+  // papaparse drops a BOM before parsing; dropped here too, its row ends and this text stay in step.
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1)
+  const delimiter = pickDelimiter(firstContentLine(text))
   const rows = readRows(text, delimiter)
   const headerRow = rows[0]
   if (!headerRow) return { ok: false, kind: 'lines', errors: [{ line: 1, reason: 'the file has no lines' }], message: 'file: has no lines' }
@@ -265,7 +361,13 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   const decimalComma = delimiter === ';'
   const needed = Math.max(dateIdx, flowIdx) + 1
   const errors: CsvLineError[] = []
-  const seen = new Map<string, number>()
+  // Each day's first line. While the days come in order (the usual file) a day later than the latest
+  // so far cannot repeat one, so the map is only built, from these lists, once a day comes out of order.
+  const seenDays: string[] = []
+  const seenLines: number[] = []
+  let seen: Map<string, number> | null = null
+  let inOrder = true
+  let latest = ''
   const days: ParsedDay[] = []
   let gaps = 0
   let flagged = 0
@@ -274,31 +376,56 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
       errors.push({ line, reason: `the line has ${cells.length} field${cells.length === 1 ? '' : 's'}; the header has ${header.length}` })
       continue
     }
-    const reasons: string[] = []
-    const parsedDate = parseDay(cells[dateIdx]!, format)
-    let date: string | null = null
-    if ('error' in parsedDate) reasons.push(parsedDate.error)
-    else {
-      date = parsedDate.date
-      const before = seen.get(date)
-      if (before !== undefined) reasons.push(`day ${date} is given twice (first on line ${before})`)
-      else if (options.existingDays?.has(date)) reasons.push(`day ${date} is already stored; append adds new days only`)
-      else seen.set(date, line)
+    let dateReason: string | null = null
+    let date = plainDay(cells[dateIdx]!, format)
+    if (date === null) {
+      const parsedDate = parseDay(cells[dateIdx]!, format)
+      if ('error' in parsedDate) dateReason = parsedDate.error
+      else date = parsedDate.date
     }
-    const parsedFlow = parseFlowCell(cells[flowIdx]!, decimalComma)
-    let flow: number | null = null
+    if (date !== null) {
+      let before: number | undefined
+      if (!inOrder || date <= latest) {
+        if (!seen) {
+          seen = new Map()
+          for (let i = 0; i < seenDays.length; i++) seen.set(seenDays[i]!, seenLines[i]!)
+        }
+        before = seen.get(date)
+      }
+      if (before !== undefined) dateReason = `day ${date} is given twice (first on line ${before})`
+      else if (options.existingDays?.has(date)) dateReason = `day ${date} is already stored; append adds new days only`
+      else {
+        if (seen) seen.set(date, line)
+        else {
+          seenDays.push(date)
+          seenLines.push(line)
+        }
+        if (inOrder && date > latest) latest = date
+        else inOrder = false
+      }
+    }
+    let flowReason: string | null = null
+    let flow = plainFlow(cells[flowIdx]!, decimalComma)
     let isFlagged = false
-    if ('error' in parsedFlow) reasons.push(parsedFlow.error)
-    else {
-      flow = parsedFlow.flow
-      isFlagged = parsedFlow.flagged
+    if (flow === undefined) {
+      const parsedFlow = parseFlowCell(cells[flowIdx]!, decimalComma)
+      if ('error' in parsedFlow) {
+        flowReason = parsedFlow.error
+        flow = null
+      } else {
+        flow = parsedFlow.flow
+        isFlagged = parsedFlow.flagged
+      }
     }
-    if (flagIdx >= 0 && flow !== null && !GOOD_FLAGS.has((cells[flagIdx] ?? '').trim().toLowerCase())) {
-      flow = null
-      isFlagged = true
+    if (flagIdx >= 0 && flow !== null) {
+      const flag = cells[flagIdx] ?? ''
+      if (flag !== '' && !GOOD_FLAGS.has(flag.trim().toLowerCase())) {
+        flow = null
+        isFlagged = true
+      }
     }
-    if (reasons.length) {
-      errors.push({ line, reason: reasons.join('; ') })
+    if (dateReason !== null || flowReason !== null) {
+      errors.push({ line, reason: dateReason !== null && flowReason !== null ? `${dateReason}; ${flowReason}` : (dateReason ?? flowReason)! })
       continue
     }
     if (flow === null) gaps++
@@ -310,7 +437,8 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
     const more = errors.length > 1 ? ` (and ${errors.length - 1} more line${errors.length > 2 ? 's' : ''})` : ''
     return { ok: false, kind: 'lines', errors, message: `file: line ${first.line}: ${first.reason}${more}; nothing was stored` }
   }
-  days.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))
+  // Days that came in order (checked above as they were read) need no sort.
+  if (!inOrder) days.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))
   return {
     ok: true,
     days,

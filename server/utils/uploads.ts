@@ -15,6 +15,21 @@ export function tooLarge(what: string, limit: number) {
   })
 }
 
+/** Bytes a client may send after the closing boundary: CR, LF, space, tab. */
+const isTrailingSpace = (byte: number) => byte === 13 || byte === 10 || byte === 32 || byte === 9
+
+/**
+ * Whether `body` holds the closing boundary `close`. It normally ends the body, give or take a line
+ * end, so the tail is compared first; only a body that does not end so (cut short, or with an
+ * epilogue after the boundary, which is rare) is searched whole.
+ */
+function holdsClose(body: Buffer, close: Buffer): boolean {
+  let end = body.length
+  while (end > 0 && isTrailingSpace(body[end - 1]!)) end--
+  if (end >= close.length && body.compare(close, 0, close.length, end - close.length, end) === 0) return true
+  return body.lastIndexOf(close) !== -1
+}
+
 /**
  * 400 unless the multipart body ends with its closing boundary (`--boundary--`). The multipart reader
  * keeps the parts it found complete and drops the rest without a word, so a body cut short after the
@@ -24,7 +39,7 @@ async function requireWholeBody(event: H3Event, type: string, part: string) {
   const boundary = /boundary=(?:"([^"]+)"|([^;]+))/i.exec(type)
   const body = await readRawBody(event, false)
   const close = boundary ? Buffer.from(`--${(boundary[1] ?? boundary[2] ?? '').trim()}--`) : null
-  if (!close || !body || body.indexOf(close) === -1) {
+  if (!close || !body || !holdsClose(body, close)) {
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${part}: the upload ended before its closing boundary (cut short); nothing was stored, send it again` })
   }
 }

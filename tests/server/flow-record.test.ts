@@ -274,7 +274,7 @@ describe('flow-record roles', () => {
     expect(hyd.body.source).toBe('points')
 
     const log = await team.admin.get(`/api/orgs/${team.orgId}/audit?pageSize=200`)
-    const actions = log.body.entries.filter((e: { targetId: number }) => e.targetId === site.id).map((e: { action: string }) => e.action)
+    const actions = log.body.entries.filter((e: { targetType: string; targetId: number }) => e.targetType === 'site' && e.targetId === site.id).map((e: { action: string }) => e.action)
     expect(actions).toEqual(['flow-record.deleted', 'flow-record.uploaded', 'site.created'])
   })
 })
