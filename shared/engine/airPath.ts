@@ -143,40 +143,107 @@ export interface AirOperatingPoint {
   state: TurbineState
 }
 
-/** Operating point of one unit's air path: pump line with η_ej times the useful compression share, turbine loaded for maximum shaft power, rating cap and cut-in (ENGINE §3). */
-export function airOperatingPoint(a: AirPathInput): AirOperatingPoint {
-  const hydraulic = a.waterDensity * G * Math.max(0, a.unitFlow_m3s) * Math.max(0, a.workingHead_m)
+/**
+ * What one unit's air path shares across river flows at one water temperature: ρg, the discharge
+ * pressure, the intake air density and the pipe constant. An assessment evaluates thousands of flows
+ * at a handful of temperatures, so these are worked out once per temperature; `airPointInto` then
+ * uses them exactly as `airOperatingPoint` would (the same operations in the same order).
+ */
+export interface AirPathSetting {
+  /** ρg of the water, N/m³. */
+  rhoG: number
+  p_atm: number
+  /** Suction at which the throat would boil, m. */
+  suctionLimit_m: number
+  /** Absolute pressure where the air leaves with the water, p_atm + ρg·d, Pa. */
+  dischargePressure_Pa: number
+  /** Intake air density, kg/m³. */
+  rhoAir: number
+  /** Pipe-loss constant c in Δp_pipe = c·Q_a², Pa·s²/m⁶. */
+  pipeConstant: number
+  jetPumpEfficiency: number
+  maxGasLiquidRatio: number
+  turbine: AirTurbine
+}
+
+/** The flow-independent part of an air-path input (see AirPathSetting). */
+export function airPathSetting(a: Omit<AirPathInput, 'suction_m' | 'unitFlow_m3s' | 'workingHead_m'>): AirPathSetting {
+  const rhoG = a.waterDensity * G
   const rhoAir = airDensity(a.p_atm, a.airTemperature_C)
-  const s = Math.min(a.suction_m, a.suctionLimit_m)
-  const dp0 = s > 0 ? a.waterDensity * G * s : 0
-  const none: AirOperatingPoint = {
-    shutOffPressure_Pa: dp0, effectivePumpEfficiency: 0, maxAirFlow_m3s: 0, limitedBy: 'none', airFlow_m3s: 0, airMassFlow_kgs: 0,
-    pumpPressure_Pa: dp0, pipeLoss_Pa: 0, turbinePressureDrop_Pa: 0, hydraulicPower_W: hydraulic,
+  return {
+    rhoG, p_atm: a.p_atm, suctionLimit_m: a.suctionLimit_m,
+    dischargePressure_Pa: a.p_atm + rhoG * Math.max(0, a.dischargeDepth_m),
+    rhoAir, pipeConstant: pipeLossConstant(a.pipe, rhoAir),
+    jetPumpEfficiency: a.jetPumpEfficiency, maxGasLiquidRatio: a.maxGasLiquidRatio, turbine: a.turbine,
+  }
+}
+
+/** An operating point with every figure zero, its fields in the order `airPointInto` fills them. */
+export function blankAirPoint(): AirOperatingPoint {
+  return {
+    shutOffPressure_Pa: 0, effectivePumpEfficiency: 0, maxAirFlow_m3s: 0, limitedBy: 'none', airFlow_m3s: 0, airMassFlow_kgs: 0,
+    pumpPressure_Pa: 0, pipeLoss_Pa: 0, turbinePressureDrop_Pa: 0, hydraulicPower_W: 0,
     shaftPower_W: 0, availableElectricalPower_W: 0, electricalPower_W: 0, waterToWire: 0, state: 'no-suction',
   }
-  const pd = a.p_atm + a.waterDensity * G * Math.max(0, a.dischargeDepth_m)
-  const etaEff = a.jetPumpEfficiency * usefulCompressionFraction(a.p_atm, dp0, pd)
-  const qmax = maxAirFlow(dp0, a.p_atm, hydraulic, a.unitFlow_m3s, etaEff, a.maxGasLiquidRatio)
-  const c = pipeLossConstant(a.pipe, rhoAir)
+}
+
+/** Operating point of one unit's air path: pump line with η_ej times the useful compression share, turbine loaded for maximum shaft power, rating cap and cut-in (ENGINE §3). */
+export function airOperatingPoint(a: AirPathInput): AirOperatingPoint {
+  return airPointInto(airPathSetting(a), a.suction_m, a.unitFlow_m3s, a.workingHead_m, blankAirPoint())
+}
+
+/**
+ * `airOperatingPoint` at one suction, unit flow and working head, written into `out` (no allocation,
+ * for the engine's inner loops). ρg·Q·H, ρg·s and p_atm + ρg·d associate exactly as in the formulas,
+ * so the figures are the same to the last bit as a fresh `airOperatingPoint`.
+ */
+export function airPointInto(set: AirPathSetting, suction_m: number, unitFlow_m3s: number, workingHead_m: number, out: AirOperatingPoint): AirOperatingPoint {
+  const hydraulic = set.rhoG * Math.max(0, unitFlow_m3s) * Math.max(0, workingHead_m)
+  const s = Math.min(suction_m, set.suctionLimit_m)
+  const dp0 = s > 0 ? set.rhoG * s : 0
+  const etaEff = set.jetPumpEfficiency * usefulCompressionFraction(set.p_atm, dp0, set.dischargePressure_Pa)
+  const qmax = maxAirFlow(dp0, set.p_atm, hydraulic, unitFlow_m3s, etaEff, set.maxGasLiquidRatio)
+  const c = set.pipeConstant
   const qa = optimalAirFlow(dp0, qmax.maxAirFlow_m3s, c)
-  if (!(qa > 0)) return { ...none, effectivePumpEfficiency: etaEff, maxAirFlow_m3s: qmax.maxAirFlow_m3s, limitedBy: qmax.limitedBy }
+  out.shutOffPressure_Pa = dp0
+  out.effectivePumpEfficiency = etaEff
+  out.maxAirFlow_m3s = qmax.maxAirFlow_m3s
+  out.limitedBy = qmax.limitedBy
+  out.hydraulicPower_W = hydraulic
+  if (!(qa > 0)) {
+    out.airFlow_m3s = 0
+    out.airMassFlow_kgs = 0
+    out.pumpPressure_Pa = dp0
+    out.pipeLoss_Pa = 0
+    out.turbinePressureDrop_Pa = 0
+    out.shaftPower_W = 0
+    out.availableElectricalPower_W = 0
+    out.electricalPower_W = 0
+    out.waterToWire = 0
+    out.state = 'no-suction'
+    return out
+  }
   const pump = pumpPressure(qa, dp0, qmax.maxAirFlow_m3s)
   const loss = c * qa * qa
   const dpt = Math.max(0, pump - loss)
-  const shaft = Math.max(0, a.turbine.efficiency) * isentropicPower(qa, a.p_atm, dpt)
-  const avail = Math.max(0, a.turbine.generatorEfficiency) * shaft
-  const rated = a.turbine.ratedPower_W
+  const shaft = Math.max(0, set.turbine.efficiency) * isentropicPower(qa, set.p_atm, dpt)
+  const avail = Math.max(0, set.turbine.generatorEfficiency) * shaft
+  const rated = set.turbine.ratedPower_W
   let pe = avail
   let state: TurbineState = 'running'
   if (rated !== null && rated >= 0) {
     if (pe >= rated) { pe = rated; state = 'at-rating' }
-    if (pe < a.turbine.cutInFraction * rated || rated === 0) { pe = 0; state = 'below-cut-in' }
+    if (pe < set.turbine.cutInFraction * rated || rated === 0) { pe = 0; state = 'below-cut-in' }
   }
-  return {
-    shutOffPressure_Pa: dp0, effectivePumpEfficiency: etaEff, maxAirFlow_m3s: qmax.maxAirFlow_m3s, limitedBy: qmax.limitedBy,
-    airFlow_m3s: qa, airMassFlow_kgs: rhoAir * qa, pumpPressure_Pa: pump, pipeLoss_Pa: loss,
-    turbinePressureDrop_Pa: dpt, hydraulicPower_W: hydraulic, shaftPower_W: shaft,
-    availableElectricalPower_W: avail, electricalPower_W: pe,
-    waterToWire: hydraulic > 0 ? pe / hydraulic : 0, state,
-  }
+  out.airFlow_m3s = qa
+  out.airMassFlow_kgs = set.rhoAir * qa
+  out.pumpPressure_Pa = pump
+  out.pipeLoss_Pa = loss
+  out.turbinePressureDrop_Pa = dpt
+  out.shaftPower_W = shaft
+  out.availableElectricalPower_W = avail
+  out.electricalPower_W = pe
+  out.waterToWire = hydraulic > 0 ? pe / hydraulic : 0
+  out.state = state
+  return out
 }

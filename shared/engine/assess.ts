@@ -7,7 +7,7 @@ import {
   scaleFdcByAreaRatio, scaleRecordByAreaRatio, type DailyFlow, type Fdc, type FdcStats,
 } from './hydrology'
 import { moneySummary, type MoneySummary } from './money'
-import { buildScheme, flowState, powerState, type Conditions, type FlowState, type Scheme } from './scheme'
+import { buildScheme, flowState, powerSample, powerState, unitTotalDissolvedGas, type Conditions, type FlowState, type PowerState, type Scheme } from './scheme'
 import { ENGINE_VERSION } from './version'
 
 /** Names of the flags an assessment raises. */
@@ -170,14 +170,8 @@ function monthConditions(input: AssessInput): Conditions[] {
   return input.site.months.map((m) => ({ tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
 }
 
-/** Turbine states in a fixed order, so each has a number for the power table. */
-const TURBINE_STATES = ['stopped', 'no-suction', 'below-cut-in', 'running', 'at-rating'] as const
-
 function energyOf(input: AssessInput, h: SiteHydrology, s: Scheme, annual: Conditions, months: Conditions[]): AnnualEnergy {
-  const stateAt = (flow: number, month: number): PowerSample => {
-    const p = powerState(s, flow, month === 0 ? annual : (months[month - 1] ?? annual))
-    return { power: p.electricalPower_W, state: p.unitsRunning * 8 + TURBINE_STATES.indexOf(p.turbineState) }
-  }
+  const stateAt = (flow: number, month: number): PowerSample => powerSample(s, flow, month === 0 ? annual : (months[month - 1] ?? annual))
   const exact: PowerAt = (flow, month) => stateAt(flow, month).power
   // A long record has a distinct flow almost every day: tabulate power over its range instead.
   // The FDC's flows fall as exceedance rises: the first is the highest, the last positive the lowest.
@@ -212,7 +206,7 @@ function pickSummerLowFlow(rows: ReadonlyArray<{ month: number, temperature_C: n
 }
 
 /** Why the units make no energy, in plain words. */
-function neverRunsReason(s: Scheme, grid: FlowState[]): string {
+function neverRunsReason(s: Scheme, grid: PowerState[]): string {
   const running = grid.filter((g) => g.unitsRunning > 0)
   if (!(s.input.site.grossHead_m > 0) && s.input.site.headTable.every((p) => !(p.head_m > 0))) return 'The site has no head, so no water can be driven through the units.'
   if (running.length === 0) return `The river never carries more than the reserved flow (${fmt(s.reserved_m3s, 3)} m³/s) plus the minimum flow a unit needs, so the units never start.`
@@ -237,9 +231,11 @@ export function assess(input: AssessInput): AssessResult {
 
   const perFlow = PER_FLOW_EXCEEDANCES.map((p) => perFlowRow(p, flowState(s, flowAtExceedance(h.fdc, p), annual)))
   const gridFlows = exceedanceGrid(SUMMARY_GRID).map((p) => flowAtExceedance(h.fdc, p))
-  const grid = gridFlows.map((q) => flowState(s, q, annual))
+  // The summary grids need the power side everywhere but, of the oxygen side, only the total
+  // dissolved gas where units run (see unitTotalDissolvedGas).
+  const grid = gridFlows.map((q) => powerState(s, q, annual))
   const warmest = monthCond.reduce((a, b) => (b.tC > a.tC ? b : a), monthCond[0] ?? annual)
-  const warmGrid = gridFlows.map((q) => flowState(s, q, warmest))
+  const warmGrid = gridFlows.map((q) => powerState(s, q, warmest))
 
   const flows = monthFlows(input, h)
   const monthStates = flows.map((f, m) => flowState(s, f.flow, monthCond[m] ?? annual))
@@ -264,13 +260,18 @@ export function assess(input: AssessInput): AssessResult {
   })
 
   const slf = pickSummerLowFlow(months)
-  const slfState = flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
+  // The summer low flow is one of the month rows (its flow and conditions), so its state is that row's.
+  const slfState = monthStates[slf.month - 1] ?? flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
 
-  const runningStates = [...warmGrid, ...grid, ...monthStates].filter((g) => g.unitsRunning > 0)
-  const worst = runningStates.reduce<FlowState | null>((w, g) => (w === null || g.cavitationMargin_m < w.cavitationMargin_m ? g : w), null)
-  const tdgWorst = runningStates.reduce<FlowState | null>((w, g) => (w === null || g.oxygen.unitTdg > w.oxygen.unitTdg ? g : w), null)
-  const maxTdg = tdgWorst ? tdgWorst.oxygen.unitTdg : 0
-  const sigmas = runningStates.map((g) => g.cavitationIndex).filter((x): x is number => x !== null)
+  const runningStates: Running[] = [
+    ...warmGrid.filter((g) => g.unitsRunning > 0).map((g) => ({ state: g, tdg: unitTotalDissolvedGas(s, g, warmest) })),
+    ...grid.filter((g) => g.unitsRunning > 0).map((g) => ({ state: g, tdg: unitTotalDissolvedGas(s, g, annual) })),
+    ...monthStates.filter((g) => g.unitsRunning > 0).map((g) => ({ state: g, tdg: g.oxygen.unitTdg })),
+  ]
+  const worst = runningStates.reduce<PowerState | null>((w, g) => (w === null || g.state.cavitationMargin_m < w.cavitationMargin_m ? g.state : w), null)
+  const tdgWorst = runningStates.reduce<Running | null>((w, g) => (w === null || g.tdg > w.tdg ? g : w), null)
+  const maxTdg = tdgWorst ? tdgWorst.tdg : 0
+  const sigmas = runningStates.map((g) => g.state.cavitationIndex).filter((x): x is number => x !== null)
 
   const money = moneySummary({
     ...input.option.costs, ratingW, units: input.option.units, annualEnergyMWh: energy.annualEnergyMWh,
@@ -319,16 +320,22 @@ export function assess(input: AssessInput): AssessResult {
   }
 }
 
+/** A state where units run, with the total dissolved gas of their discharge. */
+interface Running {
+  state: PowerState
+  tdg: number
+}
+
 interface FlagContext {
   s: Scheme
-  worst: FlowState | null
-  tdgWorst: FlowState | null
+  worst: PowerState | null
+  tdgWorst: Running | null
   maxTdg: number
   months: MonthRow[]
   slfGain: number
   slf: SummerLowFlow
   energy: AnnualEnergy
-  grid: FlowState[]
+  grid: PowerState[]
 }
 
 function buildFlags(c: FlagContext): Flag[] {
@@ -355,7 +362,7 @@ function buildFlags(c: FlagContext): Flag[] {
     reason: c.tdgWorst === null
       ? 'The units never run, so they add no dissolved gas.'
       : tdgRaised
-        ? `Water leaving the units could carry ${fmt(c.maxTdg * 100, 0)} % total dissolved gas (at ${fmt(c.tdgWorst.riverFlow_m3s)} m³/s), above the ${fmt(st.tdgLimit * 100, 0)} % limit. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
+        ? `Water leaving the units could carry ${fmt(c.maxTdg * 100, 0)} % total dissolved gas (at ${fmt(c.tdgWorst.state.riverFlow_m3s)} m³/s), above the ${fmt(st.tdgLimit * 100, 0)} % limit. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
         : `Water leaving the units carries at most ${fmt(c.maxTdg * 100, 0)} % total dissolved gas, within the ${fmt(st.tdgLimit * 100, 0)} % limit.`,
   })
 

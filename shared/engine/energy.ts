@@ -10,7 +10,8 @@ import type { DailyFlow, Fdc } from './hydrology'
 /**
  * Electrical power P_e in W at river flow `flow` (m³/s) in calendar month `month` (1–12), or
  * `MONTH_ANNUAL` (0) when integrating an annual FDC. Must be pure, finite and ≥ 0: it is called
- * once per distinct (flow, month) pair and its results are reused.
+ * once per distinct (flow, month) pair (along an FDC's grid, once per run of equal flows) and its
+ * results are reused.
  */
 export type PowerAt = (flow: number, month: number) => number
 
@@ -136,7 +137,7 @@ export function annualEnergyFromFdc(fdc: Fdc, powerAt: PowerAt, options: FdcEner
     throw new EngineInputError('monthlyFdcs', 'must hold 12 months, January first')
   }
   const grid = exceedanceGrid(gridPoints)
-  const power = memoised(powerAt)
+  const power = memoisedAlongCurve(powerAt)
   const meanPowerW = (curve: Fdc, month: number): number =>
     grid.reduce((s, p) => s + power(flowAtExceedance(curve, p), month), 0) / gridPoints
 
@@ -191,7 +192,8 @@ export function tabulatedPower(
   if (!(minFlow > 0) || !(maxFlow > minFlow) || points < 2) return exact
   const lo = Math.log(minFlow)
   const step = (Math.log(maxFlow) - lo) / (points - 1)
-  const tables = new Map<number, PowerTable>()
+  // Indexed by month (a small whole number): a plain array look-up per day instead of a map's.
+  const tables: (PowerTable | undefined)[] = []
 
   const build = (month: number): PowerTable => {
     const nodes = Array.from({ length: points }, (_, i) => sampleAt(Math.exp(lo + i * step), month))
@@ -228,10 +230,10 @@ export function tabulatedPower(
 
   return (flow, month) => {
     if (!(flow > minFlow && flow < maxFlow)) return exact(flow, month)
-    let table = tables.get(month)
+    let table = tables[month]
     if (!table) {
       table = build(month)
-      tables.set(month, table)
+      tables[month] = table
     }
     const x = (Math.log(flow) - lo) / step
     const i = Math.min(points - 2, Math.floor(x))
@@ -281,6 +283,27 @@ function assertPower(p: number, flow: number, month: number): number {
     throw new EngineInputError('powerAt', `gave ${String(p)} W at ${flow} m³/s in month ${month}; power must be finite and ≥ 0`)
   }
   return p
+}
+
+/**
+ * Wrap `powerAt` to check its answers and reuse the last one while (flow, month) repeats. Walking a
+ * curve's grid the flows never rise, so equal flows (a curve held flat at its ends or between equal
+ * nodes) come one after another and each distinct flow is asked once, without a map of thousands
+ * of entries. `powerAt` is pure, so the figures are those of asking every time.
+ */
+function memoisedAlongCurve(powerAt: PowerAt): PowerAt {
+  let asked = false
+  let lastFlow = 0
+  let lastMonth = 0
+  let last = 0
+  return (flow, month) => {
+    if (asked && Object.is(flow, lastFlow) && Object.is(month, lastMonth)) return last
+    last = assertPower(powerAt(flow, month), flow, month)
+    asked = true
+    lastFlow = flow
+    lastMonth = month
+    return last
+  }
 }
 
 /** Wrap `powerAt` to check its answers and call it once per distinct (flow, month). */

@@ -1,5 +1,5 @@
 // Saturation concentrations of dissolved O₂ and N₂ in fresh water, mg/L.
-import { rememberLast } from './memo'
+import { rememberRecent } from './memo'
 import { P_STD, T_ZERO_C } from './constants'
 
 /** O₂ saturation at 1 atm in water-saturated air, mg/L: Benson & Krause (1984), as in APHA Standard Methods 4500-O and USGS memo WQ 2011.03; 0–40 °C. */
@@ -31,8 +31,8 @@ export function oxygenSalinityFactor(tC: number, salinity_gkg: number): number {
   return Math.exp(-salinity_gkg * (0.017674 - 10.754 / T + 2140.7 / T ** 2))
 }
 
-/** O₂ saturation C_s(T, p, S), mg/L: Benson & Krause (1984) with its pressure correction and salinity term (USGS memo WQ 2011.03). */
-export const oxygenSaturation = rememberLast(function oxygenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
+/** O₂ saturation C_s(T, p, S), mg/L: Benson & Krause (1984) with its pressure correction and salinity term (USGS memo WQ 2011.03). Remembers its last few answers: each flow asks about the surface, mid-submergence and 20 °C in turn. */
+export const oxygenSaturation = rememberRecent(function oxygenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
   return oxygenSaturation1atm(tC) * oxygenPressureFactor(tC, p_Pa) * oxygenSalinityFactor(tC, salinity_gkg)
 })
 
@@ -47,8 +47,8 @@ export function nitrogenSaturation1atm(tC: number, salinity_gkg = 0): number {
   return Math.exp(lnC) * N2_MG_PER_ML
 }
 
-/** N₂ saturation at total pressure p, mg/L: Weiss (1970) scaled by the partial-pressure ratio (P − p_wv)/(1 − p_wv) (Henry's law; from memory). */
-export const nitrogenSaturation = rememberLast(function nitrogenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
+/** N₂ saturation at total pressure p, mg/L: Weiss (1970) scaled by the partial-pressure ratio (P − p_wv)/(1 − p_wv) (Henry's law; from memory). Remembers its last few answers (surface and mid-submergence in turn). */
+export const nitrogenSaturation = rememberRecent(function nitrogenSaturation(tC: number, p_Pa: number = P_STD, salinity_gkg = 0): number {
   const P = p_Pa / P_STD
   const pwv = vapourPressureAtm(tC)
   if (P <= pwv) return 0

@@ -1,0 +1,388 @@
+// The engine's inner loop takes shortcuts for speed: per-temperature constants worked out once, a
+// head table sorted once, scratch records instead of fresh objects, one-slot and few-slot memos, a
+// radix sort for long records, oxygen figures the summary grids do not need left out. Each must give
+// exactly the figures of a direct evaluation. Here every shortcut is compared, for random inputs,
+// with the straightforward composition of the engine's building blocks (as the engine was written
+// before the shortcuts), to the last bit (toStrictEqual compares numbers with Object.is). These are
+// identity checks against the engine's own formulas, so no outside source is named: the formulas
+// themselves are checked, with their sources, in the other engine tests.
+import fc from 'fast-check'
+import { describe, expect, it } from 'vitest'
+import {
+  airOperatingPoint, airPathSetting, airPointInto, blankAirPoint, isentropicPower, maxAirFlow, optimalAirFlow, pipeLossConstant,
+  pumpPressure, usefulCompressionFraction, type AirOperatingPoint, type AirPathInput, type TurbineState,
+} from '../../../shared/engine/airPath'
+import { assess } from '../../../shared/engine/assess'
+import { airDensity } from '../../../shared/engine/atmosphere'
+import { G } from '../../../shared/engine/constants'
+import { annualEnergyFromFdc } from '../../../shared/engine/energy'
+import { exceedanceGrid, fdcFromPoints, flowAtExceedance, sortFlows } from '../../../shared/engine/hydrology'
+import { rememberRecent } from '../../../shared/engine/memo'
+import {
+  bubbleContact, contactTime, downstreamFromDeficitRatio, fieldTransfer, mixStreams, totalDissolvedGas, unitNitrogen,
+  WATER_QUALITY_A, WEIR_SHAPE_B, weirDeficitRatio,
+} from '../../../shared/engine/oxygen'
+import { nitrogenSaturation, oxygenSaturation } from '../../../shared/engine/oxygenSaturation'
+import {
+  buildScheme, flowState, oxygenState, powerSample, powerState, unitTotalDissolvedGas,
+  type Conditions, type OxygenState, type PowerState, type Scheme,
+} from '../../../shared/engine/scheme'
+import { circleArea, headAtFlow, splitFlow, unitCapacity, unitHydraulics, type HeadPoint } from '../../../shared/engine/venturi'
+import { vapourPressure, waterDensity } from '../../../shared/engine/water'
+import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
+import { draft } from './fixtures'
+
+// ——— the direct evaluations the shortcuts must match ———
+
+/** The air-path operating point computed in one go from its building blocks, no per-temperature setting. */
+function directAirPoint(a: AirPathInput): AirOperatingPoint {
+  const hydraulic = a.waterDensity * G * Math.max(0, a.unitFlow_m3s) * Math.max(0, a.workingHead_m)
+  const rhoAir = airDensity(a.p_atm, a.airTemperature_C)
+  const s = Math.min(a.suction_m, a.suctionLimit_m)
+  const dp0 = s > 0 ? a.waterDensity * G * s : 0
+  const pd = a.p_atm + a.waterDensity * G * Math.max(0, a.dischargeDepth_m)
+  const etaEff = a.jetPumpEfficiency * usefulCompressionFraction(a.p_atm, dp0, pd)
+  const qmax = maxAirFlow(dp0, a.p_atm, hydraulic, a.unitFlow_m3s, etaEff, a.maxGasLiquidRatio)
+  const c = pipeLossConstant(a.pipe, rhoAir)
+  const qa = optimalAirFlow(dp0, qmax.maxAirFlow_m3s, c)
+  if (!(qa > 0)) {
+    return {
+      shutOffPressure_Pa: dp0, effectivePumpEfficiency: etaEff, maxAirFlow_m3s: qmax.maxAirFlow_m3s, limitedBy: qmax.limitedBy,
+      airFlow_m3s: 0, airMassFlow_kgs: 0, pumpPressure_Pa: dp0, pipeLoss_Pa: 0, turbinePressureDrop_Pa: 0, hydraulicPower_W: hydraulic,
+      shaftPower_W: 0, availableElectricalPower_W: 0, electricalPower_W: 0, waterToWire: 0, state: 'no-suction',
+    }
+  }
+  const pump = pumpPressure(qa, dp0, qmax.maxAirFlow_m3s)
+  const loss = c * qa * qa
+  const dpt = Math.max(0, pump - loss)
+  const shaft = Math.max(0, a.turbine.efficiency) * isentropicPower(qa, a.p_atm, dpt)
+  const avail = Math.max(0, a.turbine.generatorEfficiency) * shaft
+  const rated = a.turbine.ratedPower_W
+  let pe = avail
+  let state: TurbineState = 'running'
+  if (rated !== null && rated >= 0) {
+    if (pe >= rated) { pe = rated; state = 'at-rating' }
+    if (pe < a.turbine.cutInFraction * rated || rated === 0) { pe = 0; state = 'below-cut-in' }
+  }
+  return {
+    shutOffPressure_Pa: dp0, effectivePumpEfficiency: etaEff, maxAirFlow_m3s: qmax.maxAirFlow_m3s, limitedBy: qmax.limitedBy,
+    airFlow_m3s: qa, airMassFlow_kgs: rhoAir * qa, pumpPressure_Pa: pump, pipeLoss_Pa: loss,
+    turbinePressureDrop_Pa: dpt, hydraulicPower_W: hydraulic, shaftPower_W: shaft,
+    availableElectricalPower_W: avail, electricalPower_W: pe, waterToWire: hydraulic > 0 ? pe / hydraulic : 0, state,
+  }
+}
+
+/** The unit's air-path input at one unit flow and head, everything evaluated afresh. */
+function airInputAt(s: Scheme, unitFlow: number, head: number, tC: number, rated: number | null): { air: AirPathInput, hyd: ReturnType<typeof unitHydraulics> } {
+  const o = s.input.option
+  const env = { p_atm: s.p_atm, p_v: vapourPressure(tC), rho: waterDensity(tC) }
+  const hyd = unitHydraulics(unitFlow, head, o.throatDepth_m, s.geometry, env)
+  return {
+    hyd,
+    air: {
+      suction_m: hyd.suction_m, suctionLimit_m: Math.max(0, (env.p_atm - env.p_v) / (env.rho * G)), dischargeDepth_m: o.throatDepth_m,
+      unitFlow_m3s: unitFlow, workingHead_m: hyd.workingHead_m, waterDensity: env.rho, p_atm: env.p_atm,
+      airTemperature_C: tC + s.input.settings.airTemperatureOffset_K, jetPumpEfficiency: o.air.jetPumpEfficiency, maxGasLiquidRatio: o.air.maxGasLiquidRatio,
+      pipe: { diameter_m: o.air.pipeDiameter_m, length_m: o.air.pipeLength_m, lossK: o.air.pipeLossK, frictionFactor: o.air.frictionFactor },
+      turbine: { efficiency: o.turbine.efficiency, generatorEfficiency: o.turbine.generatorEfficiency, ratedPower_W: rated, cutInFraction: o.turbine.cutInFraction },
+    },
+  }
+}
+
+/** Gross head by interpolation, sorting a copy of the table on every call. */
+function directHeadAt(table: ReadonlyArray<HeadPoint>, flow: number, fallback: number): number {
+  if (table.length === 0) return Math.max(0, fallback)
+  const pts = [...table].sort((a, b) => a.flow_m3s - b.flow_m3s)
+  const first = pts[0]!
+  const last = pts[pts.length - 1]!
+  if (flow <= first.flow_m3s) return Math.max(0, first.head_m)
+  if (flow >= last.flow_m3s) return Math.max(0, last.head_m)
+  for (let i = 1; i < pts.length; i++) {
+    const a = pts[i - 1]!
+    const b = pts[i]!
+    if (flow <= b.flow_m3s) {
+      const span = b.flow_m3s - a.flow_m3s
+      const f = span > 0 ? (flow - a.flow_m3s) / span : 0
+      return Math.max(0, a.head_m + f * (b.head_m - a.head_m))
+    }
+  }
+  return Math.max(0, last.head_m)
+}
+
+/** The power state at one river flow, every step evaluated afresh from the input's own head table. */
+function directPowerState(s: Scheme, flow: number, c: Conditions): PowerState {
+  const o = s.input.option
+  const river = Math.max(0, flow)
+  const H = directHeadAt(s.input.site.headTable, river, s.input.site.grossHead_m)
+  const split = splitFlow({
+    riverFlow_m3s: river, reservedFlow_m3s: s.reserved_m3s, units: o.units, capacity_m3s: unitCapacity(H, s.geometry),
+    minUnitFlowFraction: o.minUnitFlowFraction, staging: o.staging,
+  })
+  const { air: a, hyd } = airInputAt(s, split.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W)
+  const p = directAirPoint(a)
+  const n = split.unitsRunning
+  return {
+    riverFlow_m3s: river, grossHead_m: H, regime: split.regime, unitsRunning: n,
+    unitFlow_m3s: split.unitFlow_m3s, spill_m3s: split.spill_m3s, reserved_m3s: split.reserved_m3s,
+    workingHead_m: n > 0 ? hyd.workingHead_m : 0, throatVelocity_ms: hyd.throatVelocity_ms, suction_m: n > 0 ? hyd.suction_m : 0,
+    cavitationMargin_m: n > 0 ? hyd.cavitationMargin_m : Math.max(0, (s.p_atm - vapourPressure(c.tC)) / (waterDensity(c.tC) * G)),
+    cavitationIndex: n > 0 ? hyd.cavitationIndex : null,
+    airFlow_m3s: n * p.airFlow_m3s, airMassFlowPerUnit_kgs: n > 0 ? p.airMassFlow_kgs : 0,
+    electricalPower_W: n * p.electricalPower_W, hydraulicPower_W: n * p.hydraulicPower_W,
+    waterToWire: n > 0 ? p.waterToWire : 0, turbineState: n > 0 ? p.state : 'stopped',
+  }
+}
+
+/** The oxygen state in one go: weir, both transfer methods, mixing and total dissolved gas. */
+function directOxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
+  const st = s.input.settings
+  const site = s.input.site
+  const rho = waterDensity(c.tC)
+  const cs = oxygenSaturation(c.tC, s.p_atm, site.salinity_gkg)
+  const a = WATER_QUALITY_A[site.waterQuality].value
+  const b = WEIR_SHAPE_B[site.weirShape].value
+  const overWeir = (fall: number): number => downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(a, b, fall, c.tC))
+  const without = ps.riverFlow_m3s > 0 ? overWeir(ps.grossHead_m) : c.upstreamO2_mgL
+  const weirStream = overWeir(ps.regime === 'flow-limited' ? ps.workingHead_m : ps.grossHead_m)
+  const d = s.input.option.throatDepth_m
+  const ft = fieldTransfer({
+    cIn_mgL: c.upstreamO2_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airMassFlow_kgs: ps.airMassFlowPerUnit_kgs,
+    submergence_m: d, sotePerMetre: st.sotePerMetre, alpha: st.alpha, beta: st.beta, theta: st.theta,
+    p_atm: s.p_atm, rho, salinity_gkg: site.salinity_gkg,
+  })
+  const bc = bubbleContact({
+    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: ft.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s,
+    airFlow_m3s: ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0,
+    airMassFlow_kgs: ps.airMassFlowPerUnit_kgs, bubbleDiameter_m: st.bubbleDiameter_m, slipVelocity_ms: st.slipVelocity_ms,
+    diffusivity20: st.oxygenDiffusivity20,
+    contactTime_s: contactTime(s.diffuserLength_m, ps.unitFlow_m3s, circleArea(s.geometry.throatDiameter_m), circleArea(s.geometry.outletDiameter_m), st.plumeTime_s),
+  })
+  const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
+  const weirQ = ps.reserved_m3s + ps.spill_m3s
+  const mix = (unitC: number): number => mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirStream }], c.upstreamO2_mgL)
+  const useBc = st.oxygenMethod === 'bubble-contact'
+  const withScheme = useBc ? mix(bc.cOut_mgL) : mix(ft.cOut_mgL)
+  const fraction = unitsQ > 0 ? (useBc ? bc.fractionApproached : ft.fractionApproached) : 0
+  const n2 = unitNitrogen(c.tC, s.p_atm, rho, d, st.beta, site.salinity_gkg, st.upstreamNitrogenSaturation, fraction)
+  const n2Sat = nitrogenSaturation(c.tC, s.p_atm, site.salinity_gkg)
+  const unitO2 = useBc ? bc.cOut_mgL : ft.cOut_mgL
+  return {
+    saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, weirStream_mgL: weirStream,
+    unitFieldTransfer_mgL: ft.cOut_mgL, unitBubbleContact_mgL: bc.cOut_mgL,
+    withSchemeFieldTransfer_mgL: mix(ft.cOut_mgL), withSchemeBubbleContact_mgL: mix(bc.cOut_mgL), withScheme_mgL: withScheme,
+    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0,
+    unitTdg: totalDissolvedGas(c.tC, s.p_atm, cs > 0 ? unitO2 / cs : 0, n2Sat > 0 ? n2.cOut_mgL / n2Sat : 0),
+  }
+}
+
+// ——— random inputs ———
+
+const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true })
+
+/** A random site and option inside the schema's bounds; the head table is in random order, repeats allowed. */
+const inputArb: fc.Arbitrary<AssessInput> = fc.record({
+  grossHead: fc.oneof(num(0, 6), fc.constant(0)),
+  altitude: num(-100, 3000),
+  headTable: fc.array(fc.record({ flow_m3s: fc.oneof(num(0, 80), fc.constantFrom(5, 20)), head_m: num(0, 5) }), { maxLength: 5 }),
+  temps: fc.array(fc.oneof(num(0, 30), fc.constantFrom(4, 12, 17)), { minLength: 12, maxLength: 12 }),
+  o2: fc.array(num(0, 14), { minLength: 12, maxLength: 12 }),
+  units: fc.integer({ min: 1, max: 6 }),
+  throat: num(0.1, 1.5),
+  widen: num(1, 2.5),
+  depth: fc.oneof(num(0, 6), fc.constant(0)),
+  staging: fc.constantFrom('sequential', 'shared'),
+  constriction: fc.constantFrom('venturi', 'short-nozzle', 'sharp-plate'),
+  minFraction: num(0, 0.8),
+  rated: fc.oneof(fc.constant(null), num(0.5, 200)),
+  cutIn: num(0, 0.5),
+  pipeDiameter: num(0.05, 1),
+  pipeLength: num(0, 50),
+  method: fc.constantFrom('field-transfer', 'bubble-contact'),
+  offset: num(-5, 5),
+  quality: fc.constantFrom('clean', 'moderately-polluted'),
+  weir: fc.constantFrom('sharp-crested-vertical-face', 'flat-broad-crested-regular-step'),
+}).map((r) => {
+  const d: AssessInputDraft = draft()
+  d.site = {
+    ...d.site, altitude_m: r.altitude, grossHead_m: r.grossHead, headTable: r.headTable, waterQuality: r.quality, weirShape: r.weir,
+    months: r.temps.map((t, i) => ({ temperature_C: t, upstreamOxygen_mgL: r.o2[i]! })),
+  }
+  d.option = {
+    ...d.option, units: r.units, throatDiameter_m: r.throat, outletDiameter_m: r.throat * r.widen, throatDepth_m: r.depth,
+    staging: r.staging, constriction: r.constriction, minUnitFlowFraction: r.minFraction,
+    air: { pipeDiameter_m: r.pipeDiameter, pipeLength_m: r.pipeLength },
+    turbine: { ratedPower_kW: r.rated, cutInFraction: r.cutIn },
+  }
+  d.settings = { oxygenMethod: r.method, airTemperatureOffset_K: r.offset }
+  return AssessInputSchema.parse(d)
+})
+
+/** River flows to walk through, with repeats (in a row and apart) so the memos are hit. */
+const flowsArb = fc.array(fc.oneof(num(0, 120), fc.constantFrom(0, 1, 1, 5, 20, 60, 200)), { minLength: 1, maxLength: 30 })
+  .chain((qs) => fc.shuffledSubarray(qs).map((again) => [...qs, ...qs.slice(0, 3), ...again]))
+
+function conditionsOf(input: AssessInput): Conditions[] {
+  return input.site.months.map((m) => ({ tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
+}
+
+describe('the scheme kernel against a direct evaluation', () => {
+  it('gives the same power state, field by field and in the same order, at every flow and temperature', () => {
+    fc.assert(fc.property(inputArb, flowsArb, num(0, 5), (input, flows, reserved) => {
+      const months = conditionsOf(input)
+      const s = buildScheme(input, reserved, months[0]!)
+      flows.forEach((q, i) => {
+        // alternate the temperature every other flow, so the per-temperature records are switched between
+        const c = months[(i >> 1) % months.length]!
+        const fast = powerState(s, q, c)
+        const direct = directPowerState(s, q, c)
+        // identity with the direct evaluation (ENGINE §2–3), no outside source
+        expect(fast).toStrictEqual(direct)
+        expect(Object.keys(fast)).toEqual(Object.keys(direct))
+        const sample = powerSample(s, q, c)
+        expect(sample.power).toBe(direct.electricalPower_W)
+        expect(sample.state).toBe(direct.unitsRunning * 8 + ['stopped', 'no-suction', 'below-cut-in', 'running', 'at-rating'].indexOf(direct.turbineState))
+      })
+    }), { numRuns: 150 })
+  })
+
+  it('sizes an unrated unit at the design point as a direct air-path evaluation does', () => {
+    fc.assert(fc.property(inputArb, (input) => {
+      const design = conditionsOf(input)[3]!
+      const s = buildScheme(input, 0.5, design)
+      const H = input.site.grossHead_m
+      const expected = input.option.turbine.ratedPower_kW === null
+        ? directAirPoint(airInputAt(s, unitCapacity(H, s.geometry), H, design.tC, null).air).availableElectricalPower_W
+        : input.option.turbine.ratedPower_kW * 1000
+      // identity with the direct evaluation (ENGINE §3), no outside source
+      expect(s.ratedPerUnit_W).toBe(expected)
+    }), { numRuns: 100 })
+  })
+
+  it('gives the same oxygen state, and the summary grid\'s total dissolved gas equals the full state\'s', () => {
+    fc.assert(fc.property(inputArb, flowsArb, (input, flows) => {
+      const months = conditionsOf(input)
+      const s = buildScheme(input, 0.8, months[0]!)
+      flows.forEach((q, i) => {
+        const c = months[i % months.length]!
+        const fs = flowState(s, q, c)
+        const ps = directPowerState(s, q, c)
+        const direct = directOxygenState(s, ps, c)
+        // identity with the direct evaluation (ENGINE §5), no outside source
+        expect(fs.oxygen).toStrictEqual(direct)
+        expect(oxygenState(s, ps, c)).toStrictEqual(direct)
+        expect(unitTotalDissolvedGas(s, ps, c)).toBe(direct.unitTdg)
+      })
+    }), { numRuns: 100 })
+  })
+})
+
+describe('the air path written into a reused record', () => {
+  it('equals a fresh evaluation even after a record filled by another point', () => {
+    const input = fc.record({
+      suction_m: num(-3, 12), suctionLimit_m: num(0, 11), dischargeDepth_m: num(0, 6), unitFlow_m3s: fc.oneof(num(0, 8), fc.constant(0)),
+      workingHead_m: num(0, 5), waterDensity: num(990, 1000), p_atm: num(70000, 105000), airTemperature_C: num(-10, 40),
+      jetPumpEfficiency: num(0, 1), maxGasLiquidRatio: num(0.01, 10),
+      pipe: fc.record({ diameter_m: num(0, 1), length_m: num(0, 50), lossK: num(0, 5), frictionFactor: num(0, 0.1) }),
+      turbine: fc.record({ efficiency: num(0, 1), generatorEfficiency: num(0, 1), ratedPower_W: fc.oneof(fc.constant(null), num(0, 1e5)), cutInFraction: num(0, 0.5) }),
+    })
+    fc.assert(fc.property(input, input, (a, b) => {
+      const out = airPointInto(airPathSetting(b), b.suction_m, b.unitFlow_m3s, b.workingHead_m, blankAirPoint())
+      // identity with the direct evaluation (ENGINE §3), no outside source
+      expect(airPointInto(airPathSetting(a), a.suction_m, a.unitFlow_m3s, a.workingHead_m, out)).toStrictEqual(directAirPoint(a))
+      expect(airOperatingPoint(a)).toStrictEqual(directAirPoint(a))
+      expect(Object.keys(airOperatingPoint(a))).toEqual(Object.keys(directAirPoint(a)))
+    }), { numRuns: 300 })
+  })
+})
+
+describe('head table used in order', () => {
+  it('gives the head that sorting on every call gives, for sorted and unsorted tables', () => {
+    const table = fc.array(fc.record({ flow_m3s: fc.oneof(num(0, 80), fc.constantFrom(0, 5, 5, 20)), head_m: num(-1, 5) }), { maxLength: 6 })
+    fc.assert(fc.property(table, fc.array(fc.oneof(num(-5, 100), fc.constantFrom(0, 5, 20)), { minLength: 1, maxLength: 10 }), num(-1, 5), (t, flows, fallback) => {
+      const sorted = [...t].sort((a, b) => a.flow_m3s - b.flow_m3s)
+      for (const q of flows) {
+        // identity with sorting on every call (ENGINE §2), no outside source
+        expect(headAtFlow(t, q, fallback)).toBe(directHeadAt(t, q, fallback))
+        expect(headAtFlow(sorted, q, fallback)).toBe(directHeadAt(t, q, fallback))
+      }
+    }), { numRuns: 300 })
+  })
+})
+
+describe('memos', () => {
+  it('rememberRecent answers as the function does, through hits and evictions', () => {
+    let calls = 0
+    const f = (a: number, b = 7, c = 0.5): number => {
+      calls++
+      return a * 3 + b / (c + 1) + (Object.is(a, -0) ? 1000 : 0)
+    }
+    const memo = rememberRecent(f, 3)
+    const arg = fc.constantFrom(0, -0, 1, 2.5, 20, Number.NaN)
+    const call = fc.tuple(arg, fc.option(arg, { nil: undefined }), fc.option(arg, { nil: undefined }))
+    fc.assert(fc.property(fc.array(call, { maxLength: 60 }), (seq) => {
+      // identity with calling the function itself, no outside source
+      for (const [a, b, c] of seq) expect(memo(a, b, c)).toBe(f(a, b, c))
+    }), { numRuns: 200 })
+    calls = 0
+    memo(4, 1, 1)
+    memo(4, 1, 1)
+    memo(5)
+    memo(4, 1, 1)
+    expect(calls).toBe(2)
+  })
+
+  it('the FDC energy integral asks each distinct flow once along the curve and equals the plain sum', () => {
+    // A curve held flat beyond its end nodes: the grid meets the same flow many times in a row.
+    const fdc = fdcFromPoints([{ exceedance: 10, flow: 30 }, { exceedance: 40, flow: 8 }, { exceedance: 60, flow: 8 }, { exceedance: 90, flow: 1.5 }])
+    const asked = new Map<number, number>()
+    const power = (q: number): number => {
+      asked.set(q, (asked.get(q) ?? 0) + 1)
+      return q > 2 ? 1000 * Math.sqrt(q) : 0
+    }
+    const e = annualEnergyFromFdc(fdc, power, { ratingW: 20000, availability: 0.9 })
+    expect([...asked.values()].every((n) => n === 1)).toBe(true)
+    const grid = exceedanceGrid(2000)
+    const mean = grid.reduce((s, p) => s + power(flowAtExceedance(fdc, p)), 0) / 2000
+    // E = A · 8760 h · mean power (FDC method, common practice, no source)
+    expect(e.annualEnergyMWh).toBe((mean * 8760 * 0.9) / 1e6)
+  })
+})
+
+describe('sorting a long record', () => {
+  it('puts the flows in the very order the built-in sort does, bit for bit', () => {
+    const flow = fc.oneof(
+      num(0, 1e6), num(0, 1e-300), fc.double({ min: 0, noNaN: true }),
+      fc.constantFrom(0, 0, 1, 2.5, 2.5, Number.MIN_VALUE, Number.MAX_VALUE, Number.POSITIVE_INFINITY),
+    )
+    fc.assert(fc.property(fc.array(flow, { minLength: 1000, maxLength: 3000 }), fc.boolean(), (xs, withNegativeZero) => {
+      const values = withNegativeZero ? [...xs, -0] : xs
+      const expected = Float64Array.from(values).sort()
+      const got = sortFlows(Float64Array.from(values))
+      // identity with Float64Array.prototype.sort, no outside source
+      expect(got.length).toBe(expected.length)
+      for (let i = 0; i < got.length; i++) if (!Object.is(got[i], expected[i])) expect([i, got[i]]).toEqual([i, expected[i]])
+    }), { numRuns: 40 })
+  })
+  it('sorts a sub-array in place without touching the buffer around it', () => {
+    const buf = new Float64Array(3000).map((_, i) => ((i * 7919) % 3001) / 7)
+    const view = buf.subarray(500, 2500)
+    const expected = Float64Array.from(view).sort()
+    const before = Float64Array.from(buf)
+    sortFlows(view)
+    expect(Array.from(view)).toEqual(Array.from(expected))
+    expect(Array.from(buf.subarray(0, 500))).toEqual(Array.from(before.subarray(0, 500)))
+    expect(Array.from(buf.subarray(2500))).toEqual(Array.from(before.subarray(2500)))
+  })
+})
+
+describe('assess keeps no state between calls', () => {
+  it('gives the same answer for an input before and after assessing others', () => {
+    fc.assert(fc.property(inputArb, inputArb, (a, b) => {
+      const first = assess(a)
+      assess(b)
+      // identity with the first run: the engine is deterministic, no outside source
+      expect(assess(a)).toStrictEqual(first)
+      expect(assess(structuredClone(a))).toStrictEqual(first)
+    }), { numRuns: 25 })
+  })
+})
