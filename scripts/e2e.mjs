@@ -1,24 +1,21 @@
 // The browser journeys (`tests/e2e/*.e2e.ts`), run by `npm test` after Vitest and by hand:
 //   node scripts/e2e.mjs                       every journey (needs a build: `npm run build`)
 //   node scripts/e2e.mjs tests/e2e/sites.e2e.ts  one journey
-// Each journey gets its own built server on a free 127.0.0.1 port, with a fresh temporary SQLite
-// file (loaded with the demo scenario by `npm run db:seed`) and uploads folder, so no journey sees
-// another's changes. The journey runs as its own `node --import tsx` process with GW_BASE_URL (and
+// Each journey gets its own built server (scripts/builtServer.mjs) on a free 127.0.0.1 port, with a
+// fresh temporary SQLite file (loaded with the demo scenario, as `npm run db:seed` does) and uploads
+// folder, so no journey sees another's changes. The journey runs as its own `node --import tsx` process with GW_BASE_URL (and
 // GW_DATABASE_PATH); its exit code is its result. Writes .reports/e2e.json for scripts/summarise.mjs.
 // Without Debian's chromium every journey counts as failed, so CI cannot pass without a browser;
 // GILLWATT_E2E=skip counts them as skipped instead (the closing line then says "N skipped").
-import { spawn, spawnSync } from 'node:child_process'
-import { accessSync, constants, existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs'
-import { createServer } from 'node:net'
-import { tmpdir } from 'node:os'
+import { spawn } from 'node:child_process'
+import { accessSync, constants, existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs'
 import { join, relative } from 'node:path'
+import { SERVER_ENTRY, startBuiltServer, stopProcess } from './builtServer.mjs'
 
 const ROOT = process.cwd()
 const CHROMIUM = process.env.CHROMIUM_PATH || '/usr/bin/chromium'
-const ENTRY = join(ROOT, '.output/server/index.mjs')
 const REPORT = '.reports/e2e.json'
 const JOURNEY_TIMEOUT_MS = Number(process.env.GILLWATT_E2E_TIMEOUT_MS) || 5 * 60_000
-const HEALTH_TIMEOUT_MS = 30_000
 const SESSION_PASSWORD = 'e2e-only-session-password-0123456789abcdef'
 
 const requested = process.argv.slice(2)
@@ -30,7 +27,7 @@ const journeys = requested.length
 const running = new Set()
 for (const sig of ['SIGINT', 'SIGTERM']) {
   process.on(sig, async () => {
-    await Promise.all([...running].map((child) => stop(child, 2000)))
+    await Promise.all([...running].map((child) => stopProcess(child, 2000)))
     process.exit(130)
   })
 }
@@ -56,90 +53,18 @@ function writeReport(results) {
   writeFileSync(REPORT, JSON.stringify(report, null, 2) + '\n')
 }
 
-const freePort = () =>
-  new Promise((resolve, reject) => {
-    const srv = createServer()
-    srv.unref()
-    srv.on('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address()
-      srv.close(() => resolve(port))
-    })
+/** A built server in its own process group on a fresh demo database (see builtServer.mjs), stopped by Ctrl+C too. */
+function startServer() {
+  return startBuiltServer({
+    prefix: 'gillwatt-e2e-',
+    seed: true,
+    sessionPassword: SESSION_PASSWORD,
+    detached: true,
+    onSpawn: (child) => {
+      running.add(child)
+      child.once('exit', () => running.delete(child))
+    },
   })
-
-/** Stops a child and everything in its process group: SIGTERM first, SIGKILL after `graceMs`. */
-async function stop(child, graceMs = 5000) {
-  if (child.exitCode !== null || child.signalCode !== null) return
-  const exited = new Promise((r) => child.once('exit', r))
-  const signal = (sig) => {
-    try {
-      process.kill(-child.pid, sig)
-    } catch {
-      child.kill(sig)
-    }
-  }
-  signal('SIGTERM')
-  await Promise.race([exited, new Promise((r) => setTimeout(r, graceMs))])
-  if (child.exitCode === null && child.signalCode === null) {
-    signal('SIGKILL')
-    await exited
-  }
-}
-
-/** Seeds a fresh database, starts the built server on it and waits for /api/health. */
-async function startServer(name) {
-  const dir = mkdtempSync(join(tmpdir(), 'gillwatt-e2e-'))
-  const port = await freePort()
-  const baseURL = `http://127.0.0.1:${port}`
-  const env = {
-    ...process.env,
-    NODE_ENV: 'production',
-    PORT: String(port),
-    HOST: '127.0.0.1',
-    NITRO_HOST: '127.0.0.1',
-    NITRO_PORT: String(port),
-    DATABASE_PATH: join(dir, 'e2e.sqlite'),
-    UPLOADS_DIR: join(dir, 'uploads'),
-    NUXT_SESSION_PASSWORD: SESSION_PASSWORD,
-    NUXT_PUBLIC_APP_URL: baseURL,
-    // No tile server (maps draw on a plain background) and no SMTP (mail stays in the outbox).
-    NUXT_PUBLIC_MAP_TILES_URL: '',
-    NUXT_PUBLIC_MAP_TILES_ATTRIBUTION: '',
-    SMTP_URL: '',
-  }
-  const seeded = spawnSync('npm', ['run', '--silent', 'db:seed'], { env, encoding: 'utf8' })
-  if (seeded.status !== 0) {
-    rmSync(dir, { recursive: true, force: true })
-    throw new Error(`npm run db:seed failed for ${name}:\n${seeded.stdout}${seeded.stderr}`)
-  }
-  let output = ''
-  const server = spawn(process.execPath, [ENTRY], { env, stdio: ['ignore', 'pipe', 'pipe'], detached: true })
-  running.add(server)
-  server.stdout.on('data', (d) => (output += d))
-  server.stderr.on('data', (d) => (output += d))
-  const close = async () => {
-    await stop(server)
-    running.delete(server)
-    rmSync(dir, { recursive: true, force: true })
-  }
-  const deadline = Date.now() + HEALTH_TIMEOUT_MS
-  for (;;) {
-    if (server.exitCode !== null) {
-      await close()
-      throw new Error(`the server for ${name} exited early:\n${output}`)
-    }
-    try {
-      if ((await fetch(`${baseURL}/api/health`)).ok) break
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > deadline) {
-      await close()
-      throw new Error(`the server for ${name} did not answer /api/health in ${seconds(HEALTH_TIMEOUT_MS)}:\n${output}`)
-    }
-    await new Promise((r) => setTimeout(r, 150))
-  }
-  return { baseURL, databasePath: env.DATABASE_PATH, serverOutput: () => output, close }
 }
 
 /** Runs one journey file as its own process; resolves with its exit code (or why it was stopped). */
@@ -154,7 +79,7 @@ function runJourney(file, server) {
     let timedOut = false
     const timer = setTimeout(() => {
       timedOut = true
-      stop(child)
+      stopProcess(child)
     }, JOURNEY_TIMEOUT_MS)
     child.on('error', (error) => {
       clearTimeout(timer)
@@ -191,7 +116,7 @@ if (process.env.GILLWATT_E2E === 'skip' || browserMissing) {
   writeReport(journeys.map((name) => ({ name, status: skip ? 'skipped' : 'failed', durationMs: 0, message: why })))
   process.exit(skip ? 0 : 1)
 }
-if (!existsSync(ENTRY)) {
+if (!existsSync(SERVER_ENTRY)) {
   const why = 'no built server in .output: run `npm run build` first (npm test builds for you)'
   log(`${journeys.length} browser journey(s) FAILED: ${why}`)
   writeReport(journeys.map((name) => ({ name, status: 'failed', durationMs: 0, message: why })))
@@ -203,7 +128,7 @@ for (const name of journeys) {
   log(`${name}: starting a server on a fresh demo database`)
   let server
   try {
-    server = await startServer(name)
+    server = await startServer()
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error)
     log(`${name} FAILED: ${message}`)
@@ -212,7 +137,7 @@ for (const name of journeys) {
   }
   log(`${name}: running against ${server.baseURL}`)
   const { code, why } = await runJourney(name, server)
-  const serverLog = server.serverOutput()
+  const serverLog = server.output()
   await server.close()
   const durationMs = Date.now() - t0
   if (code === 0) {

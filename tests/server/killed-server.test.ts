@@ -1,12 +1,12 @@
-import { spawn, type ChildProcess } from 'node:child_process'
-import { existsSync, mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
+import type { ChildProcess } from 'node:child_process'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import SQLite from 'better-sqlite3'
 import { afterAll, describe, expect, it } from 'vitest'
 import { backupDatabase, checkGillwattDatabase, restoreDatabase } from '../../db/backup'
 import { LATEST_MIGRATION } from '../../db/migrations'
+import { startBuiltServer } from '../../scripts/builtServer.mjs'
 import { Client, GOOD_PASSWORD, uniqueEmail } from './client'
 import { siteBody } from './sites-helpers'
 
@@ -22,51 +22,11 @@ afterAll(async () => {
   rmSync(dir, { recursive: true, force: true })
 })
 
-const freePort = () =>
-  new Promise<number>((resolve, reject) => {
-    const srv = createServer()
-    srv.unref()
-    srv.on('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as { port: number }
-      srv.close(() => resolve(port))
-    })
-  })
-
-/** Starts the built server on `databasePath` and waits for /api/health to answer 200. */
+/** Starts the built server on `databasePath` (the same file every time) and waits for /api/health. */
 async function start() {
-  const entry = join(process.cwd(), '.output/server/index.mjs')
-  if (!existsSync(entry)) throw new Error('No built server: run `npm run build` (npm test does it for you).')
-  const port = await freePort()
-  const baseURL = `http://127.0.0.1:${port}`
-  const proc = spawn(process.execPath, [entry], {
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      NITRO_HOST: '127.0.0.1',
-      DATABASE_PATH: databasePath,
-      UPLOADS_DIR: join(dir, 'uploads'),
-      NUXT_SESSION_PASSWORD: 'killed-server-test-session-password-0123456789',
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  })
-  running.add(proc)
-  let output = ''
-  proc.stdout?.on('data', (d) => (output += d))
-  proc.stderr?.on('data', (d) => (output += d))
-  for (let tries = 0; ; tries++) {
-    if (proc.exitCode !== null) throw new Error(`Server exited early:\n${output}`)
-    try {
-      const res = await fetch(`${baseURL}/api/health`)
-      if (res.ok) return { proc, baseURL, health: await res.json(), output: () => output }
-    } catch {
-      // not listening yet
-    }
-    if (tries > 200) throw new Error(`Server did not answer /api/health:\n${output}`)
-    await new Promise((r) => setTimeout(r, 150))
-  }
+  const server = await startBuiltServer({ dir, databasePath, sessionPassword: 'killed-server-test-session-password-0123456789', onSpawn: (proc) => running.add(proc) })
+  const health = await (await fetch(`${server.baseURL}/api/health`)).json()
+  return { proc: server.child, baseURL: server.baseURL, health }
 }
 
 /** Sends `signal` and resolves once the process has exited. */

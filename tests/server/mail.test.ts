@@ -1,11 +1,7 @@
-import { spawn, type ChildProcess } from 'node:child_process'
-import { existsSync, mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
-import { tmpdir } from 'node:os'
-import { join } from 'node:path'
 import Database from 'better-sqlite3'
 import { SMTPServer } from 'smtp-server'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { startBuiltServer, type BuiltServer } from '../../scripts/builtServer.mjs'
 import { Client, uniqueEmail } from './client'
 import { lastOutboxId, makePeople, outboxSince, siteWithAssessment } from './review-helpers'
 
@@ -72,67 +68,11 @@ interface Received {
   raw: string
 }
 
-const freePort = () =>
-  new Promise<number>((resolve, reject) => {
-    const srv = createServer()
-    srv.on('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as { port: number }
-      srv.close(() => resolve(port))
-    })
-  })
-
-/** Starts the built server like tests/server/global-setup.ts does, with extra environment. */
-async function startGillwatt(dir: string, env: Record<string, string>) {
-  const entry = join(process.cwd(), '.output/server/index.mjs')
-  if (!existsSync(entry)) throw new Error('No built server: run `npm run build` (npm test does it for you).')
-  const port = await freePort()
-  const baseURL = `http://127.0.0.1:${port}`
-  let output = ''
-  const proc = spawn(process.execPath, [entry], {
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      NITRO_HOST: '127.0.0.1',
-      DATABASE_PATH: join(dir, 'smtp.sqlite'),
-      UPLOADS_DIR: join(dir, 'uploads'),
-      NUXT_SESSION_PASSWORD: 'test-only-session-password-0123456789abcdef',
-      ...env,
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  })
-  proc.stdout?.on('data', (d) => (output += d))
-  proc.stderr?.on('data', (d) => (output += d))
-  const deadline = Date.now() + 30_000
-  for (;;) {
-    if (proc.exitCode !== null) throw new Error(`Server exited early:\n${output}`)
-    try {
-      if ((await fetch(`${baseURL}/api/health`)).ok) break
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > deadline) throw new Error(`Server did not answer /api/health in 30 s:\n${output}`)
-    await new Promise((r) => setTimeout(r, 150))
-  }
-  return { proc, baseURL, databasePath: join(dir, 'smtp.sqlite') }
-}
-
-async function stop(proc: ChildProcess | undefined) {
-  if (!proc || proc.exitCode !== null) return
-  const exited = new Promise((r) => proc.once('exit', r))
-  proc.kill('SIGTERM')
-  await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))])
-  if (proc.exitCode === null) proc.kill('SIGKILL')
-}
-
 describe('delivery through a real SMTP server', () => {
   const received: Received[] = []
   let smtp: SMTPServer
   let smtpPort: number
-  let app: Awaited<ReturnType<typeof startGillwatt>>
-  let dir: string
+  let app: BuiltServer
 
   beforeAll(async () => {
     smtp = new SMTPServer({
@@ -151,14 +91,16 @@ describe('delivery through a real SMTP server', () => {
     })
     await new Promise<void>((resolve) => smtp.listen(0, '127.0.0.1', () => resolve()))
     smtpPort = (smtp.server.address() as { port: number }).port
-    dir = mkdtempSync(join(tmpdir(), 'gillwatt-smtp-'))
-    app = await startGillwatt(dir, { SMTP_URL: `smtp://127.0.0.1:${smtpPort}`, NUXT_PUBLIC_APP_URL: 'https://gillwatt.test.example' })
+    app = await startBuiltServer({
+      prefix: 'gillwatt-smtp-',
+      sessionPassword: 'test-only-session-password-0123456789abcdef',
+      env: { SMTP_URL: `smtp://127.0.0.1:${smtpPort}`, NUXT_PUBLIC_APP_URL: 'https://gillwatt.test.example' },
+    })
   })
 
   afterAll(async () => {
-    await stop(app?.proc)
+    await app?.close()
     await new Promise<void>((resolve) => (smtp ? smtp.close(() => resolve()) : resolve()))
-    if (dir) rmSync(dir, { recursive: true, force: true })
   })
 
   it('delivers an invitation over SMTP and records when it was sent', async () => {

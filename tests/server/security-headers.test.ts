@@ -1,10 +1,6 @@
-import { spawn, type ChildProcess } from 'node:child_process'
 import { request as httpRequest } from 'node:http'
-import { mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
-import { tmpdir } from 'node:os'
-import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { startBuiltServer, type BuiltServer } from '../../scripts/builtServer.mjs'
 import { Client, GOOD_PASSWORD, signUp, uniqueEmail, type UploadFile } from './client'
 import { createSite, makeTeam } from './sites-helpers'
 
@@ -195,53 +191,17 @@ describe('session cookie', () => {
 })
 
 // A second built server with start-up settings the shared one lacks.
-const freePort = () =>
-  new Promise<number>((resolve, reject) => {
-    const srv = createServer()
-    srv.unref()
-    srv.on('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as { port: number }
-      srv.close(() => resolve(port))
-    })
-  })
-
-async function startServer(env: Record<string, string>) {
-  const dir = mkdtempSync(join(tmpdir(), 'gillwatt-sec-'))
-  const port = await freePort()
-  const baseURL = `http://127.0.0.1:${port}`
-  let output = ''
-  const child: ChildProcess = spawn(process.execPath, ['.output/server/index.mjs'], {
-    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), HOST: '127.0.0.1', NITRO_HOST: '127.0.0.1', DATABASE_PATH: join(dir, 'db.sqlite'), UPLOADS_DIR: join(dir, 'uploads'), NUXT_SESSION_PASSWORD: 'test-only-session-password-0123456789abcdef', ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  })
-  child.stdout?.on('data', (d) => (output += d))
-  child.stderr?.on('data', (d) => (output += d))
-  for (let tries = 0; ; tries++) {
-    if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`)
-    const up = await fetch(`${baseURL}/api/health`).then((r) => r.ok, () => false)
-    if (up) break
-    if (tries > 200) throw new Error(`server did not answer:\n${output}`)
-    await new Promise((r) => setTimeout(r, 150))
-  }
-  const stop = async () => {
-    const exited = new Promise((r) => child.once('exit', r))
-    child.kill('SIGTERM')
-    await exited
-    rmSync(dir, { recursive: true, force: true })
-  }
-  return { baseURL, stop, output: () => output }
-}
+const startServer = (env: Record<string, string>) => startBuiltServer({ prefix: 'gillwatt-sec-', sessionPassword: 'test-only-session-password-0123456789abcdef', env })
 
 describe('start-up switches', () => {
-  let tiles: Awaited<ReturnType<typeof startServer>>
-  let odd: Awaited<ReturnType<typeof startServer>>
+  let tiles: BuiltServer
+  let odd: BuiltServer
   beforeAll(async () => {
     tiles = await startServer({ NUXT_PUBLIC_MAP_TILES_URL: 'https://{s}.tiles.example:8443/{z}/{x}/{y}.png', NUXT_SESSION_COOKIE_SECURE: 'false' })
     odd = await startServer({ NUXT_PUBLIC_MAP_TILES_URL: "https://tiles-{s}.example/{z}/{x}/{y}.png'; script-src *" })
   })
   afterAll(async () => {
-    await Promise.all([tiles?.stop(), odd?.stop()])
+    await Promise.all([tiles?.close(), odd?.close()])
   })
 
   it('add the tile origin from NUXT_PUBLIC_MAP_TILES_URL to img-src, with {s} as a subdomain wildcard', async () => {
