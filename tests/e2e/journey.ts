@@ -1,8 +1,10 @@
 // What every browser journey shares: the server address, the demo password, screenshots, a page
 // that records every console error, page error and failed request, refusals provoked on purpose,
-// sign-in, and full page loads that wait for Nuxt's hydration.
+// sign-in, full page loads that wait for Nuxt's hydration, and the run of a journey itself.
+import assert from 'node:assert/strict'
+import { mkdirSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
-import type { Browser, Page } from 'playwright-core'
+import { chromium, type Browser, type Page } from 'playwright-core'
 
 export const BASE = process.env.GW_BASE_URL ?? 'http://localhost:3200'
 export const SHOTS = fileURLToPath(new URL('./screenshots/', import.meta.url))
@@ -106,4 +108,25 @@ export async function waitForChart(page: Page, selector: string, min = 500): Pro
     { canvas: `${selector} canvas`, min },
   )
   return (await handle.jsonValue()) as number
+}
+
+/**
+ * Runs a journey: launches headless Chromium (CHROMIUM_PATH, else Debian's), runs `steps`, closes
+ * the browser, then requires that nothing went wrong in any page and that every refusal provoked on
+ * purpose was seen. A failed step or check throws, so the journey's process exits non-zero.
+ */
+export async function runJourney(name: string, steps: (browser: Browser) => Promise<void>): Promise<void> {
+  mkdirSync(SHOTS, { recursive: true })
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  })
+  try {
+    await steps(browser)
+  } finally {
+    await browser.close()
+  }
+  assert.deepEqual(problems, [], 'no console errors, page errors or failed requests')
+  assert.deepEqual(unseenRefusals(), [], 'every refusal provoked on purpose was seen')
+  console.log(`${name} journey passed; screenshots in ${SHOTS}`)
 }

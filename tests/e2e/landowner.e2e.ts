@@ -9,11 +9,10 @@
 // playwright-core, saves screenshots to tests/e2e/screenshots/ and exits non-zero on the first failed
 // check or on any console error, page error or failed request.
 import assert from 'node:assert/strict'
-import { mkdirSync } from 'node:fs'
-import { chromium, type Browser, type Page } from 'playwright-core'
+import type { Browser, Page } from 'playwright-core'
 import { CAUTIONS } from '../../shared/utils/cautions'
 import { DEMO_REVIEW, DEMO_SUMMARY_TOKEN } from '../../db/demo-scenario'
-import { BASE, expectRefusal, openPage, problems, shot, SHOTS, signIn, unseenRefusals, waitForChart } from './journey'
+import { BASE, expectRefusal, openPage, runJourney, shot, signIn, waitForChart } from './journey'
 
 const ENGINEER = 'idris@tarnbeck.example'
 const SITE = 'Hollin Mill weir'
@@ -195,17 +194,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.equal(wrong?.status(), 404, 'the page for a wrong token answers 404, not 200')
 }
 
-mkdirSync(SHOTS, { recursive: true })
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-})
-try {
+await runJourney('landowner', async (browser) => {
   const ids = await demoIds(browser)
   await landownerJourney(browser, ids)
-  assert.deepEqual(problems, [], 'no console errors, page errors or failed requests')
-  assert.deepEqual(unseenRefusals(), [], 'every refusal provoked on purpose was seen')
-  console.log(`landowner journey passed; screenshots in ${SHOTS}`)
-} finally {
-  await browser.close()
-}
+})

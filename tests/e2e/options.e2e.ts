@@ -11,10 +11,10 @@
 // tests/e2e/screenshots/ and exits non-zero on the first failed check or on any console error, page
 // error or failed request.
 import assert from 'node:assert/strict'
-import { mkdirSync, readFileSync } from 'node:fs'
-import { chromium, type Browser, type Page } from 'playwright-core'
+import { readFileSync } from 'node:fs'
+import type { Browser, Page } from 'playwright-core'
 import { CAUTIONS } from '../../shared/utils/cautions'
-import { BASE, openPage, problems, shot, SHOTS, signIn, unseenRefusals, waitForChart } from './journey'
+import { BASE, openPage, runJourney, shot, signIn, waitForChart } from './journey'
 
 const ENGINEER = 'idris@tarnbeck.example'
 const SITE = 'Hollin Mill weir'
@@ -261,16 +261,6 @@ async function engineerJourney(browser: Browser) {
   await page.context().close()
 }
 
-mkdirSync(SHOTS, { recursive: true })
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-})
-try {
+await runJourney('options', async (browser) => {
   await engineerJourney(browser)
-  assert.deepEqual(problems, [], 'no console errors, page errors or failed requests')
-  assert.deepEqual(unseenRefusals(), [], 'every refusal provoked on purpose was seen')
-  console.log(`options journey passed; screenshots in ${SHOTS}`)
-} finally {
-  await browser.close()
-}
+})

@@ -10,10 +10,9 @@
 // Drives Debian's chromium through playwright-core, saves screenshots to tests/e2e/screenshots/ and
 // exits non-zero on the first failed check or on any console error, page error or failed request.
 import assert from 'node:assert/strict'
-import { mkdirSync } from 'node:fs'
 import Database from 'better-sqlite3'
-import { chromium, type Browser, type Page } from 'playwright-core'
-import { BASE, expectRefusal, openPage, problems, shot, SHOTS, signIn, unseenRefusals } from './journey'
+import type { Browser, Page } from 'playwright-core'
+import { BASE, expectRefusal, openPage, runJourney, shot, signIn } from './journey'
 
 const DB_PATH = process.env.GW_DATABASE_PATH ?? ''
 const REVIEW_PATH = process.env.GW_REVIEW_PATH ?? '/sites/{id}?tab=review'
@@ -264,12 +263,7 @@ async function resetJourney(browser: Browser) {
   await page.context().close()
 }
 
-mkdirSync(SHOTS, { recursive: true })
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-})
-try {
+await runJourney('review', async (browser) => {
   const probe = await openPage(browser, { clipboard: true })
   await signIn(probe, ENGINEER)
   const siteId = await siteIdOf(probe, SITE)
@@ -279,15 +273,4 @@ try {
   const token = await adminJourney(browser, siteId, url)
   await invitedJourney(browser, token, siteId)
   await resetJourney(browser)
-} finally {
-  await browser.close()
-}
-if (problems.length) {
-  console.error(problems.join('\n'))
-  process.exit(1)
-}
-if (unseenRefusals().length) {
-  console.error(`refusals provoked on purpose that the browser never logged: ${unseenRefusals().join(', ')}`)
-  process.exit(1)
-}
-console.log('review journey: every check passed, no console errors')
+})

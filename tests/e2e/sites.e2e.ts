@@ -6,9 +6,9 @@
 // Drives Debian's chromium through playwright-core, saves screenshots to tests/e2e/screenshots/ and
 // exits non-zero on the first failed check or on any console error, page error or failed request.
 import assert from 'node:assert/strict'
-import { mkdirSync, readFileSync } from 'node:fs'
-import { chromium, type Browser, type Page } from 'playwright-core'
-import { expectRefusal, openPage, problems, shot, SHOTS, signIn, unseenRefusals } from './journey'
+import { readFileSync } from 'node:fs'
+import type { Browser, Page } from 'playwright-core'
+import { expectRefusal, openPage, runJourney, shot, signIn } from './journey'
 
 const ENGINEER = 'idris@tarnbeck.example'
 const VIEWER = 'tobias@brackwin-farm.example'
@@ -367,18 +367,8 @@ async function adminRestores(browser: Browser, siteId: number) {
   await page.context().close()
 }
 
-mkdirSync(SHOTS, { recursive: true })
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-  args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-})
-try {
+await runJourney('sites', async (browser) => {
   const siteId = await engineerJourney(browser)
   await viewerJourney(browser)
   await adminRestores(browser, siteId)
-  assert.deepEqual(problems, [], 'no console errors, page errors or failed requests')
-  assert.deepEqual(unseenRefusals(), [], 'every refusal provoked on purpose was seen')
-  console.log(`sites journey passed; screenshots in ${SHOTS}`)
-} finally {
-  await browser.close()
-}
+})
