@@ -106,6 +106,9 @@ export default defineNuxtConfig({
   },
   nitro: {
     experimental: { tasks: false },
+    // Client files are stored gzip- and brotli-compressed beside the originals at build time and
+    // sent compressed to browsers that accept it.
+    compressPublicAssets: true,
     // Site attachments. server/utils/storage.ts re-mounts this on first use from UPLOADS_DIR as the
     // running server sees it, so this build-time value is only the development default.
     storage: {

@@ -38,10 +38,21 @@ describe('the built client files', () => {
     const files = filesUnder(CLIENT_DIR)
     expect(files.filter((f) => f.endsWith('.js')).length).toBeGreaterThan(10)
     const found: string[] = []
-    for (const file of files) {
+    for (const file of files.filter((f) => !/\.(gz|br)$/.test(f))) {
       for (const s of leaks(readFileSync(file, 'latin1'))) found.push(`${relative(CLIENT_DIR, file)}: ${s}`)
     }
     expect(found).toEqual([])
+  })
+
+  it('are sent compressed to a browser that accepts it, and plain to one that does not', async () => {
+    const page = await (await fetch(`${inject('baseURL')}/`, { headers: { accept: 'text/html' } })).text()
+    const script = /<script[^>]+src="(\/_nuxt\/[^"]+\.js)"/.exec(page)?.[1]
+    expect(script, 'the sign-in page loads a script from /_nuxt/').toBeTruthy()
+    const gz = await fetch(`${inject('baseURL')}${script}`, { headers: { 'accept-encoding': 'gzip' } })
+    expect(gz.headers.get('content-encoding')).toBe('gzip')
+    const plain = await fetch(`${inject('baseURL')}${script}`, { headers: { 'accept-encoding': 'identity' } })
+    expect(plain.headers.get('content-encoding')).toBeNull()
+    expect((await gz.text()).length).toBe((await plain.text()).length)
   })
 
   it('ship no source maps that would carry server code along', () => {
