@@ -1,3 +1,5 @@
+import { noteMapTeardown } from './mapTeardown'
+
 /**
  * True once Leaflet's module and its marker images are loaded and the component is still mounted.
  * Mount `<LMap>` behind it: LMap loads Leaflet and the three marker images itself and builds the map
@@ -19,14 +21,7 @@ export function useLeafletReady() {
   })
   onBeforeUnmount(() => {
     mounted = false
-    lastTeardown = performance.now()
+    noteMapTeardown()
   })
   return ready
-}
-
-let lastTeardown = Number.NEGATIVE_INFINITY
-
-/** True within a second after a map frame was torn down (see plugins/leafletTeardown.client.ts). */
-export function mapJustTornDown(): boolean {
-  return performance.now() - lastTeardown < 1000
 }
