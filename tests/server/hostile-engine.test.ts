@@ -2,7 +2,7 @@ import fc from 'fast-check'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { AssessInputSchema } from '../../shared/schemas/assess'
 import { SensitivityRequestSchema, SweepRequestSchema } from '../../shared/schemas/engineRequests'
-import { draft, numbersIn } from '../unit/engine/fixtures'
+import { draft, fieldOf, numbersIn, setAt } from '../unit/engine/fixtures'
 import { Client, signUp } from './client'
 import { bodiesFor, expectFieldRefusal, expectSafe, hostileValue, refusedBodies, show } from './hostile-arbitraries'
 import { createOption } from './options-helpers'
@@ -35,17 +35,6 @@ function brokenNumbers(v: unknown, nullable: Set<string>, path = '$', key = ''):
   return []
 }
 
-/** `$.a.b[2].c` → ['a', 'b', 2, 'c']. */
-const keysOf = (path: string) => path.replace(/^\$\.?/, '').split(/\.|\[(\d+)\]/).filter((k) => k !== undefined && k !== '').map((k) => (/^\d+$/.test(k) ? Number(k) : k))
-const fieldOf = (path: string) => keysOf(path).join('.')
-function setAt<T>(value: T, path: string, to: unknown): T {
-  const copy = structuredClone(value) as Record<string | number, unknown>
-  const keys = keysOf(path)
-  let at = copy
-  for (const k of keys.slice(0, -1)) at = at[k] as Record<string | number, unknown>
-  at[keys.at(-1)!] = to
-  return copy as T
-}
 
 /** The base input with its defaults filled in and every optional number present, so each can be moved. */
 const base = AssessInputSchema.parse({

@@ -64,3 +64,20 @@ export function expectInputError(fn: () => unknown, field: string): void {
   }
   throw new Error(`expected an EngineInputError on ${field}`)
 }
+
+/** `$.a.b[2].c` → ['a', 'b', 2, 'c']. */
+export const keysOf = (path: string): (string | number)[] =>
+  path.replace(/^\$\.?/, '').split(/\.|\[(\d+)\]/).filter((k) => k !== undefined && k !== '').map((k) => (/^\d+$/.test(k) ? Number(k) : k))
+
+/** The field name as the schema and the API print it: `option.air.pipeDiameter_m`, `hydrology.points.2.flow`. */
+export const fieldOf = (path: string) => keysOf(path).join('.')
+
+/** A deep copy of `value` with the number at `path` (as `numbersIn` names it) set to `to`. */
+export function setAt<T>(value: T, path: string, to: unknown): T {
+  const copy = structuredClone(value) as Record<string | number, unknown>
+  const keys = keysOf(path)
+  let at = copy
+  for (const k of keys.slice(0, -1)) at = at[k] as Record<string | number, unknown>
+  at[keys.at(-1)!] = to
+  return copy as T
+}

@@ -10,7 +10,7 @@ import { EngineInputError } from '../../../shared/engine/errors'
 import { sensitivity } from '../../../shared/engine/sensitivity'
 import { sweep } from '../../../shared/engine/sweep'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
-import { draft, numbersIn, yearOfDays } from './fixtures'
+import { draft, fieldOf, numbersIn, setAt, yearOfDays } from './fixtures'
 
 /** The values every numeric input is tried at. */
 const LIMIT_VALUES: readonly unknown[] = [
@@ -39,21 +39,6 @@ function record(): AssessInputDraft {
 
 const BASES: [string, AssessInputDraft][] = [['fdc', fullFdc()], ['record', record()]]
 
-/** `$.a.b[2].c` → ['a', 'b', 2, 'c']. */
-const keysOf = (path: string): (string | number)[] =>
-  path.replace(/^\$\.?/, '').split(/\.|\[(\d+)\]/).filter((k) => k !== undefined && k !== '').map((k) => (/^\d+$/.test(k) ? Number(k) : k))
-
-/** The field name as the schema and the API print it: `option.air.pipeDiameter_m`, `hydrology.points.2.flow`. */
-const fieldOf = (path: string) => keysOf(path).join('.')
-
-function setAt<T>(value: T, path: string, to: unknown): T {
-  const copy = structuredClone(value) as Record<string | number, unknown>
-  const keys = keysOf(path)
-  let at = copy
-  for (const k of keys.slice(0, -1)) at = at[k] as Record<string | number, unknown>
-  at[keys.at(-1)!] = to
-  return copy as T
-}
 
 /** Numeric inputs of a parsed base: every one, but of the 12 months only two and of the days only three. */
 function numericInputs(parsed: AssessInput): string[] {
