@@ -1,14 +1,14 @@
 // Properties of liquid water near atmospheric pressure, SI units, temperatures in °C.
-import { rememberLast } from './memo'
+import { rememberRecent } from './memo'
 import { RHO_CRIT_WATER, T_CRIT_WATER, T_ZERO_C } from './constants'
 
 /** Density of air-free water at 1 atm, kg/m³: Kell (1975) eq. 16, J. Chem. Eng. Data 20:97; valid 0–150 °C. */
-export const waterDensity = rememberLast(function waterDensity(tC: number): number {
+export const waterDensity = rememberRecent(function waterDensity(tC: number): number {
   const t = tC
   const num = 999.83952 + 16.945176 * t - 7.9870401e-3 * t ** 2 - 46.170461e-6 * t ** 3
     + 105.56302e-9 * t ** 4 - 280.54253e-12 * t ** 5
   return num / (1 + 16.87985e-3 * t)
-})
+}, 1)
 
 // IAPWS R12-08, eq. 11 (dilute-gas part) and eq. 12 (residual part) coefficients.
 const H0 = [1.67752, 2.20462, 0.6366564, -0.241605]
@@ -38,9 +38,9 @@ export function waterViscosityAt(tK: number, rho: number): number {
 }
 
 /** Dynamic viscosity of water at 1 atm, Pa·s: IAPWS R12-08 evaluated at the Kell (1975) density. */
-export const waterViscosity = rememberLast(function waterViscosity(tC: number): number {
+export const waterViscosity = rememberRecent(function waterViscosity(tC: number): number {
   return waterViscosityAt(tC + T_ZERO_C, waterDensity(tC))
-})
+}, 1)
 
 /** Kinematic viscosity ν = μ/ρ of water at 1 atm, m²/s (IAPWS R12-08 with Kell 1975). */
 export function waterKinematicViscosity(tC: number): number {
@@ -53,7 +53,7 @@ const N = [
 ] as const
 
 /** Saturation (vapour) pressure of water p_v(T), Pa: IAPWS-IF97 Region 4 saturation-pressure equation (eq. 30); valid 273.15–647.096 K. */
-export const vapourPressure = rememberLast(function vapourPressure(tC: number): number {
+export const vapourPressure = rememberRecent(function vapourPressure(tC: number): number {
   const T = tC + T_ZERO_C
   const th = T + N[8] / (T - N[9])
   const A = th * th + N[0] * th + N[1]
@@ -61,4 +61,4 @@ export const vapourPressure = rememberLast(function vapourPressure(tC: number): 
   const C = N[5] * th * th + N[6] * th + N[7]
   const p = (2 * C / (-B + Math.sqrt(B * B - 4 * A * C))) ** 4
   return p * 1e6
-})
+}, 1)
