@@ -4,8 +4,9 @@ import { noteMapTeardown } from './mapTeardown'
  * True once Leaflet's module and its marker images are loaded and the component is still mounted.
  * Mount `<LMap>` behind it: LMap loads Leaflet and the three marker images itself and builds the map
  * afterwards, so a map torn down while any of them was still arriving (a quick tab switch or
- * navigation) would find no container and throw. With all four already loaded, LMap's own loads
- * settle at once and it builds its map before any further click or navigation can unmount it.
+ * navigation) finds no container and throws. With all four loaded first, LMap's own loads settle
+ * soon after; the browser still settles them in a later task, so a teardown in that short gap can
+ * happen, and plugins/leafletTeardown.client.ts lets the errors it causes go.
  */
 export function useLeafletReady() {
   const ready = ref(false)
