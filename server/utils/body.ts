@@ -1,0 +1,154 @@
+import type { H3Event } from 'h3'
+import type { ZodType } from 'zod'
+
+// Request bodies, read with a limit counted on the bytes actually received. Every route that takes a
+// body names its limit where it reads it (one of BODY_LIMITS), so a body is only read after the
+// route has checked who is calling, and never held past its limit: a declared Content-Length over
+// the limit is refused unread, and a chunked body is cut off the moment it passes (413, with
+// `Connection: close` so nothing more is read from that connection). JSON routes take
+// `application/json` only. Multipart uploads have their own reader (server/utils/uploads.ts).
+
+/** The body limits routes choose from, in bytes. */
+export const BODY_LIMITS = {
+  /** Routes open to signed-out callers (sign-in, sign-up, password reset, invitations, links). */
+  public: 8 * 1024,
+  /** Ordinary signed-in forms: a site, an option, a comment, a review decision. */
+  form: 256 * 1024,
+  /** Engine inputs: an option with a daily flow record (a century of days fits well inside). */
+  engine: 8 * 1024 * 1024,
+} as const
+
+const megabytesOrKilobytes = (bytes: number) => (bytes >= 1024 * 1024 ? `${(bytes / 1048576).toFixed(0)} MB` : `${(bytes / 1024).toFixed(0)} kB`)
+
+/** 413 naming `what` and the limit. */
+export function bodyTooLarge(what: string, limit: number) {
+  return createError({
+    statusCode: 413,
+    statusMessage: 'Payload Too Large',
+    message: `${what}: is larger than the ${megabytesOrKilobytes(limit)} limit`,
+    data: { limitBytes: limit },
+  })
+}
+
+/**
+ * Ends reading from a request whose body went over its limit: the answer goes out with
+ * `Connection: close`, the stream stops flowing, and nothing more is buffered.
+ */
+export function stopReading(event: H3Event): void {
+  const req = event.node.req
+  if (!event.node.res.headersSent) event.node.res.setHeader('Connection', 'close')
+  req.removeAllListeners('data')
+  req.pause()
+  req.unpipe()
+}
+
+const RawBodySymbol = Symbol.for('h3RawBody')
+
+/**
+ * The raw body, at most `limit` bytes: undefined when there is none; 413 when the declared length or
+ * the bytes received pass the limit. h3's own readers see the same bytes afterwards.
+ */
+export function readBodyBytes(event: H3Event, limit: number, what = 'body'): Promise<Buffer | undefined> {
+  const req = event.node.req as typeof event.node.req & { [RawBodySymbol]?: Promise<Buffer | undefined> }
+  const cached = req[RawBodySymbol]
+  if (cached) return cached
+  const declared = Number(req.headers['content-length'] ?? NaN)
+  const chunked = /\bchunked\b/i.test(String(req.headers['transfer-encoding'] ?? ''))
+  if (!chunked && !(declared > 0)) return Promise.resolve(undefined)
+  if (Number.isFinite(declared) && declared > limit) {
+    stopReading(event)
+    return Promise.reject(bodyTooLarge(what, limit))
+  }
+  const promise = new Promise<Buffer | undefined>((resolve, reject) => {
+    const chunks: Buffer[] = []
+    let received = 0
+    let settled = false
+    const fail = (error: unknown) => {
+      if (settled) return
+      settled = true
+      reject(error)
+    }
+    req.on('data', (chunk: Buffer) => {
+      if (settled) return
+      received += chunk.length
+      if (received > limit) {
+        chunks.length = 0
+        stopReading(event)
+        fail(bodyTooLarge(what, limit))
+        return
+      }
+      chunks.push(chunk)
+    })
+    req.on('end', () => {
+      if (settled) return
+      settled = true
+      resolve(received === 0 ? undefined : Buffer.concat(chunks, received))
+    })
+    req.on('error', () => fail(createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${what}: the request ended before its body was complete` })))
+    req.on('aborted', () => fail(createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${what}: the request ended before its body was complete` })))
+  })
+  req[RawBodySymbol] = promise
+  return promise
+}
+
+/** True for `application/json`, with or without parameters such as `charset=utf-8`. */
+const isJsonType = (type: string) => /^application\/json\s*(;|$)/i.test(type.trim())
+
+/**
+ * The body as JSON text, at most `limit` bytes: 415 unless it is sent as `application/json`,
+ * undefined when there is no body. For routes that pass the text on (the engine's worker pool).
+ */
+export async function readJsonText(event: H3Event, limit: number): Promise<string | undefined> {
+  const type = String(event.node.req.headers['content-type'] ?? '')
+  const declared = Number(event.node.req.headers['content-length'] ?? NaN)
+  const chunked = /\bchunked\b/i.test(String(event.node.req.headers['transfer-encoding'] ?? ''))
+  const hasBody = chunked || declared > 0
+  if (hasBody && !isJsonType(type)) {
+    stopReading(event)
+    throw createError({
+      statusCode: 415,
+      statusMessage: 'Unsupported Media Type',
+      message: `body: send JSON with Content-Type: application/json (got ${type.split(';')[0]!.trim() || 'no type'})`,
+    })
+  }
+  const bytes = await readBodyBytes(event, limit)
+  if (!bytes) return undefined
+  const text = bytes.toString('utf8')
+  return text.trim() ? text : undefined
+}
+
+/** Keys refused anywhere in a JSON body: they could reach an object's prototype when copied. */
+const UNSAFE_KEYS = new Set(['__proto__', 'constructor', 'prototype'])
+
+/** Parses JSON text, refusing prototype keys; 400 naming the body when it cannot be read. */
+export function parseJsonBody(text: string): unknown {
+  try {
+    return JSON.parse(text, (key, value: unknown) => {
+      if (UNSAFE_KEYS.has(key)) throw new Error('unsafe key')
+      return value
+    })
+  } catch {
+    throw createError({
+      statusCode: 400,
+      statusMessage: 'Bad Request',
+      message: 'body: is not valid JSON, or holds a key such as "__proto__" or "constructor" that is refused',
+    })
+  }
+}
+
+/**
+ * Reads, parses and validates a JSON body of at most `limit` bytes (one of BODY_LIMITS): 415 for
+ * another content type, 413 past the limit, 400 for broken JSON or a field the schema refuses (the
+ * message names the field, as `validator` does). No body validates as `{}`.
+ */
+export async function readValidatedJson<T>(event: H3Event, schema: ZodType<T>, limit: number): Promise<T> {
+  const text = await readJsonText(event, limit)
+  const body = text === undefined ? undefined : parseJsonBody(text)
+  try {
+    return validator(schema, 'body')(body)
+  } catch (error) {
+    // The same 400 h3's readValidatedBody gives for a validator's error.
+    if (error instanceof InputError) throw createError({ statusCode: 400, statusMessage: 'Validation Error', message: error.message, data: { issues: error.issues } })
+    throw error
+  }
+}
