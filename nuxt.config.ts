@@ -35,6 +35,16 @@ export default defineNuxtConfig({
     smtpUrl: '',
     // From address of Gillwatt's e-mails (NUXT_MAIL_FROM).
     mailFrom: 'Gillwatt <no-reply@gillwatt.example>',
+    // Behind a reverse proxy, take the client's address and host from X-Forwarded-For / -Host
+    // (NUXT_TRUST_PROXY=true). Off by default: a direct client could otherwise pick its own address
+    // and escape the sign-in throttle.
+    trustProxy: false,
+    throttle: {
+      // Multiplies the allowance of the per-address throttles (NUXT_THROTTLE_ADDRESS_FACTOR), for
+      // sites where many people share one address (a company proxy). 1 keeps the defaults in
+      // server/utils/throttle.ts.
+      addressFactor: 1,
+    },
     public: {
       // Base of the links in e-mails and summary links (NUXT_PUBLIC_APP_URL).
       appUrl: 'http://localhost:3000',
@@ -98,7 +108,8 @@ export default defineNuxtConfig({
   },
   routeRules: {
     // JSON is never a document: an API response opened in a tab may load, run or frame nothing.
-    '/api/**': { headers: { 'Content-Security-Policy': "default-src 'none'; frame-ancestors 'none'" } },
+    // Nor is it kept by a browser or proxy cache: most answers are someone's own data.
+    '/api/**': { headers: { 'Content-Security-Policy': "default-src 'none'; frame-ancestors 'none'", 'Cache-Control': 'no-store' } },
   },
   typescript: { strict: true },
   vite: {

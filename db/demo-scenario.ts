@@ -25,6 +25,15 @@ export const DEMO_ACCOUNTS: readonly DemoAccount[] = [
   { name: 'Tobias Wren', email: 'tobias@brackwin-farm.example', role: 'viewer', story: 'landowner on the Brackwin Water' },
 ]
 
+/** When the demo accounts confirmed their addresses (invented). */
+export const DEMO_VERIFIED_AT = '2026-09-01T09:00:00.000Z'
+
+/**
+ * A new starter who has signed up but not yet opened the confirmation e-mail: signs in with the demo
+ * password, sees the "confirm your address" notice, and belongs to no organisation yet.
+ */
+export const DEMO_PENDING_ACCOUNT = { name: 'Nessa Quill', email: 'nessa@tarnbeck.example', story: 'graduate engineer starting at Tarn & Beck Renewables next month' } as const
+
 // ——— Sites on the (invented) Brackwin Water ———
 // Coordinates sit on real ground but name nothing real; every figure is invented but plausible.
 

@@ -10,6 +10,10 @@ export interface UsersTable {
   name: string
   password_hash: string
   created_at: CreatedAt
+  /** When the person proved the address is theirs (a link from a verification, reset or invitation e-mail); null until then. */
+  email_verified_at: ColumnType<string | null, string | null | undefined, string | null>
+  /** The organisation the person last chose; the app opens it by default. */
+  last_org_id: ColumnType<number | null, number | null | undefined, number | null>
 }
 
 export interface OrganisationsTable {
@@ -37,11 +41,34 @@ export interface AuditLogTable {
   created_at: CreatedAt
 }
 
-export interface SignInFailuresTable {
+/** A signed-in browser: the sealed cookie carries a random key whose hash is here (migration 0005). */
+export interface SessionsTable {
   id: Generated<number>
+  user_id: number
+  key_hash: string
+  created_at: CreatedAt
+  last_seen_at: ColumnType<string, string | undefined, string>
+  user_agent: ColumnType<string, string | undefined, string>
+}
+
+export interface EmailVerificationsTable {
+  id: Generated<number>
+  user_id: number
+  /** The address the link proves; a link for an address the account no longer has does nothing. */
   email: string
-  /** Unix time in milliseconds of the failed attempt. */
-  failed_at: number
+  token_hash: string
+  created_at: CreatedAt
+  expires_at: string
+  used_at: string | null
+}
+
+/** One counted attempt for the throttles (server/utils/throttle.ts). */
+export interface ThrottleHitsTable {
+  id: Generated<number>
+  bucket: string
+  key: string
+  /** Unix time in milliseconds. */
+  at: number
 }
 
 export interface SitesTable {
@@ -266,13 +293,6 @@ export interface PasswordResetsTable {
   used_at: string | null
 }
 
-export interface PasswordResetRequestsTable {
-  id: Generated<number>
-  email: string
-  /** Unix time in milliseconds. */
-  requested_at: number
-}
-
 export interface SummaryLinksTable {
   id: Generated<number>
   site_id: number
@@ -294,7 +314,9 @@ export interface Database {
   organisations: OrganisationsTable
   memberships: MembershipsTable
   audit_log: AuditLogTable
-  sign_in_failures: SignInFailuresTable
+  sessions: SessionsTable
+  email_verifications: EmailVerificationsTable
+  throttle_hits: ThrottleHitsTable
   sites: SitesTable
   flow_days: FlowDaysTable
   flow_records: FlowRecordsTable
@@ -309,7 +331,6 @@ export interface Database {
   outbox: OutboxTable
   invitations: InvitationsTable
   password_resets: PasswordResetsTable
-  password_reset_requests: PasswordResetRequestsTable
   summary_links: SummaryLinksTable
 }
 

@@ -5,7 +5,7 @@ import { assess } from '../shared/engine/assess'
 import { OptionInputSchema } from '../shared/schemas/option'
 import { buildAssessInput, insertAssessment, loadStoredRecord, storedOption } from './assessmentInput'
 import { seedReviewDemo } from './seedReview'
-import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_SITES, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
+import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_PENDING_ACCOUNT, DEMO_SITES, DEMO_VERIFIED_AT, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
 
 /** Hashes a password the same way the server does (nuxt-auth-utils' scrypt). */
 export type PasswordHasher = (password: string) => Promise<string>
@@ -29,7 +29,7 @@ export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Prom
       if (!user) {
         user = await trx
           .insertInto('users')
-          .values({ email: account.email, name: account.name, password_hash: passwordHash })
+          .values({ email: account.email, name: account.name, password_hash: passwordHash, email_verified_at: DEMO_VERIFIED_AT, last_org_id: org.id })
           .returning('id')
           .executeTakeFirstOrThrow()
         created++
@@ -39,6 +39,12 @@ export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Prom
         .values({ user_id: user.id, org_id: org.id, role: account.role })
         .onConflict((oc) => oc.columns(['user_id', 'org_id']).doNothing())
         .execute()
+    }
+    // A pending account: signed up, address not yet confirmed, so it belongs to no organisation
+    // and the app asks it to confirm its address.
+    if (!(await trx.selectFrom('users').select('id').where('email', '=', DEMO_PENDING_ACCOUNT.email).executeTakeFirst())) {
+      await trx.insertInto('users').values({ email: DEMO_PENDING_ACCOUNT.email, name: DEMO_PENDING_ACCOUNT.name, password_hash: passwordHash }).execute()
+      created++
     }
     const engineer = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!
     const engineerId = (await trx.selectFrom('users').select('id').where('email', '=', engineer.email).executeTakeFirstOrThrow()).id

@@ -1,7 +1,7 @@
 // Client-side guard: signed-out visitors go to the sign-in on "/", signed-in ones get their
 // organisations loaded. It only redirects; every API route checks access itself.
 const PUBLIC_PATHS = ['/', '/signup', '/reset-password']
-const PUBLIC_PREFIXES = ['/s/', '/invitations/', '/reset-password/']
+const PUBLIC_PREFIXES = ['/s/', '/invitations/', '/reset-password/', '/verify-email/']
 const isPublic = (path: string) => PUBLIC_PATHS.includes(path) || PUBLIC_PREFIXES.some((p) => path.startsWith(p))
 
 export default defineNuxtRouteMiddleware(async (to) => {

@@ -1,5 +1,6 @@
-// The signed-in person and the organisations they belong to, with their role in each.
+// The signed-in person, whether their address is confirmed, the organisation they last chose, and
+// the organisations they belong to with their role in each. Signed-in only.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
-  return { user, memberships: await membershipsOf(user.id) }
+  return meOf(user.id)
 })

@@ -1,9 +1,10 @@
 import type { H3Event } from 'h3'
 import type { Role } from '../../shared/utils/roles'
 
-/** The signed-in user, or a 401. */
+/** The signed-in user, or a 401. The session middleware has already checked the session is live. */
 export async function requireUser(event: H3Event) {
-  const { user } = await requireUserSession(event, { message: 'Sign in to continue' })
+  const { user } = await getUserSession(event)
+  if (!user || !currentSession(event)) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in to continue' })
   return user
 }
 

@@ -1,3 +1,4 @@
+import type { H3Event } from 'h3'
 import { sql } from 'kysely'
 import type { InvitationRow } from '../../db/schema'
 import type { InvitationDto, InvitationState } from '../../shared/schemas/invitation'
@@ -49,10 +50,18 @@ export function invitationDto(row: InvitationRow & { site_name: string | null; i
 /** The same neutral 404 for every token nobody issued. */
 export const unknownInvitation = () => createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This invitation link is not known. Check that the whole link was copied.' })
 
-/** The invitation a token stands for, whatever its state; a neutral 404 when none. */
-export async function invitationByToken(token: string): Promise<InvitationRow> {
+/**
+ * The invitation a token stands for, whatever its state; a neutral 404 when none. Unknown tokens
+ * count towards the per-address link throttle (429 once someone is guessing).
+ */
+export async function invitationByToken(event: H3Event, token: string): Promise<InvitationRow> {
+  const keys: [ThrottleBucket, string][] = [['link-address', clientAddress(event)]]
+  await assertNotThrottled(event, keys)
   const row = await useDb().selectFrom('invitations').selectAll().where('token_hash', '=', hashLinkToken(token)).executeTakeFirst()
-  if (!row || !linkTokenMatches(token, row.token_hash)) throw unknownInvitation()
+  if (!row || !linkTokenMatches(token, row.token_hash)) {
+    await recordHit(keys)
+    throw unknownInvitation()
+  }
   return row
 }
 

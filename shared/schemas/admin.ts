@@ -2,10 +2,10 @@
 // server/api/orgs/[orgId]/outbox.get.ts, server/api/orgs/[orgId]/audit.get.ts and the admin page.
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
-import { IdSchema } from './common'
+import { IdSchema, fromDigits } from './common'
 
 /** What each e-mail Gillwatt sends is about. */
-export const MAIL_KINDS = ['invitation', 'review-submitted', 'review-decided', 'comment-mention', 'password-reset'] as const
+export const MAIL_KINDS = ['invitation', 'review-submitted', 'review-decided', 'comment-mention', 'password-reset', 'verify-email', 'signup-exists'] as const
 export type MailKind = (typeof MAIL_KINDS)[number]
 
 export const MAIL_KIND_LABELS: Record<MailKind, string> = {
@@ -14,11 +14,13 @@ export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   'review-decided': 'Review decision',
   'comment-mention': 'Mentioned in a comment',
   'password-reset': 'Password reset',
+  'verify-email': 'Address confirmation',
+  'signup-exists': 'Sign-up with a taken address',
 }
 
 const page = {
-  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  page: fromDigits(z.number().int().min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
 }
 
 /** Query of GET /api/orgs/[orgId]/outbox: newest first. */

@@ -4,7 +4,8 @@ import { EmailSchema, NameSchema } from './common'
 
 export const PASSWORD_MIN = 10
 
-const NewPasswordSchema = z
+/** A new password, wherever one is chosen (sign-up, reset, invitation, change). */
+export const NewPasswordSchema = z
   .string({ error: 'is required' })
   .min(PASSWORD_MIN, `must be at least ${PASSWORD_MIN} characters`)
   .max(200, 'is too long (200 characters at most)')
@@ -36,8 +37,10 @@ export const NewOrganisationSchema = z.object({ name: NameSchema })
 /** Shape of GET /api/me. */
 export interface Me {
   user: { id: number; email: string; name: string }
+  /** When the address was confirmed; null until then (the account cannot join organisations). */
+  emailVerifiedAt: string | null
+  /** The organisation the person last chose, opened by default; null when none yet. */
+  lastOrgId: number | null
   memberships: { orgId: number; orgName: string; role: (typeof ROLES)[number] }[]
 }
 
-/** Body of POST /api/orgs/[orgId]/members: add a person who already has an account. */
-export const AddMemberSchema = z.object({ email: EmailSchema, role: RoleSchema })

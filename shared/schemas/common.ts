@@ -1,7 +1,14 @@
 import { z } from 'zod'
 
-/** A positive integer id taken from a route parameter or query string. */
-export const IdSchema = z.coerce.number({ error: 'must be a number' }).int('must be a whole number').positive('must be positive')
+/**
+ * A number from a route parameter or query string, written in plain digits: "12" becomes 12, while
+ * "0x1", "1e0", " 1" or "+1" stay text and fail the number check (`Number()` would take them all as 1).
+ * Numbers in JSON bodies pass through as they are.
+ */
+export const fromDigits = <T extends z.ZodType>(schema: T) => z.preprocess((v) => (typeof v === 'string' && /^\d{1,16}$/.test(v) ? Number(v) : v), schema)
+
+/** A positive integer id taken from a route parameter, query string or body. */
+export const IdSchema = fromDigits(z.number({ error: 'must be a whole number written in digits' }).int('must be a whole number').positive('must be positive'))
 
 /** E-mail addresses are compared trimmed and lower-cased. */
 export const EmailSchema = z
@@ -16,8 +23,8 @@ export const NameSchema = z.string({ error: 'is required' }).trim().min(1, 'is r
 
 /** Paging for list routes: page 1-based, size capped. */
 export const PageQuerySchema = z.object({
-  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  page: fromDigits(z.number().int().min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
 })
 
 export const OrgParamsSchema = z.object({ orgId: IdSchema })

@@ -4,8 +4,8 @@
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
 import type { Role } from '../utils/roles'
-import { PASSWORD_MIN, RoleSchema } from './auth'
-import { EmailSchema, IdSchema, NameSchema } from './common'
+import { NewPasswordSchema, RoleSchema } from './auth'
+import { EmailSchema, IdSchema, NameSchema, fromDigits } from './common'
 
 /** How long an invitation stays open. */
 export const INVITATION_TTL_DAYS = 7
@@ -27,12 +27,6 @@ export const INVITATION_STATE_LABELS: Record<InvitationState, string> = {
   revoked: 'Revoked',
   expired: 'Expired',
 }
-
-/** A password chosen on accepting an invitation or resetting (same rule as sign-up). */
-export const NewPasswordSchema = z
-  .string({ error: 'is required' })
-  .min(PASSWORD_MIN, `must be at least ${PASSWORD_MIN} characters`)
-  .max(200, 'is too long (200 characters at most)')
 
 /**
  * A token from a link as typed or pasted. Only its length is checked here: an unknown or malformed
@@ -56,8 +50,8 @@ export type InvitationInput = z.infer<typeof InvitationInputSchema>
 /** Query of GET /api/orgs/[orgId]/invitations. */
 export const InvitationListQuerySchema = z.object({
   state: z.enum(INVITATION_STATES, { error: `must be one of ${INVITATION_STATES.join(', ')}` }).optional(),
-  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  page: fromDigits(z.number().int().min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
 })
 
 // The three /api/invitations/… routes share one path segment, so they share its name (`key`): the

@@ -11,7 +11,7 @@ import {
   SweepGridSchema,
   type AssessInput,
 } from './assess'
-import { IdSchema, NameSchema } from './common'
+import { IdSchema, NameSchema, fromDigits } from './common'
 import { REVIEW_STATES, type ReviewState } from './review'
 
 export { EngineOptionSchema }
@@ -115,8 +115,8 @@ export const AssessmentExportParamsSchema = z
 
 /** Query of GET /api/options/[id]/assessments (newest first). */
 export const AssessmentListQuerySchema = z.object({
-  page: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  page: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
 })
 export type AssessmentListQuery = z.infer<typeof AssessmentListQuerySchema>
 
@@ -197,8 +197,8 @@ export type PortfolioSort = (typeof PORTFOLIO_SORTS)[number]
 
 /** Query of GET /api/orgs/[orgId]/portfolio. `format=csv` answers the same rows (all pages) as CSV. */
 export const PortfolioQuerySchema = z.object({
-  page: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  page: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
   sort: z.enum(PORTFOLIO_SORTS, { error: `must be one of ${PORTFOLIO_SORTS.join(', ')}` }).default('name'),
   dir: z.enum(['asc', 'desc'], { error: "must be 'asc' or 'desc'" }).default('asc'),
   /** Text to find in the site or river name (case-insensitive). */

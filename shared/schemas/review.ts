@@ -4,7 +4,7 @@
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
 import type { FlagId } from '../engine/assess'
-import { IdSchema } from './common'
+import { IdSchema, fromDigits } from './common'
 import type { ReservedFlow } from './site'
 import type { Role } from '../utils/roles'
 
@@ -83,15 +83,15 @@ export const CommentInputSchema = z.object({
   /** An assessment of this site the comment is about. */
   assessmentId: IdSchema.optional(),
   /** A month, 1 = January. */
-  month: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 to 12').max(12, 'must be 1 to 12').optional(),
+  month: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 to 12').max(12, 'must be 1 to 12')).optional(),
   flagId: z.enum(FLAG_IDS, { error: `must be one of ${FLAG_IDS.join(', ')}` }).optional(),
 })
 export type CommentInput = z.infer<typeof CommentInputSchema>
 
 /** Query of GET /api/sites/[id]/comments: oldest first, paged. */
 export const CommentListQuerySchema = z.object({
-  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(100),
+  page: fromDigits(z.number().int().min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(100),
 })
 
 /** A person as review records show them (never their e-mail). */

@@ -4,7 +4,7 @@
 import { z } from 'zod'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
 import { MAX_FLOW_M3S, areaRatioProblem } from './assess'
-import { IdSchema, NameSchema } from './common'
+import { IdSchema, NameSchema, fromDigits } from './common'
 
 const num = z.number({ error: 'must be a number' })
 const nonNegative = num.min(0, 'must be 0 or more')
@@ -214,8 +214,8 @@ export type SiteSort = (typeof SITE_SORTS)[number]
 
 /** Query of GET /api/orgs/[orgId]/sites. `deleted=only` lists the soft-deleted sites (admins only). */
 export const SiteListQuerySchema = z.object({
-  page: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  page: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
   sort: z.enum(SITE_SORTS, { error: `must be one of ${SITE_SORTS.join(', ')}` }).default('name'),
   dir: z.enum(['asc', 'desc'], { error: "must be 'asc' or 'desc'" }).default('asc'),
   /** Text to find in the site or river name (case-insensitive). */

@@ -3,7 +3,7 @@
 // server/api/orgs/[orgId]/summary-links*, server/api/public/summary/[token], the sharing form and /s/[token].
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
-import { IdSchema } from './common'
+import { IdSchema, fromDigits } from './common'
 import type { ReviewState } from './review'
 import type { Reach } from './site'
 
@@ -40,8 +40,8 @@ export const SummaryLinkParamsSchema = z.object({ id: IdSchema })
 /** Query of GET /api/orgs/[orgId]/summary-links. */
 export const SummaryLinkListQuerySchema = z.object({
   state: z.enum(['active', 'expired', 'revoked'], { error: 'must be one of active, expired, revoked' }).optional(),
-  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less').default(50),
+  page: fromDigits(z.number().int().min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(z.number().int().min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
 })
 
 export type SummaryLinkState = 'active' | 'expired' | 'revoked'

@@ -74,13 +74,24 @@ export const ACCESS_TABLE: Record<string, Row> = {
   'POST /api/auth/logout': PUBLIC,
   'POST /api/auth/password-reset': PUBLIC,
   'POST /api/auth/password-reset/:token': PUBLIC,
+  'POST /api/auth/verify-email/:token': PUBLIC,
   'GET /api/me': SIGNED_IN,
+  // The organisation opened by default: one of the caller's own (the single-site reviewer has none in A).
+  'PATCH /api/me': { admin: 'ok', engineer: 'ok', reviewer: 'ok', viewer: 'ok', siteReviewer: 404, outsider: 'ok', anonymous: 401 },
   'POST /api/orgs': SIGNED_IN,
+  'GET /api/account/sessions': SIGNED_IN,
+  'DELETE /api/account/sessions/:id': SIGNED_IN,
+  'POST /api/account/sessions/end-others': SIGNED_IN,
+  // Called with a wrong current password (400), so nobody's password changes.
+  'POST /api/account/password': { admin: '4xx-not-auth', engineer: '4xx-not-auth', reviewer: '4xx-not-auth', viewer: '4xx-not-auth', siteReviewer: '4xx-not-auth', outsider: '4xx-not-auth', anonymous: 401 },
+  // Every caller's address is confirmed already (409).
+  'POST /api/account/verification': { admin: '4xx-not-auth', engineer: '4xx-not-auth', reviewer: '4xx-not-auth', viewer: '4xx-not-auth', siteReviewer: '4xx-not-auth', outsider: '4xx-not-auth', anonymous: 401 },
 
   // ——— organisation A ———
   'GET /api/orgs/:orgId/members': ORG_READERS,
-  'POST /api/orgs/:orgId/members': ORG_ADMIN,
   'PATCH /api/orgs/:orgId/members/:userId': ORG_ADMIN,
+  // Removing someone else: admin only (a member leaving, their own id, is tested in account-takeover.test.ts).
+  'DELETE /api/orgs/:orgId/members/:userId': ORG_ADMIN,
   'GET /api/orgs/:orgId/audit': ORG_ADMIN,
   'GET /api/orgs/:orgId/outbox': ORG_ADMIN,
   'GET /api/orgs/:orgId/invitations': ORG_ADMIN,
@@ -149,7 +160,7 @@ export const ACCESS_TABLE: Record<string, Row> = {
 
   // ——— invitations (`:key` is the token for GET and accept, the id for DELETE) ———
   'GET /api/invitations/:key': PUBLIC,
-  // An invitation of a third organisation, so every caller (signed in or not) may accept one.
+  // An invitation of a third organisation to the caller's own address (a new one when signed out).
   'POST /api/invitations/:key/accept': PUBLIC,
   'DELETE /api/invitations/:key': ORG_ADMIN,
 }

@@ -2,7 +2,8 @@ import { readdirSync, readFileSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { ACCESS_TABLE, CALLERS, NOT_AUTH_4XX, type Caller, type Expected } from './access-matrix.table'
-import { Client, GOOD_PASSWORD, signUp, uniqueEmail, type Reply, type UploadFile } from './client'
+import { Client, GOOD_PASSWORD, addMember, signUp, uniqueEmail, type Reply, type UploadFile } from './client'
+import { latestToken } from './mailbox'
 import { createOption, optionBody } from './options-helpers'
 import { lastOutboxId, makePeople, outboxSince, siteWithAssessment, tokenFromMail } from './review-helpers'
 import { createSite, siteBody } from './sites-helpers'
@@ -162,10 +163,10 @@ beforeAll(async () => {
 
   // A member whose role the admin may set, so no caller's role changes; a person to sign in as when signed out.
   const extra = await signUp('am-extra')
-  must(await team.admin.client.post(`/api/orgs/${fx.orgA}/members`, { email: extra.email, role: 'viewer' }), 201, 'extra member')
+  await addMember(team.admin.client, fx.orgA, extra, 'viewer')
   fx.extraMemberId = extra.user.id
   fx.loginPerson = { email: (await signUp('am-login')).email }
-  // A third organisation whose invitations anyone may accept.
+  // A third organisation that invites each caller's own address.
   const orgC = await signUp('am-org-c')
   fx.orgCAdmin = orgC.client
   fx.orgC = orgC.orgId
@@ -286,14 +287,33 @@ const RECIPES: Record<string, Recipe> = {
     },
   },
   'POST /api/orgs': { prepare: (caller) => ({ body: { name: `Matrix org of ${caller}` } }) },
-  'POST /api/orgs/:orgId/members': {
-    prepare: async () => ({ body: { email: (await signUp('am-joiner')).email, role: 'viewer' } }),
+  'POST /api/auth/verify-email/:token': {
+    prepare: async () => {
+      const email = uniqueEmail('am-verify')
+      must(await new Client().post('/api/auth/signup', { name: 'Verifies', email, password: GOOD_PASSWORD, organisationName: 'Verify org' }), 202, 'sign up before verifying')
+      return { params: { token: latestToken(email, 'verify-email', '/verify-email') } }
+    },
   },
+  'PATCH /api/me': { prepare: (caller) => ({ body: { lastOrgId: caller === 'outsider' ? fx.orgB : fx.orgA } }) },
+  'GET /api/account/sessions': {},
+  'DELETE /api/account/sessions/:id': {
+    // A second session of the caller, ended from the first.
+    prepare: async (caller) => {
+      if (caller === 'anonymous') return { params: { id: 1 } }
+      must(await new Client().post('/api/auth/login', { email: who[caller].email, password: GOOD_PASSWORD }), 200, `second session of ${caller}`)
+      const list = must(await who[caller].client.get('/api/account/sessions'), 200, 'sessions').body.sessions as { id: number; current: boolean }[]
+      return { params: { id: list.find((s) => !s.current)!.id } }
+    },
+  },
+  'POST /api/account/sessions/end-others': {},
+  'POST /api/account/password': { prepare: () => ({ body: { currentPassword: 'not the current one', newPassword: 'whatever new passphrase' } }) },
+  'POST /api/account/verification': {},
   'PATCH /api/orgs/:orgId/members/:userId': { prepare: () => ({ body: { role: 'viewer' } }) },
   'POST /api/orgs/:orgId/invitations': { prepare: () => ({ body: { email: uniqueEmail('am-invited'), role: 'viewer' } }) },
   'POST /api/invitations/:key/accept': {
     prepare: async (caller) => {
-      const { token } = await invite(fx.orgCAdmin, fx.orgC, { email: uniqueEmail('am-org-c-guest'), role: 'viewer' })
+      const email = caller === 'anonymous' ? uniqueEmail('am-org-c-guest') : who[caller].email
+      const { token } = await invite(fx.orgCAdmin, fx.orgC, { email, role: 'viewer' })
       return { params: { key: token }, body: caller === 'anonymous' ? { name: 'New guest of C', password: GOOD_PASSWORD } : {} }
     },
   },
@@ -336,6 +356,14 @@ const RECIPES: Record<string, Recipe> = {
   'DELETE /api/attachments/:id': { prepare: async () => ({ params: { id: must(await uploadPng(), 201, 'attachment before delete').body.id } }) },
   'DELETE /api/summary-links/:id': {
     prepare: async () => ({ params: { id: must(await who.admin.client.post(`/api/sites/${fx.siteA1}/summary-links`, {}), 201, 'link before revoke').body.id } }),
+  },
+  'DELETE /api/orgs/:orgId/members/:userId': {
+    // A member added just for this call, so each caller removes someone who is still there.
+    prepare: async () => {
+      const person = await signUp('am-removable')
+      await addMember(who.admin.client, fx.orgA, person, 'viewer')
+      return { params: { userId: person.user.id } }
+    },
   },
   'DELETE /api/invitations/:key': {
     prepare: async () => ({ params: { key: (await invite(who.admin.client, fx.orgA, { email: uniqueEmail('am-revoked'), role: 'viewer' })).id } }),

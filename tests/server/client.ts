@@ -1,4 +1,5 @@
 import { inject } from 'vitest'
+import { latestToken } from './mailbox'
 
 export interface Reply<T = any> {
   status: number
@@ -10,6 +11,18 @@ export interface Reply<T = any> {
 export class Client {
   private cookies = new Map<string, string>()
   constructor(readonly baseURL = inject('baseURL')) {}
+
+  /** The Cookie header this client sends. */
+  cookieHeader(): string {
+    return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
+  }
+
+  /** Another client holding a copy of this one's cookies, as someone who copied them would. */
+  copy(): Client {
+    const other = new Client(this.baseURL)
+    for (const [k, v] of this.cookies) other.cookies.set(k, v)
+    return other
+  }
 
   async request<T = any>(method: string, path: string, body?: unknown, init: RequestInit = {}): Promise<Reply<T>> {
     const headers = new Headers(init.headers)
@@ -80,11 +93,33 @@ export const uniqueEmail = (tag: string) => `${tag}-${Date.now().toString(36)}-$
 
 export const GOOD_PASSWORD = 'correct horse battery'
 
-/** Signs up a fresh person with their own organisation; returns the signed-in client. */
-export async function signUp(tag = 'person') {
-  const client = new Client()
+/**
+ * Signs up a fresh person with their own organisation, confirms their address with the link from
+ * the outbox (unless `verify` is false: the outbox read is the shared test server's, so a person on
+ * another server stays unconfirmed), and signs them in; returns the signed-in client.
+ */
+export async function signUp(tag = 'person', { verify = true, baseURL }: { verify?: boolean; baseURL?: string } = {}) {
+  const client = new Client(baseURL)
   const email = uniqueEmail(tag)
   const res = await client.post('/api/auth/signup', { name: `Test ${tag}`, email, password: GOOD_PASSWORD, organisationName: `Org of ${tag}` })
-  if (res.status !== 201) throw new Error(`signup failed: ${res.status} ${JSON.stringify(res.body)}`)
-  return { client, email, user: res.body.user as { id: number }, orgId: res.body.memberships[0].orgId as number }
+  if (res.status !== 202) throw new Error(`signup failed: ${res.status} ${JSON.stringify(res.body)}`)
+  if (verify) {
+    const verified = await client.post(`/api/auth/verify-email/${latestToken(email, 'verify-email', '/verify-email')}`)
+    if (verified.status !== 200) throw new Error(`verification failed: ${verified.status} ${JSON.stringify(verified.body)}`)
+  }
+  const login = await client.post('/api/auth/login', { email, password: GOOD_PASSWORD })
+  if (login.status !== 200) throw new Error(`sign-in after signup failed: ${login.status} ${JSON.stringify(login.body)}`)
+  return { client, email, user: login.body.user as { id: number }, orgId: login.body.memberships[0].orgId as number }
+}
+
+/**
+ * Brings a person into an organisation the only way there is: an admin invites their address, and
+ * they accept the e-mailed link while signed in. Returns the acceptance.
+ */
+export async function addMember(admin: Client, orgId: number, person: { client: Client; email: string }, role: string) {
+  const invited = await admin.post(`/api/orgs/${orgId}/invitations`, { email: person.email, role })
+  if (invited.status !== 201) throw new Error(`invitation failed: ${invited.status} ${JSON.stringify(invited.body)}`)
+  const accepted = await person.client.post(`/api/invitations/${latestToken(person.email, 'invitation', '/invitations')}/accept`)
+  if (accepted.status !== 200) throw new Error(`accepting failed: ${accepted.status} ${JSON.stringify(accepted.body)}`)
+  return accepted.body
 }

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { Client, signUp } from './client'
+import { Client, addMember, signUp } from './client'
 import { createAssessment, createOption } from './options-helpers'
 import { createSite, makeTeam } from './sites-helpers'
 
@@ -15,8 +15,8 @@ beforeAll(async () => {
   north = await makeTeam('compare-north')
   south = await makeTeam('compare-south')
   const person = await signUp('compare-both')
-  expect((await north.admin.post(`/api/orgs/${north.orgId}/members`, { email: person.email, role: 'viewer' })).status).toBe(201)
-  expect((await south.admin.post(`/api/orgs/${south.orgId}/members`, { email: person.email, role: 'reviewer' })).status).toBe(201)
+  await addMember(north.admin, north.orgId, person, 'viewer')
+  await addMember(south.admin, south.orgId, person, 'reviewer')
   both = person.client
   const n1 = await createSite(north.engineer, north.orgId, { name: 'North weir' })
   const n2 = await createSite(north.engineer, north.orgId, { name: 'North drop' })

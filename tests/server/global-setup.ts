@@ -18,7 +18,10 @@ export async function setup(project: TestProject) {
     prefix: 'gillwatt-test-',
     sessionPassword: 'test-only-session-password-0123456789abcdef',
     // Links in mail and summary links keep nuxt.config's http://localhost:3000, which the tests expect.
-    env: { NUXT_PUBLIC_APP_URL: undefined },
+    // The tests sign up hundreds of people from one address: the per-address throttles get room
+    // (tests/server/throttle.test.ts checks them on a server of its own), and X-Forwarded-For is
+    // trusted so a test can stand for several client addresses.
+    env: { NUXT_PUBLIC_APP_URL: undefined, NUXT_TRUST_PROXY: 'true', NUXT_THROTTLE_ADDRESS_FACTOR: '1000' },
   })
   project.provide('baseURL', server.baseURL)
   project.provide('databasePath', server.databasePath)

@@ -26,7 +26,9 @@ describe('hostile request bodies', () => {
       ['POST', '/api/auth/signup'],
       ['POST', '/api/auth/login'],
       ['POST', '/api/orgs'],
-      ['POST', `/api/orgs/${orgId}/members`],
+      ['POST', `/api/orgs/${orgId}/invitations`],
+      ['PATCH', '/api/me'],
+      ['POST', '/api/account/password'],
       ['PATCH', `/api/orgs/${orgId}/members/${userId}`],
     ]
     await fc.assert(
@@ -46,11 +48,15 @@ describe('hostile request bodies', () => {
 describe('bodies that are not JSON at all', () => {
   it('are refused with a 400 naming the body, before any route reads them', async () => {
     const client = new Client()
-    for (const text of ['{"email": ', '{"__proto__": {"admin": true}, "email": "a@b.example"}', '{"constructor": {"prototype": {}}}', '12345678901234567890']) {
+    for (const text of ['{"email": ', '{"__proto__": {"admin": true}, "email": "a@b.example"}', '{"constructor": {"prototype": {}}}']) {
       const res = await client.request('POST', '/api/auth/login', text)
       expect(res.status, text).toBe(400)
       expect(res.body.message, text).toMatch(/^body: is not valid JSON/)
     }
+    // Valid JSON of the wrong shape is the schema's to refuse, naming the body.
+    const number = await client.request('POST', '/api/auth/login', '12345678901234567890')
+    expect(number.status).toBe(400)
+    expect(number.body.message).toMatch(/^body: /)
     // A good body still reaches the route, whose own checks answer.
     const good = await client.request('POST', '/api/auth/login', JSON.stringify({ email: 'nobody@nowhere.example', password: 'wrong-password-123' }))
     expect(good.status).toBe(401)

@@ -125,27 +125,26 @@ describe('opening and accepting an invitation', () => {
     expect(list.body.invitations.find((i: { id: number }) => i.id === invitation.id).state).toBe('accepted')
   })
 
-  it('links an existing account: by its password when signed out, or the signed-in one', async () => {
+  it('links an existing account once it is signed in as the invited address, and no other', async () => {
     const existing = await signUp('existing')
     const { token } = await invite({ email: existing.email, role: 'viewer' })
     expect((await new Client().get(`/api/invitations/${token}`)).body.needs).toBe('sign-in')
+    // Signed out, even the right password does not accept: sign in first.
     const stranger = new Client()
-    const noPw = await stranger.post(`/api/invitations/${token}/accept`, {})
-    expect(noPw.status).toBe(422)
-    expect(noPw.body.message).toMatch(/^password:/)
-    const wrong = await stranger.post(`/api/invitations/${token}/accept`, { password: 'not the right one' })
-    expect(wrong.status).toBe(401)
-    const ok = await stranger.post(`/api/invitations/${token}/accept`, { password: GOOD_PASSWORD })
+    const signedOut = await stranger.post(`/api/invitations/${token}/accept`, { password: GOOD_PASSWORD })
+    expect(signedOut.status).toBe(401)
+    expect(signedOut.body.message).toContain(existing.email)
+    // Another signed-in account is refused, naming the invited address.
+    const other = await signUp('signedin')
+    const refused = await other.client.post(`/api/invitations/${token}/accept`, {})
+    expect(refused.status).toBe(403)
+    expect(refused.body.message).toMatch(new RegExp(`^invitation: this invitation is for ${existing.email.replace(/[.+]/g, '\\$&')}`))
+    // The invited account, signed in, joins.
+    const ok = await existing.client.post(`/api/invitations/${token}/accept`, {})
     expect(ok.status).toBe(200)
     expect(ok.body).toMatchObject({ created: false, role: 'viewer', user: { id: existing.user.id } })
-
-    const signedIn = await signUp('signedin')
-    const second = await invite({ email: uniqueEmail('other-address'), role: 'reviewer' })
-    const linked = await signedIn.client.post(`/api/invitations/${second.token}/accept`, {})
-    expect(linked.status).toBe(200)
-    expect(linked.body).toMatchObject({ created: false, user: { id: signedIn.user.id } })
-    const me = await signedIn.client.get('/api/me')
-    expect(me.body.memberships.map((m: { orgId: number; role: string }) => `${m.orgId}:${m.role}`)).toContain(`${team.orgId}:reviewer`)
+    const me = await existing.client.get('/api/me')
+    expect(me.body.memberships.map((m: { orgId: number; role: string }) => `${m.orgId}:${m.role}`)).toContain(`${team.orgId}:viewer`)
   })
 
   it('grants one site to a single-site reviewer, without membership', async () => {

@@ -76,8 +76,10 @@ describe('a server killed mid-write', () => {
     const email = uniqueEmail('killed')
     const client = new Client(first.baseURL)
     const signup = await client.post('/api/auth/signup', { name: 'Killed server', email, password: GOOD_PASSWORD, organisationName: 'Tarn & Beck Renewables' })
-    expect(signup.status).toBe(201)
-    const orgId = signup.body.memberships[0].orgId as number
+    expect(signup.status).toBe(202)
+    const login = await client.post('/api/auth/login', { email, password: GOOD_PASSWORD })
+    expect(login.status).toBe(200)
+    const orgId = login.body.memberships[0].orgId as number
     const created = await client.post(`/api/orgs/${orgId}/sites`, siteBody({ name: 'Hollin weir' }))
     expect(created.status).toBe(201)
     const site = created.body as { id: number; version: number }

@@ -49,6 +49,20 @@ describe('headers on server-rendered pages', () => {
     }
   })
 
+  it('never send the nonce placeholder unfilled, also on a redirect', async () => {
+    const { client } = await signUp('sec-redirect')
+    const login = await client.get('/api/me')
+    expect(login.status).toBe(200)
+    const cookie = client.cookieHeader()
+    // Signed in, /signup sends the visitor home: a redirect rendered without the page's HTML.
+    const redirected = await page('/signup', cookie)
+    expect(redirected.status).toBe(302)
+    expect(redirected.headers.get('content-security-policy')).toBeTruthy()
+    expect(redirected.headers.get('content-security-policy')).not.toContain('{{nonce}}')
+    const rendered = await page('/account', cookie)
+    expect(scriptNonce(parseCsp(rendered.headers.get('content-security-policy')))).toMatch(/^[A-Za-z0-9+/=_-]{16,}$/)
+  })
+
   it('lock down framing, plugins, base and forms, allow the worker, and load nothing from other origins', async () => {
     const { headers } = await page('/')
     const csp = parseCsp(headers.get('content-security-policy'))
@@ -171,12 +185,14 @@ describe('session cookie', () => {
     const client = new Client()
     const email = uniqueEmail('sec-cookie')
     const signup = await client.post('/api/auth/signup', { name: 'Cookie Person', email, password: GOOD_PASSWORD, organisationName: 'Cookie org' })
-    expect(signup.status).toBe(201)
-    const login = await new Client().post('/api/auth/login', { email, password: GOOD_PASSWORD })
+    expect(signup.status).toBe(202)
+    // Sign-up itself signs nobody in (its answer must not tell a taken address from a new one).
+    expect(signup.headers.getSetCookie()).toEqual([])
+    const login = await client.post('/api/auth/login', { email, password: GOOD_PASSWORD })
     expect(login.status).toBe(200)
     const logout = await client.post('/api/auth/logout')
     expect(logout.status).toBe(200)
-    for (const [what, res] of [['sign-up', signup], ['sign-in', login], ['sign-out', logout]] as const) {
+    for (const [what, res] of [['sign-in', login], ['sign-out', logout]] as const) {
       const cookies = res.headers.getSetCookie()
       expect(cookies.length, what).toBeGreaterThan(0)
       for (const c of cookies) {
@@ -221,8 +237,11 @@ describe('start-up switches', () => {
   })
 
   it('drop Secure from the session cookie with NUXT_SESSION_COOKIE_SECURE=false, keeping HttpOnly and SameSite', async () => {
-    const res = await new Client(tiles.baseURL).post('/api/auth/signup', { name: 'Plain Http', email: uniqueEmail('sec-plain'), password: GOOD_PASSWORD, organisationName: 'Plain org' })
-    expect(res.status).toBe(201)
+    const plain = new Client(tiles.baseURL)
+    const email = uniqueEmail('sec-plain')
+    expect((await plain.post('/api/auth/signup', { name: 'Plain Http', email, password: GOOD_PASSWORD, organisationName: 'Plain org' })).status).toBe(202)
+    const res = await plain.post('/api/auth/login', { email, password: GOOD_PASSWORD })
+    expect(res.status).toBe(200)
     const [cookie] = res.headers.getSetCookie()
     expect(cookie).toMatch(/^gillwatt-session=/)
     expect(cookie).not.toMatch(/;\s*Secure/i)

@@ -1,5 +1,5 @@
 import { expect } from 'vitest'
-import { Client, signUp } from './client'
+import { Client, addMember, signUp } from './client'
 
 /** A valid body for POST /api/orgs/[orgId]/sites; `over` replaces top-level fields. */
 export function siteBody(over: Record<string, unknown> = {}) {
@@ -28,8 +28,7 @@ export async function makeTeam(tag: string) {
   const members = {} as Record<Member, Client>
   for (const role of ['engineer', 'reviewer', 'viewer'] as const) {
     const person = await signUp(`${tag}-${role}`)
-    const added = await owner.client.post(`/api/orgs/${owner.orgId}/members`, { email: person.email, role })
-    expect(added.status).toBe(201)
+    await addMember(owner.client, owner.orgId, person, role)
     members[role] = person.client
   }
   const outsider = await signUp(`${tag}-outsider`)

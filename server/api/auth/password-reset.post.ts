@@ -4,10 +4,16 @@ import { PASSWORD_RESET_TTL_MINUTES, PasswordResetRequestSchema, passwordResetPa
 const MESSAGE = `If an account uses that e-mail, we have sent it a link to choose a new password. The link works once, for ${PASSWORD_RESET_TTL_MINUTES} minutes.`
 
 // Asks for a password-reset link. Always 202 with the same words, whether or not the account
-// exists; throttled per e-mail like sign-in (429, again the same for every e-mail).
+// exists. Open to anyone: small body, throttled per e-mail and per client address (429, again the
+// same for every e-mail).
 export default defineEventHandler(async (event) => {
-  const { email } = await readValidatedBody(event, validator(PasswordResetRequestSchema, 'body'))
-  await recordResetRequest(event, email)
+  const { email } = await readValidatedJson(event, PasswordResetRequestSchema, BODY_LIMITS.public)
+  const keys: [ThrottleBucket, string][] = [
+    ['password-reset-email', email],
+    ['password-reset-address', clientAddress(event)],
+  ]
+  await assertNotThrottled(event, keys)
+  await recordHit(keys)
   const db = useDb()
   const user = await db.selectFrom('users').select(['id', 'name', 'email']).where('email', '=', email).executeTakeFirst()
   if (user) {

@@ -3,7 +3,7 @@ import { NewOrganisationSchema } from '../../../shared/schemas/auth'
 // A signed-in person starts a further organisation and becomes its admin.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
-  const { name } = await readValidatedBody(event, validator(NewOrganisationSchema, 'body'))
+  const { name } = await readValidatedJson(event, NewOrganisationSchema, BODY_LIMITS.form)
   const org = await useDb().transaction().execute(async (trx) => {
     const org = await trx.insertInto('organisations').values({ name }).returning(['id', 'name']).executeTakeFirstOrThrow()
     await trx.insertInto('memberships').values({ user_id: user.id, org_id: org.id, role: 'admin' }).execute()

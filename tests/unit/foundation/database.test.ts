@@ -18,7 +18,7 @@ describe('migrations', () => {
     expect(await currentMigration(db)).toBeNull()
     expect(await migrateToLatest(db)).toBe(LATEST_MIGRATION)
     const tables = await sql<{ name: string }>`select name from sqlite_master where type = 'table' and name not like 'kysely%' and name not like 'sqlite%' order by name`.execute(db)
-    expect(tables.rows.map((r) => r.name)).toEqual(expect.arrayContaining(['audit_log', 'memberships', 'organisations', 'sign_in_failures', 'users']))
+    expect(tables.rows.map((r) => r.name)).toEqual(expect.arrayContaining(['audit_log', 'memberships', 'organisations', 'sessions', 'throttle_hits', 'users']))
     for (const name of Object.keys(migrations).reverse()) await migrations[name]!.down!(db as never)
     const left = await sql<{ name: string }>`select name from sqlite_master where type = 'table' and name not like 'kysely%' and name not like 'sqlite%'`.execute(db)
     expect(left.rows).toEqual([])

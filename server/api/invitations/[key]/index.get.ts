@@ -6,7 +6,7 @@ import { ROLE_LABELS } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event): Promise<InvitationPublicDto> => {
   setResponseHeaders(event, { 'Cache-Control': 'no-store', 'Referrer-Policy': 'no-referrer' })
   const { token } = await getValidatedRouterParams(event, validator(InvitationTokenParamsSchema, 'params'))
-  const row = await invitationByToken(token)
+  const row = await invitationByToken(event, token)
   assertInvitationOpen(row)
   const db = useDb()
   const [org, site, inviter, account] = await Promise.all([

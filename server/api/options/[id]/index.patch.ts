@@ -8,7 +8,7 @@ import { EDITOR_ROLES } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(OptionParamsSchema, 'params'))
   const { user, site } = await requireOption(event, id, EDITOR_ROLES)
-  const { version, ...patch } = await readValidatedBody(event, validator(OptionPatchSchema, 'body'))
+  const { version, ...patch } = await readValidatedJson(event, OptionPatchSchema, BODY_LIMITS.form)
   const changed = Object.keys(patch).filter((k) => patch[k as keyof typeof patch] !== undefined)
   const updated = await useDb()
     .updateTable('options')

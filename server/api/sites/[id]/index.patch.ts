@@ -7,7 +7,7 @@ import { EDITOR_ROLES } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
-  const { version, ...patch } = await readValidatedBody(event, validator(SitePatchSchema, 'body'))
+  const { version, ...patch } = await readValidatedJson(event, SitePatchSchema, BODY_LIMITS.form)
   const changed = Object.keys(patch).filter((k) => patch[k as keyof typeof patch] !== undefined)
   const updated = await useDb()
     .updateTable('sites')

@@ -8,7 +8,7 @@ const Params = z.object({ orgId: IdSchema, userId: IdSchema })
 export default defineEventHandler(async (event) => {
   const { orgId, userId } = await getValidatedRouterParams(event, validator(Params, 'params'))
   const { user } = await requireRole(event, orgId, ['admin'])
-  const { role } = await readValidatedBody(event, validator(MemberRoleSchema, 'body'))
+  const { role } = await readValidatedJson(event, MemberRoleSchema, BODY_LIMITS.form)
   const db = useDb()
   const result = await db.transaction().execute(async (trx) => {
     const current = await trx.selectFrom('memberships').select('role').where('org_id', '=', orgId).where('user_id', '=', userId).executeTakeFirst()

@@ -6,7 +6,7 @@ import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { orgId } = await getValidatedRouterParams(event, validator(OrgParamsSchema, 'params'))
   const { user } = await requireRole(event, orgId, EDITOR_ROLES)
-  const input = await readValidatedBody(event, validator(SiteInputSchema, 'body'))
+  const input = await readValidatedJson(event, SiteInputSchema, BODY_LIMITS.form)
   const cols = siteColumns(input)
   const site = await useDb()
     .insertInto('sites')

@@ -6,7 +6,7 @@ import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
-  const input = await readValidatedBody(event, validator(OptionInputSchema, 'body'))
+  const input = await readValidatedJson(event, OptionInputSchema, BODY_LIMITS.form)
   const cols = optionColumns(input)
   const row = await useDb()
     .insertInto('options')

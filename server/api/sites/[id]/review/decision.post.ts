@@ -7,7 +7,7 @@ import { REVIEW_DECIDE_ROLES, REVIEW_STATE_LABELS, ReviewDecisionSchema, ReviewP
 export default defineEventHandler(async (event): Promise<ReviewChangeDto> => {
   const { id } = await getValidatedRouterParams(event, validator(ReviewParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, REVIEW_DECIDE_ROLES)
-  const { decision, reason, conditions } = await readValidatedBody(event, validator(ReviewDecisionSchema, 'body'))
+  const { decision, reason, conditions } = await readValidatedJson(event, ReviewDecisionSchema, BODY_LIMITS.form)
   const db = useDb()
   const at = nowIso()
   const done = await db.transaction().execute(async (trx) => {

@@ -6,7 +6,7 @@ import { REVIEW_SUBMIT_ROLES, ReviewParamsSchema, ReviewSubmitSchema, siteReview
 export default defineEventHandler(async (event): Promise<ReviewChangeDto> => {
   const { id } = await getValidatedRouterParams(event, validator(ReviewParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, REVIEW_SUBMIT_ROLES)
-  const { assessmentId, note } = await readValidatedBody(event, validator(ReviewSubmitSchema, 'body'))
+  const { assessmentId, note } = await readValidatedJson(event, ReviewSubmitSchema, BODY_LIMITS.form)
   const assessment = await reviewAssessmentRef(site.id, assessmentId)
   if (!assessment) {
     throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'assessmentId: is not an assessment of this site' })

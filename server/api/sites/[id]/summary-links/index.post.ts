@@ -8,7 +8,7 @@ const DAY_MS = 24 * 60 * 60 * 1000
 export default defineEventHandler(async (event): Promise<SummaryLinkCreatedDto> => {
   const { id } = await getValidatedRouterParams(event, validator(SummaryLinkParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
-  const { expiresInDays, note } = await readValidatedBody(event, validator(SummaryLinkInputSchema, 'body'))
+  const { expiresInDays, note } = await readValidatedJson(event, SummaryLinkInputSchema, BODY_LIMITS.form)
   const token = newLinkToken()
   const row = await useDb()
     .insertInto('summary_links')

@@ -1,0 +1,23 @@
+import { PasswordChangeSchema } from '../../../shared/schemas/account'
+
+// Changes the signed-in person's password, given the current one. Every session of the account
+// ends (a cookie copied earlier is worth nothing) and this browser gets a fresh one.
+// Signed-in only; small body; wrong current passwords count towards the sign-in throttle.
+export default defineEventHandler(async (event) => {
+  const user = await requireUser(event)
+  const { currentPassword, newPassword } = await readValidatedJson(event, PasswordChangeSchema, BODY_LIMITS.public)
+  const keys = signInKeys(event, user.email)
+  await assertNotThrottled(event, keys)
+  const db = useDb()
+  const row = await db.selectFrom('users').select(['id', 'email', 'name', 'password_hash']).where('id', '=', user.id).executeTakeFirstOrThrow()
+  if (!(await verifyPassword(row.password_hash, currentPassword))) {
+    await recordHit(keys)
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'currentPassword: is not your current password' })
+  }
+  const passwordHash = await hashPassword(newPassword)
+  await db.updateTable('users').set({ password_hash: passwordHash }).where('id', '=', user.id).execute()
+  const ended = await endSessionsOf(user.id)
+  await startSession(event, { id: row.id, email: row.email, name: row.name })
+  await audit({ orgId: null, userId: user.id, action: 'password.changed', targetType: 'user', targetId: user.id, detail: { sessionsEnded: ended } })
+  return { ok: true, message: 'Your password has been changed. Every other browser signed in to your account has been signed out.' }
+})

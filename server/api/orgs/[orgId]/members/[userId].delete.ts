@@ -1,0 +1,39 @@
+import { z } from 'zod'
+import { IdSchema } from '../../../../../shared/schemas/common'
+import { READER_ROLES } from '../../../../../shared/utils/roles'
+
+const Params = z.object({ orgId: IdSchema, userId: IdSchema })
+
+// An admin removes a member, or any member leaves (their own id). The last admin can do neither
+// (409), so no organisation is orphaned. Their single-site review grants in the organisation go
+// with them. Members only (404 for others); no body.
+export default defineEventHandler(async (event) => {
+  const { orgId, userId } = await getValidatedRouterParams(event, validator(Params, 'params'))
+  const { user, role } = await requireRole(event, orgId, READER_ROLES)
+  const leaving = userId === user.id
+  if (!leaving && role !== 'admin') {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `This needs the admin role; you are ${role}` })
+  }
+  const db = useDb()
+  const removed = await db.transaction().execute(async (trx) => {
+    const current = await trx.selectFrom('memberships').select('role').where('org_id', '=', orgId).where('user_id', '=', userId).executeTakeFirst()
+    if (!current) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'userId: no such member in this organisation' })
+    if (current.role === 'admin') {
+      const { admins } = await trx
+        .selectFrom('memberships')
+        .select((eb) => eb.fn.countAll<number>().as('admins'))
+        .where('org_id', '=', orgId)
+        .where('role', '=', 'admin')
+        .executeTakeFirstOrThrow()
+      if (Number(admins) <= 1) {
+        throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `userId: the organisation must keep at least one admin; ${leaving ? 'make someone else admin before you leave' : 'this is the last one'}` })
+      }
+    }
+    await trx.deleteFrom('memberships').where('org_id', '=', orgId).where('user_id', '=', userId).execute()
+    await trx.deleteFrom('site_grants').where('org_id', '=', orgId).where('user_id', '=', userId).execute()
+    await trx.updateTable('users').set({ last_org_id: null }).where('id', '=', userId).where('last_org_id', '=', orgId).execute()
+    return current.role
+  })
+  await audit({ orgId, userId: user.id, action: leaving ? 'member.left' : 'member.removed', targetType: 'user', targetId: userId, detail: { before: { role: removed }, after: null } })
+  return { userId, removed: true }
+})

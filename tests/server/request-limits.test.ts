@@ -1,0 +1,118 @@
+import { request } from 'node:http'
+import { describe, expect, inject, it } from 'vitest'
+import { Client, signUp } from './client'
+import { createSite } from './sites-helpers'
+
+// Bodies are read with a limit counted on the bytes received, after the route has checked who is
+// calling; JSON routes take JSON only; requests from other sites' pages cannot change anything;
+// ids are plain digits; signed-in answers are never cached.
+
+/**
+ * Sends a chunked body (no Content-Length) of up to `totalBytes`, stopping as soon as the answer
+ * arrives; resolves with the status and how many bytes had been written by then.
+ */
+function sendChunked(path: string, totalBytes: number, headers: Record<string, string> = {}): Promise<{ status: number; sent: number; body: string }> {
+  const url = new URL(path, inject('baseURL'))
+  return new Promise((resolve, reject) => {
+    let sent = 0
+    let answered = false
+    const req = request(url, { method: 'POST', headers: { 'content-type': 'application/json', 'transfer-encoding': 'chunked', ...headers } }, (res) => {
+      answered = true
+      let body = ''
+      res.on('data', (d) => (body += d))
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, sent, body }))
+      res.on('error', reject)
+    })
+    req.on('error', (error) => (answered ? undefined : reject(error)))
+    const chunk = Buffer.alloc(256 * 1024, 'a')
+    req.write('{"email":"')
+    const pump = () => {
+      while (!answered && sent < totalBytes) {
+        sent += chunk.length
+        if (!req.write(chunk)) return void req.once('drain', pump)
+      }
+      if (!answered) req.end('"}')
+    }
+    pump()
+  })
+}
+
+describe('request bodies', () => {
+  it('a huge chunked body before sign-in gets 413 without being read whole, and the server keeps answering', async () => {
+    const total = 600 * 1024 * 1024
+    const res = await sendChunked('/api/auth/login', total)
+    expect(res.status).toBe(413)
+    expect(JSON.parse(res.body).message).toMatch(/^body: is larger than the 8 kB limit/)
+    expect(res.sent).toBeLessThan(total)
+    expect((await new Client().get('/api/health')).status).toBe(200)
+  })
+
+  it('PATCH bodies are limited too, with or without a Content-Length', async () => {
+    const { client, orgId } = await signUp('limits-patch')
+    const site = await createSite(client, orgId)
+    const big = JSON.stringify({ version: site.version, notes: 'x'.repeat(400 * 1024) })
+    const res = await client.request('PATCH', `/api/sites/${site.id}`, big)
+    expect(res.status).toBe(413)
+    expect(res.body.message).toMatch(/^body: is larger than the 256 kB limit/)
+    // A signed-out caller is refused before its body is read.
+    expect((await new Client().request('PATCH', `/api/sites/${site.id}`, big)).status).toBe(401)
+  })
+
+  it('JSON routes refuse form-encoded and text bodies with 415 naming the body', async () => {
+    const client = new Client()
+    for (const type of ['application/x-www-form-urlencoded', 'text/plain', 'multipart/form-data; boundary=x']) {
+      const res = await client.request('POST', '/api/auth/login', undefined, { body: 'email=a%40b.example&password=whatever12', headers: { 'content-type': type } })
+      expect(res.status, type).toBe(415)
+      expect(res.body.message, type).toMatch(/^body: send JSON/)
+    }
+  })
+})
+
+describe('requests from other sites', () => {
+  it('are refused with 403 when they would change something', async () => {
+    const { client, orgId } = await signUp('origin')
+    const refused: Record<string, string>[] = [{ origin: 'https://elsewhere.example' }, { 'sec-fetch-site': 'cross-site' }, { origin: 'null' }]
+    for (const headers of refused) {
+      const res = await client.request('POST', `/api/orgs/${orgId}/sites`, '{}', { headers })
+      expect(res.status, JSON.stringify(headers)).toBe(403)
+      expect(res.body.message).toMatch(/^origin:/)
+    }
+    // The app's own pages (same origin) go through to the route.
+    const own = await client.request('POST', `/api/orgs/${orgId}/sites`, '{}', { headers: { origin: inject('baseURL'), 'sec-fetch-site': 'same-origin' } })
+    expect(own.status).toBe(400)
+    // Reading is not refused.
+    expect((await client.request('GET', '/api/me', undefined, { headers: { origin: 'https://elsewhere.example' } })).status).toBe(200)
+  })
+})
+
+describe('ids', () => {
+  it('must be plain digits: 0x1, 1e0, +1 and " 1" are not 1', async () => {
+    const { client, orgId } = await signUp('ids')
+    const site = await createSite(client, orgId)
+    expect((await client.get(`/api/sites/${site.id}`)).status).toBe(200)
+    for (const id of ['0x1', '1e0', '+1', '%201', '1.0', `${site.id}.0`]) {
+      const res = await client.get(`/api/sites/${id}`)
+      expect(res.status, id).toBe(400)
+      expect(res.body.message, id).toMatch(/^id:/)
+    }
+    expect((await client.get(`/api/orgs/${orgId}/sites?page=0x1`)).status).toBe(400)
+  })
+})
+
+describe('signed-in answers', () => {
+  it('are never stored by caches: JSON and CSV carry Cache-Control: no-store', async () => {
+    const { client, orgId } = await signUp('nostore')
+    const site = await createSite(client, orgId)
+    expect((await client.get('/api/me')).headers.get('cache-control')).toBe('no-store')
+    const csv = await client.get(`/api/orgs/${orgId}/portfolio?format=csv`)
+    expect(csv.headers.get('content-type')).toMatch(/^text\/csv/)
+    expect(csv.headers.get('cache-control')).toBe('no-store')
+    expect((await client.get(`/api/sites/${site.id}`)).headers.get('cache-control')).toBe('no-store')
+  })
+
+  it('401 says Unauthorized, not Server Error', async () => {
+    const res = await new Client().get('/api/me')
+    expect(res.status).toBe(401)
+    expect(res.body.statusMessage).toBe('Unauthorized')
+  })
+})
