@@ -30,16 +30,27 @@ export function bodyTooLarge(what: string, limit: number) {
   })
 }
 
+/** A refused body whose declared length is at most this is read and thrown away, bytes. */
+const DISCARD_AT_MOST = 16 * 1024 * 1024
+
 /**
- * Ends reading from a request whose body went over its limit: the answer goes out with
- * `Connection: close`, the stream stops flowing, and nothing more is buffered.
+ * Ends reading from a request whose body is refused, holding none of it. A body of declared
+ * length up to DISCARD_AT_MOST is read on and thrown away, so the client (which is still sending)
+ * sees the answer rather than a broken pipe; any other body, chunked or larger, stops flowing and
+ * the answer goes out with `Connection: close`, so nothing more is read from that connection.
  */
 export function stopReading(event: H3Event): void {
   const req = event.node.req
-  if (!event.node.res.headersSent) event.node.res.setHeader('Connection', 'close')
   req.removeAllListeners('data')
-  req.pause()
   req.unpipe()
+  const declared = Number(req.headers['content-length'] ?? NaN)
+  const chunked = /\bchunked\b/i.test(String(req.headers['transfer-encoding'] ?? ''))
+  if (!chunked && Number.isFinite(declared) && declared <= DISCARD_AT_MOST) {
+    req.resume()
+    return
+  }
+  if (!event.node.res.headersSent) event.node.res.setHeader('Connection', 'close')
+  req.pause()
 }
 
 const RawBodySymbol = Symbol.for('h3RawBody')

@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const row = await db.selectFrom('users').select(['id', 'email', 'name', 'password_hash']).where('id', '=', user.id).executeTakeFirstOrThrow()
   if (!(await verifyPassword(row.password_hash, currentPassword))) {
     await recordHit(keys)
-    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'currentPassword: is not your current password' })
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'currentPassword: is not your current password', data: { issues: [{ path: 'currentPassword', message: 'is not your current password' }] } })
   }
   const passwordHash = await hashPassword(newPassword)
   await db.updateTable('users').set({ password_hash: passwordHash }).where('id', '=', user.id).execute()
