@@ -17,6 +17,9 @@
 // - Bad lines, every one reported by its line number in the file: a flow that is text, negative or
 //   implausibly large; a missing, malformed or impossible date; a day given twice; too few fields;
 //   in append mode, a day already stored.
+// - A refusal never echoes much of the file: a cell quoted in a reason is cut to 100 characters, a
+//   header name may be 200 characters at most, the first 1,000 bad lines are listed (all are counted)
+//   and a header shown back for choosing columns keeps its first 100 columns.
 import Papa from 'papaparse'
 
 export type CsvDateFormat = 'iso' | 'day-first'
@@ -57,10 +60,25 @@ export type FlowCsvResult =
       flagged: number
     }
   | { ok: false; kind: 'columns'; header: string[]; message: string }
-  | { ok: false; kind: 'lines'; errors: CsvLineError[]; message: string }
+  /** `errors` lists the first MAX_LISTED_ERRORS bad lines; `errorCount` counts them all. */
+  | { ok: false; kind: 'lines'; errors: CsvLineError[]; errorCount: number; message: string }
 
 /** Largest daily flow taken as real, m³/s (beyond any river's recorded flood). */
 export const MAX_PLAUSIBLE_FLOW = 1_000_000
+/** Bad lines listed in a refusal (all are counted). */
+export const MAX_LISTED_ERRORS = 1000
+/** Longest column name accepted in the header row, characters. */
+export const MAX_HEADER_CELL = 200
+/** Columns of the header shown back when the caller must choose the date and flow columns. */
+const MAX_HEADER_SHOWN = 100
+/** Longest part of a cell quoted back in a reason, characters. */
+const MAX_QUOTED = 100
+
+/** A cell as quoted in a reason: trimmed, and cut to MAX_QUOTED characters with its length said. */
+export function quoted(text: string): string {
+  const t = text.trim()
+  return t.length > MAX_QUOTED ? `${t.slice(0, MAX_QUOTED)}… (${t.length.toLocaleString('en-GB')} characters)` : t
+}
 
 const DATE_WORDS = new Set(['date', 'day', 'datum', 'dato', 'fecha', 'time', 'datetime', 'timestamp', 'dates', 'days'])
 const FLOW_WORDS = new Set(['flow', 'flows', 'discharge', 'q', 'qmean', 'm3s', 'm3/s', 'streamflow', 'abfluss', 'debit', 'caudal', 'portata', 'cumecs'])
@@ -90,26 +108,27 @@ export function dateFormatOf(text: string): CsvDateFormat | null {
 export function parseDay(text: string, format: CsvDateFormat): { date: string } | { error: string } {
   const t = text.trim()
   if (!t) return { error: 'the date is missing' }
+  const q = quoted(t)
   let y: number, m: number, d: number
   if (format === 'iso') {
     const r = ISO_RE.exec(t)
     if (!r) {
-      return { error: DAY_FIRST_RE.test(t) ? `date "${t}" is day-first; this file's dates are written YYYY-MM-DD` : `"${t}" is not a date written YYYY-MM-DD` }
+      return { error: DAY_FIRST_RE.test(t) ? `date "${q}" is day-first; this file's dates are written YYYY-MM-DD` : `"${q}" is not a date written YYYY-MM-DD` }
     }
     ;[y, m, d] = [Number(r[1]), Number(r[2]), Number(r[3])]
   } else {
     const r = DAY_FIRST_RE.exec(t)
     if (!r) {
-      return { error: ISO_RE.test(t) ? `date "${t}" is written YYYY-MM-DD; this file's dates are day-first (DD/MM/YYYY)` : `"${t}" is not a date written DD/MM/YYYY or DD.MM.YYYY` }
+      return { error: ISO_RE.test(t) ? `date "${q}" is written YYYY-MM-DD; this file's dates are day-first (DD/MM/YYYY)` : `"${q}" is not a date written DD/MM/YYYY or DD.MM.YYYY` }
     }
     ;[d, m, y] = [Number(r[1]), Number(r[3]), Number(r[4])]
   }
-  if (y < 1800 || y > 2200) return { error: `date "${t}": year ${y} is out of range (1800–2200)` }
+  if (y < 1800 || y > 2200) return { error: `date "${q}": year ${y} is out of range (1800–2200)` }
   if (m < 1 || m > 12) {
     const hint = format === 'day-first' && d <= 12 ? ' (dates must be day-first: DD/MM/YYYY)' : ''
-    return { error: `date "${t}": there is no month ${m}${hint}` }
+    return { error: `date "${q}": there is no month ${m}${hint}` }
   }
-  if (d < 1 || d > daysIn(y, m)) return { error: `date "${t}" does not exist (month ${m} of ${y} has ${daysIn(y, m)} days)` }
+  if (d < 1 || d > daysIn(y, m)) return { error: `date "${q}" does not exist (month ${m} of ${y} has ${daysIn(y, m)} days)` }
   return { date: `${y}-${pad(m)}-${pad(d)}` }
 }
 
@@ -120,10 +139,10 @@ export function parseFlowCell(text: string, decimalComma: boolean): { flow: numb
   const flaggedMatch = FLAGGED_RE.exec(t)
   if (flaggedMatch) t = flaggedMatch[1]!.trim()
   const normal = decimalComma && /^[^,]*,[^,]*$/.test(t) && !t.includes('.') ? t.replace(',', '.') : t
-  if (!NUMBER_RE.test(normal)) return { error: `flow "${text.trim()}" is not a number` }
+  if (!NUMBER_RE.test(normal)) return { error: `flow "${quoted(text)}" is not a number` }
   const q = Number(normal)
-  if (q < 0) return { error: `flow ${text.trim()} is negative` }
-  if (q > MAX_PLAUSIBLE_FLOW) return { error: `flow ${text.trim()} m³/s is not plausible` }
+  if (q < 0) return { error: `flow ${quoted(text)} is negative` }
+  if (q > MAX_PLAUSIBLE_FLOW) return { error: `flow ${quoted(text)} m³/s is not plausible` }
   if (flaggedMatch) return { flow: null, flagged: true }
   return { flow: q, flagged: false }
 }
@@ -308,20 +327,26 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   const delimiter = pickDelimiter(firstContentLine(text))
   const rows = readRows(text, delimiter)
   const headerRow = rows[0]
-  if (!headerRow) return { ok: false, kind: 'lines', errors: [{ line: 1, reason: 'the file has no lines' }], message: 'file: has no lines' }
+  if (!headerRow) return { ok: false, kind: 'lines', errors: [{ line: 1, reason: 'the file has no lines' }], errorCount: 1, message: 'file: has no lines' }
   const header = headerRow.cells.map((c) => c.trim())
+  const longName = header.findIndex((h) => h.length > MAX_HEADER_CELL)
+  if (longName >= 0) {
+    const reason = `column ${longName + 1}'s name "${quoted(header[longName]!)}" is longer than ${MAX_HEADER_CELL} characters`
+    return { ok: false, kind: 'lines', errors: [{ line: headerRow.line, reason }], errorCount: 1, message: `file: line ${headerRow.line}: ${reason}` }
+  }
 
   if (header.some((h) => dateFormatOf(h) !== null)) {
     return {
       ok: false,
       kind: 'lines',
       errors: [{ line: headerRow.line, reason: 'the first line holds data; it must be a header naming the columns, e.g. date,flow' }],
+      errorCount: 1,
       message: `file: line ${headerRow.line} must be a header row naming the columns`,
     }
   }
 
   // Columns: given by the caller, else by name.
-  const columnsError = (message: string) => ({ ok: false as const, kind: 'columns' as const, header, message })
+  const columnsError = (message: string) => ({ ok: false as const, kind: 'columns' as const, header: header.slice(0, MAX_HEADER_SHOWN), message })
   let dateIdx = findColumn(header, options.dateColumn)
   let flowIdx = findColumn(header, options.flowColumn)
   if (options.dateColumn !== undefined && dateIdx < 0) return columnsError(`dateColumn: the header has no column "${options.dateColumn}"`)
@@ -342,11 +367,17 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
 
   const dataRows = rows.slice(1)
   if (dataRows.length === 0) {
-    return { ok: false, kind: 'lines', errors: [{ line: headerRow.line + 1, reason: 'the file has a header but no days' }], message: 'file: has a header but no days' }
+    return { ok: false, kind: 'lines', errors: [{ line: headerRow.line + 1, reason: 'the file has a header but no days' }], errorCount: 1, message: 'file: has a header but no days' }
   }
   const maxDays = options.maxDays ?? Infinity
   if (dataRows.length > maxDays) {
-    return { ok: false, kind: 'lines', errors: [{ line: dataRows[maxDays]!.line, reason: `the file has ${dataRows.length} days; at most ${maxDays} are accepted` }], message: `file: has more than ${maxDays} days` }
+    return {
+      ok: false,
+      kind: 'lines',
+      errors: [{ line: dataRows[maxDays]!.line, reason: `the file has ${dataRows.length} days; at most ${maxDays} are accepted` }],
+      errorCount: 1,
+      message: `file: has more than ${maxDays} days`,
+    }
   }
 
   let format: CsvDateFormat | null = options.dateFormat && options.dateFormat !== 'auto' ? options.dateFormat : null
@@ -361,6 +392,10 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   const decimalComma = delimiter === ';'
   const needed = Math.max(dateIdx, flowIdx) + 1
   const errors: CsvLineError[] = []
+  let errorCount = 0
+  const refuse = (line: number, reason: string) => {
+    if (errorCount++ < MAX_LISTED_ERRORS) errors.push({ line, reason })
+  }
   // Each day's first line. While the days come in order (the usual file) a day later than the latest
   // so far cannot repeat one, so the map is only built, from these lists, once a day comes out of order.
   const seenDays: string[] = []
@@ -373,7 +408,7 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   let flagged = 0
   for (const { cells, line } of dataRows) {
     if (cells.length < needed) {
-      errors.push({ line, reason: `the line has ${cells.length} field${cells.length === 1 ? '' : 's'}; the header has ${header.length}` })
+      refuse(line, `the line has ${cells.length} field${cells.length === 1 ? '' : 's'}; the header has ${header.length}`)
       continue
     }
     let dateReason: string | null = null
@@ -425,17 +460,17 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
       }
     }
     if (dateReason !== null || flowReason !== null) {
-      errors.push({ line, reason: dateReason !== null && flowReason !== null ? `${dateReason}; ${flowReason}` : (dateReason ?? flowReason)! })
+      refuse(line, dateReason !== null && flowReason !== null ? `${dateReason}; ${flowReason}` : (dateReason ?? flowReason)!)
       continue
     }
     if (flow === null) gaps++
     if (isFlagged) flagged++
     days.push({ date: date!, flow })
   }
-  if (errors.length) {
+  if (errorCount) {
     const first = errors[0]!
-    const more = errors.length > 1 ? ` (and ${errors.length - 1} more line${errors.length > 2 ? 's' : ''})` : ''
-    return { ok: false, kind: 'lines', errors, message: `file: line ${first.line}: ${first.reason}${more}; nothing was stored` }
+    const more = errorCount > 1 ? ` (and ${errorCount - 1} more line${errorCount > 2 ? 's' : ''})` : ''
+    return { ok: false, kind: 'lines', errors, errorCount, message: `file: line ${first.line}: ${first.reason}${more}; nothing was stored` }
   }
   // Days that came in order (checked above as they were read) need no sort.
   if (!inOrder) days.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))
