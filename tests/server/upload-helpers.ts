@@ -66,8 +66,13 @@ export function chunkedUpload(url: string, cookie: string, upload: ChunkedUpload
         sent += chunk.length
         if (req.write(chunk)) done()
         else {
-          req.once('drain', done)
-          req.once('close', done)
+          const go = () => {
+            req.off('drain', go)
+            req.off('close', go)
+            done()
+          }
+          req.once('drain', go)
+          req.once('close', go)
         }
       })
     void (async () => {
