@@ -18,8 +18,9 @@
 //   implausibly large; a missing, malformed or impossible date; a day given twice; too few fields;
 //   in append mode, a day already stored.
 // - A refusal never echoes much of the file: a cell quoted in a reason is cut to 100 characters, a
-//   header name may be 200 characters at most, the first 1,000 bad lines are listed (all are counted)
-//   and a header shown back for choosing columns keeps its first 100 columns.
+//   header name may be 200 characters at most, and the first 1,000 bad lines are listed (all are
+//   counted). A file of more than 160,000 lines, or a header of more than 100 columns, is refused
+//   unparsed.
 import Papa from 'papaparse'
 
 export type CsvDateFormat = 'iso' | 'day-first'
@@ -65,12 +66,18 @@ export type FlowCsvResult =
 
 /** Largest daily flow taken as real, m³/s (beyond any river's recorded flood). */
 export const MAX_PLAUSIBLE_FLOW = 1_000_000
+/**
+ * Most lines read from a file, blank lines and comments included: room for the most days a record
+ * may hold (MAX_FLOW_DAYS, 80,000) and as many blank or comment lines again. Checked before parsing,
+ * since each line costs far more memory parsed than as text (10 MB of empty lines took 800 MB).
+ */
+export const MAX_LINES = 160_000
+/** Most fields on one line: a flow file needs a handful. */
+export const MAX_FIELDS = 100
 /** Bad lines listed in a refusal (all are counted). */
 export const MAX_LISTED_ERRORS = 1000
 /** Longest column name accepted in the header row, characters. */
 export const MAX_HEADER_CELL = 200
-/** Columns of the header shown back when the caller must choose the date and flow columns. */
-const MAX_HEADER_SHOWN = 100
 /** Longest part of a cell quoted back in a reason, characters. */
 const MAX_QUOTED = 100
 
@@ -246,16 +253,26 @@ function readQuotedRows(text: string, delimiter: string): RawRow[] {
   return rows
 }
 
-/** The first line that is neither blank nor a `#` comment, or '' (without splitting the whole text). */
-function firstContentLine(text: string): string {
-  for (let start = 0; start <= text.length; ) {
+/** `max + 1` when the text has more than `max` lines (a last line end starts no new line), else null. */
+function lineAfter(text: string, max: number): number | null {
+  let lines = 1
+  for (let i = text.indexOf('\n'); i !== -1 && i < text.length - 1; i = text.indexOf('\n', i + 1)) {
+    if (++lines > max) return lines
+  }
+  return null
+}
+
+/** The first line that is neither blank nor a `#` comment and its number, or '' (without splitting the whole text). */
+function firstContentLine(text: string): { text: string; line: number } {
+  let line = 1
+  for (let start = 0; start <= text.length; line++) {
     const nl = text.indexOf('\n', start)
     const end = nl === -1 ? text.length : nl
-    const line = text.slice(start, end)
-    if (line.trim() !== '' && !line.trimStart().startsWith('#')) return line
+    const content = text.slice(start, end)
+    if (content.trim() !== '' && !content.trimStart().startsWith('#')) return { text: content, line }
     start = end + 1
   }
-  return ''
+  return { text: '', line: 1 }
 }
 
 /** The number written by the ASCII digits t[from..to), or -1 when any is not a digit. */
@@ -324,7 +341,17 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   let text = rawText.includes('\r') ? rawText.replace(/\r\n?/g, '\n') : rawText
   // papaparse drops a BOM before parsing; dropped here too, its row ends and this text stay in step.
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1)
-  const delimiter = pickDelimiter(firstContentLine(text))
+  const tooLong = lineAfter(text, MAX_LINES)
+  if (tooLong !== null) {
+    const reason = `the file has more than ${MAX_LINES.toLocaleString('en-GB')} lines; at most ${MAX_LINES.toLocaleString('en-GB')} are read`
+    return { ok: false, kind: 'lines', errors: [{ line: tooLong, reason }], errorCount: 1, message: `file: ${reason}` }
+  }
+  const first = firstContentLine(text)
+  const delimiter = pickDelimiter(first.text)
+  if (first.text.split(delimiter).length > MAX_FIELDS) {
+    const reason = `the header has more than ${MAX_FIELDS} columns`
+    return { ok: false, kind: 'lines', errors: [{ line: first.line, reason }], errorCount: 1, message: `file: line ${first.line}: ${reason}` }
+  }
   const rows = readRows(text, delimiter)
   const headerRow = rows[0]
   if (!headerRow) return { ok: false, kind: 'lines', errors: [{ line: 1, reason: 'the file has no lines' }], errorCount: 1, message: 'file: has no lines' }
@@ -346,7 +373,7 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   }
 
   // Columns: given by the caller, else by name.
-  const columnsError = (message: string) => ({ ok: false as const, kind: 'columns' as const, header: header.slice(0, MAX_HEADER_SHOWN), message })
+  const columnsError = (message: string) => ({ ok: false as const, kind: 'columns' as const, header, message })
   let dateIdx = findColumn(header, options.dateColumn)
   let flowIdx = findColumn(header, options.flowColumn)
   if (options.dateColumn !== undefined && dateIdx < 0) return columnsError(`dateColumn: the header has no column "${options.dateColumn}"`)
