@@ -47,7 +47,7 @@ export interface FlowUploadOptions {
 /** What an upload came to: stored, refused line by line, or waiting for the user to pick columns. */
 export type FlowUploadOutcome =
   | { kind: 'stored'; result: FlowUploadResult }
-  | { kind: 'lines'; message: string; errors: FlowUploadErrorData['errors'] }
+  | { kind: 'lines'; message: string; errors: FlowUploadErrorData['errors']; count: number }
   | { kind: 'columns'; message: string; header: string[] }
   | { kind: 'failed'; status: number; message: string }
 
@@ -58,7 +58,7 @@ export function uploadOutcomeFromError(error: unknown): FlowUploadOutcome {
     const data = body?.data
     const message = body?.message ?? error.message
     if (error.statusCode === 422 && data?.needsColumns && Array.isArray(data.header)) return { kind: 'columns', message, header: data.header }
-    if (error.statusCode === 422 && Array.isArray(data?.errors) && data.errors.length) return { kind: 'lines', message, errors: data.errors }
+    if (error.statusCode === 422 && Array.isArray(data?.errors) && data.errors.length) return { kind: 'lines', message, errors: data.errors, count: typeof data.errorCount === 'number' ? data.errorCount : data.errors.length }
     if (error.statusCode === 413) return { kind: 'failed', status: 413, message: 'The file is larger than the 10 MB limit. Split the record, upload the first part, then append the rest.' }
     if (error.statusCode === 415) return { kind: 'failed', status: 415, message: `${message.replace(/^file: /, '')}. Save the record as a CSV or plain-text file.` }
     return { kind: 'failed', status: error.statusCode, message }

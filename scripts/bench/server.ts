@@ -20,6 +20,8 @@ export interface BenchServer {
   baseURL: string
   /** The server's SQLite file: a second connection may write to it while the server runs (WAL). */
   databasePath: string
+  /** The server's process id, e.g. to read its resident memory. */
+  pid: number
   stop(): Promise<void>
 }
 
@@ -50,7 +52,7 @@ export async function startBenchServer(opts: { demo?: boolean } = {}): Promise<B
     stopping = true
     await server.close()
   }
-  return { baseURL: server.baseURL, databasePath: server.databasePath, stop }
+  return { baseURL: server.baseURL, databasePath: server.databasePath, pid: server.child.pid!, stop }
 }
 
 /** A signed-in person: the `cookie` header value to send, and their first organisation. */

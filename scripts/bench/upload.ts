@@ -3,7 +3,10 @@
 // replace mode, against a bare baseline in this process: papaparse's parse of the same text plus one
 // transaction inserting the same rows into the real flow_days table (the migrations, run on a fresh
 // temporary SQLite file with the server's pragmas) through one better-sqlite3 prepared statement.
-import { mkdtempSync, rmSync } from 'node:fs'
+// Then a hostile one: 150 MB sent chunked (no Content-Length) against the 10 MB limit, timed to its 413,
+// with the server's resident memory watched all along.
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
+import { request } from 'node:http'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { performance } from 'node:perf_hooks'
@@ -18,6 +21,58 @@ import { signUpSession, startBenchServer } from './server'
 
 const RUNS = 5
 const MAX_RATIO = 2
+const MB = 1024 * 1024
+const HOSTILE_BYTES = 150 * MB
+const MAX_GROWTH = 100 * MB
+
+/** Resident memory of process `pid`, bytes (VmRSS). */
+function residentBytes(pid: number): number {
+  return Number(/^VmRSS:\s+(\d+) kB$/m.exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? NaN) * 1024
+}
+
+/**
+ * POSTs one file part of `bytes` bytes with chunked encoding, 64 KiB at a time as the socket takes
+ * them, and stops sending when the reply comes: its status, the milliseconds to it, and the bytes sent.
+ */
+function chunkedUpload(url: string, cookie: string, bytes: number): Promise<{ status: number; ms: number; sent: number }> {
+  const boundary = 'gillwatt-bench-chunked'
+  return new Promise((resolve, reject) => {
+    const started = performance.now()
+    const req = request(url, { method: 'POST', headers: { cookie, accept: 'application/json', 'content-type': `multipart/form-data; boundary=${boundary}` } })
+    let sent = 0
+    let replied = false
+    req.on('response', (res) => {
+      replied = true
+      const ms = performance.now() - started
+      res.resume()
+      res.on('end', () => {
+        resolve({ status: res.statusCode ?? 0, ms, sent })
+        req.destroy()
+      })
+    })
+    req.on('error', (error) => (replied ? undefined : reject(error)))
+    const write = (chunk: Buffer) =>
+      new Promise<void>((done) => {
+        sent += chunk.length
+        if (req.write(chunk)) done()
+        else {
+          const go = () => {
+            req.off('drain', go)
+            req.off('close', go)
+            done()
+          }
+          req.once('drain', go)
+          req.once('close', go)
+        }
+      })
+    void (async () => {
+      await write(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\ndate,flow\n`))
+      const filler = Buffer.alloc(64 * 1024, 0x31)
+      while (sent < bytes && !replied && !req.destroyed) await write(filler)
+      if (!replied && !req.destroyed) req.end(`\r\n--${boundary}--\r\n`)
+    })()
+  })
+}
 
 /** The century as CSV text with a header row, one line a day. */
 export function centuryCsv(): { text: string; days: number } {
@@ -84,6 +139,7 @@ export async function uploadBench(): Promise<BenchFigure[]> {
   const { text, days } = centuryCsv()
   const server = await startBenchServer()
   let uploadMs: number[]
+  let hostile: { status: number; ms: number; sent: number; growth: number }
   try {
     const me = await signUpSession(server.baseURL, 'upload')
     const created = await fetch(`${server.baseURL}/api/orgs/${me.orgId}/sites`, {
@@ -111,6 +167,15 @@ export async function uploadBench(): Promise<BenchFigure[]> {
       await upload()
       uploadMs.push(performance.now() - t)
     }
+
+    const before = residentBytes(server.pid)
+    let most = before
+    const watch = setInterval(() => (most = Math.max(most, residentBytes(server.pid))), 10)
+    const reply = await chunkedUpload(`${server.baseURL}/api/sites/${site.id}/flow-record`, me.cookie, HOSTILE_BYTES).finally(() => clearInterval(watch))
+    if (reply.status !== 413) throw new Error(`a ${HOSTILE_BYTES / MB} MB chunked upload answered ${reply.status}, not 413`)
+    const health = await fetch(`${server.baseURL}/api/health`)
+    if (health.status !== 200) throw new Error(`/api/health answered ${health.status} after the chunked upload`)
+    hostile = { ...reply, growth: most - before }
   } finally {
     await server.stop()
   }
@@ -127,5 +192,7 @@ export async function uploadBench(): Promise<BenchFigure[]> {
     { name: `bare papaparse parse + one-transaction insert of the same rows (better-sqlite3 prepared statement): median of ${RUNS}`, value: median(bareMs), unit: 'ms', target: '(baseline)', pass: true },
     { name: 'of which the route\'s parser, parseFlowCsv (server/utils/flowCsv.ts), in process: median', value: median(parserMs), unit: 'ms', target: '(reported)', pass: true },
     { name: 'upload ÷ bare parse and insert', value: ratio, unit: '×', target: `< ${MAX_RATIO}×`, pass: ratio < MAX_RATIO },
+    { name: `${HOSTILE_BYTES / MB} MB flow CSV sent chunked (no Content-Length) against the 10 MB limit: time to the 413 (${(hostile.sent / MB).toFixed(1)} MB sent by then)`, value: hostile.ms, unit: 'ms', target: '(reported)', pass: true },
+    { name: 'the server\'s resident memory growth meanwhile (largest VmRSS seen, sampled every 10 ms, less the start)', value: hostile.growth / MB, unit: 'MB', target: `< ${MAX_GROWTH / MB} MB`, pass: hostile.growth < MAX_GROWTH },
   ]
 }

@@ -17,6 +17,10 @@
 // - Bad lines, every one reported by its line number in the file: a flow that is text, negative or
 //   implausibly large; a missing, malformed or impossible date; a day given twice; too few fields;
 //   in append mode, a day already stored.
+// - A refusal never echoes much of the file: a cell quoted in a reason is cut to 100 characters, a
+//   header name may be 200 characters at most, and the first 1,000 bad lines are listed (all are
+//   counted). A file of more than 160,000 lines, or a header of more than 100 columns, is refused
+//   unparsed.
 import Papa from 'papaparse'
 
 export type CsvDateFormat = 'iso' | 'day-first'
@@ -57,10 +61,31 @@ export type FlowCsvResult =
       flagged: number
     }
   | { ok: false; kind: 'columns'; header: string[]; message: string }
-  | { ok: false; kind: 'lines'; errors: CsvLineError[]; message: string }
+  /** `errors` lists the first MAX_LISTED_ERRORS bad lines; `errorCount` counts them all. */
+  | { ok: false; kind: 'lines'; errors: CsvLineError[]; errorCount: number; message: string }
 
 /** Largest daily flow taken as real, m³/s (beyond any river's recorded flood). */
 export const MAX_PLAUSIBLE_FLOW = 1_000_000
+/**
+ * Most lines read from a file, blank lines and comments included: room for the most days a record
+ * may hold (MAX_FLOW_DAYS, 80,000) and as many blank or comment lines again. Checked before parsing,
+ * since each line costs far more memory parsed than as text (10 MB of empty lines took 800 MB).
+ */
+export const MAX_LINES = 160_000
+/** Most fields on one line: a flow file needs a handful. */
+export const MAX_FIELDS = 100
+/** Bad lines listed in a refusal (all are counted). */
+export const MAX_LISTED_ERRORS = 1000
+/** Longest column name accepted in the header row, characters. */
+export const MAX_HEADER_CELL = 200
+/** Longest part of a cell quoted back in a reason, characters. */
+const MAX_QUOTED = 100
+
+/** A cell as quoted in a reason: trimmed, and cut to MAX_QUOTED characters with its length said. */
+export function quoted(text: string): string {
+  const t = text.trim()
+  return t.length > MAX_QUOTED ? `${t.slice(0, MAX_QUOTED)}… (${t.length.toLocaleString('en-GB')} characters)` : t
+}
 
 const DATE_WORDS = new Set(['date', 'day', 'datum', 'dato', 'fecha', 'time', 'datetime', 'timestamp', 'dates', 'days'])
 const FLOW_WORDS = new Set(['flow', 'flows', 'discharge', 'q', 'qmean', 'm3s', 'm3/s', 'streamflow', 'abfluss', 'debit', 'caudal', 'portata', 'cumecs'])
@@ -90,26 +115,27 @@ export function dateFormatOf(text: string): CsvDateFormat | null {
 export function parseDay(text: string, format: CsvDateFormat): { date: string } | { error: string } {
   const t = text.trim()
   if (!t) return { error: 'the date is missing' }
+  const q = quoted(t)
   let y: number, m: number, d: number
   if (format === 'iso') {
     const r = ISO_RE.exec(t)
     if (!r) {
-      return { error: DAY_FIRST_RE.test(t) ? `date "${t}" is day-first; this file's dates are written YYYY-MM-DD` : `"${t}" is not a date written YYYY-MM-DD` }
+      return { error: DAY_FIRST_RE.test(t) ? `date "${q}" is day-first; this file's dates are written YYYY-MM-DD` : `"${q}" is not a date written YYYY-MM-DD` }
     }
     ;[y, m, d] = [Number(r[1]), Number(r[2]), Number(r[3])]
   } else {
     const r = DAY_FIRST_RE.exec(t)
     if (!r) {
-      return { error: ISO_RE.test(t) ? `date "${t}" is written YYYY-MM-DD; this file's dates are day-first (DD/MM/YYYY)` : `"${t}" is not a date written DD/MM/YYYY or DD.MM.YYYY` }
+      return { error: ISO_RE.test(t) ? `date "${q}" is written YYYY-MM-DD; this file's dates are day-first (DD/MM/YYYY)` : `"${q}" is not a date written DD/MM/YYYY or DD.MM.YYYY` }
     }
     ;[d, m, y] = [Number(r[1]), Number(r[3]), Number(r[4])]
   }
-  if (y < 1800 || y > 2200) return { error: `date "${t}": year ${y} is out of range (1800–2200)` }
+  if (y < 1800 || y > 2200) return { error: `date "${q}": year ${y} is out of range (1800–2200)` }
   if (m < 1 || m > 12) {
     const hint = format === 'day-first' && d <= 12 ? ' (dates must be day-first: DD/MM/YYYY)' : ''
-    return { error: `date "${t}": there is no month ${m}${hint}` }
+    return { error: `date "${q}": there is no month ${m}${hint}` }
   }
-  if (d < 1 || d > daysIn(y, m)) return { error: `date "${t}" does not exist (month ${m} of ${y} has ${daysIn(y, m)} days)` }
+  if (d < 1 || d > daysIn(y, m)) return { error: `date "${q}" does not exist (month ${m} of ${y} has ${daysIn(y, m)} days)` }
   return { date: `${y}-${pad(m)}-${pad(d)}` }
 }
 
@@ -120,10 +146,10 @@ export function parseFlowCell(text: string, decimalComma: boolean): { flow: numb
   const flaggedMatch = FLAGGED_RE.exec(t)
   if (flaggedMatch) t = flaggedMatch[1]!.trim()
   const normal = decimalComma && /^[^,]*,[^,]*$/.test(t) && !t.includes('.') ? t.replace(',', '.') : t
-  if (!NUMBER_RE.test(normal)) return { error: `flow "${text.trim()}" is not a number` }
+  if (!NUMBER_RE.test(normal)) return { error: `flow "${quoted(text)}" is not a number` }
   const q = Number(normal)
-  if (q < 0) return { error: `flow ${text.trim()} is negative` }
-  if (q > MAX_PLAUSIBLE_FLOW) return { error: `flow ${text.trim()} m³/s is not plausible` }
+  if (q < 0) return { error: `flow ${quoted(text)} is negative` }
+  if (q > MAX_PLAUSIBLE_FLOW) return { error: `flow ${quoted(text)} m³/s is not plausible` }
   if (flaggedMatch) return { flow: null, flagged: true }
   return { flow: q, flagged: false }
 }
@@ -227,16 +253,26 @@ function readQuotedRows(text: string, delimiter: string): RawRow[] {
   return rows
 }
 
-/** The first line that is neither blank nor a `#` comment, or '' (without splitting the whole text). */
-function firstContentLine(text: string): string {
-  for (let start = 0; start <= text.length; ) {
+/** `max + 1` when the text has more than `max` lines (a last line end starts no new line), else null. */
+function lineAfter(text: string, max: number): number | null {
+  let lines = 1
+  for (let i = text.indexOf('\n'); i !== -1 && i < text.length - 1; i = text.indexOf('\n', i + 1)) {
+    if (++lines > max) return lines
+  }
+  return null
+}
+
+/** The first line that is neither blank nor a `#` comment and its number, or '' (without splitting the whole text). */
+function firstContentLine(text: string): { text: string; line: number } {
+  let line = 1
+  for (let start = 0; start <= text.length; line++) {
     const nl = text.indexOf('\n', start)
     const end = nl === -1 ? text.length : nl
-    const line = text.slice(start, end)
-    if (line.trim() !== '' && !line.trimStart().startsWith('#')) return line
+    const content = text.slice(start, end)
+    if (content.trim() !== '' && !content.trimStart().startsWith('#')) return { text: content, line }
     start = end + 1
   }
-  return ''
+  return { text: '', line: 1 }
 }
 
 /** The number written by the ASCII digits t[from..to), or -1 when any is not a digit. */
@@ -305,17 +341,33 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   let text = rawText.includes('\r') ? rawText.replace(/\r\n?/g, '\n') : rawText
   // papaparse drops a BOM before parsing; dropped here too, its row ends and this text stay in step.
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1)
-  const delimiter = pickDelimiter(firstContentLine(text))
+  const tooLong = lineAfter(text, MAX_LINES)
+  if (tooLong !== null) {
+    const reason = `the file has more than ${MAX_LINES.toLocaleString('en-GB')} lines; at most ${MAX_LINES.toLocaleString('en-GB')} are read`
+    return { ok: false, kind: 'lines', errors: [{ line: tooLong, reason }], errorCount: 1, message: `file: ${reason}` }
+  }
+  const first = firstContentLine(text)
+  const delimiter = pickDelimiter(first.text)
+  if (first.text.split(delimiter).length > MAX_FIELDS) {
+    const reason = `the header has more than ${MAX_FIELDS} columns`
+    return { ok: false, kind: 'lines', errors: [{ line: first.line, reason }], errorCount: 1, message: `file: line ${first.line}: ${reason}` }
+  }
   const rows = readRows(text, delimiter)
   const headerRow = rows[0]
-  if (!headerRow) return { ok: false, kind: 'lines', errors: [{ line: 1, reason: 'the file has no lines' }], message: 'file: has no lines' }
+  if (!headerRow) return { ok: false, kind: 'lines', errors: [{ line: 1, reason: 'the file has no lines' }], errorCount: 1, message: 'file: has no lines' }
   const header = headerRow.cells.map((c) => c.trim())
+  const longName = header.findIndex((h) => h.length > MAX_HEADER_CELL)
+  if (longName >= 0) {
+    const reason = `column ${longName + 1}'s name "${quoted(header[longName]!)}" is longer than ${MAX_HEADER_CELL} characters`
+    return { ok: false, kind: 'lines', errors: [{ line: headerRow.line, reason }], errorCount: 1, message: `file: line ${headerRow.line}: ${reason}` }
+  }
 
   if (header.some((h) => dateFormatOf(h) !== null)) {
     return {
       ok: false,
       kind: 'lines',
       errors: [{ line: headerRow.line, reason: 'the first line holds data; it must be a header naming the columns, e.g. date,flow' }],
+      errorCount: 1,
       message: `file: line ${headerRow.line} must be a header row naming the columns`,
     }
   }
@@ -342,11 +394,17 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
 
   const dataRows = rows.slice(1)
   if (dataRows.length === 0) {
-    return { ok: false, kind: 'lines', errors: [{ line: headerRow.line + 1, reason: 'the file has a header but no days' }], message: 'file: has a header but no days' }
+    return { ok: false, kind: 'lines', errors: [{ line: headerRow.line + 1, reason: 'the file has a header but no days' }], errorCount: 1, message: 'file: has a header but no days' }
   }
   const maxDays = options.maxDays ?? Infinity
   if (dataRows.length > maxDays) {
-    return { ok: false, kind: 'lines', errors: [{ line: dataRows[maxDays]!.line, reason: `the file has ${dataRows.length} days; at most ${maxDays} are accepted` }], message: `file: has more than ${maxDays} days` }
+    return {
+      ok: false,
+      kind: 'lines',
+      errors: [{ line: dataRows[maxDays]!.line, reason: `the file has ${dataRows.length} days; at most ${maxDays} are accepted` }],
+      errorCount: 1,
+      message: `file: has more than ${maxDays} days`,
+    }
   }
 
   let format: CsvDateFormat | null = options.dateFormat && options.dateFormat !== 'auto' ? options.dateFormat : null
@@ -361,6 +419,10 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   const decimalComma = delimiter === ';'
   const needed = Math.max(dateIdx, flowIdx) + 1
   const errors: CsvLineError[] = []
+  let errorCount = 0
+  const refuse = (line: number, reason: string) => {
+    if (errorCount++ < MAX_LISTED_ERRORS) errors.push({ line, reason })
+  }
   // Each day's first line. While the days come in order (the usual file) a day later than the latest
   // so far cannot repeat one, so the map is only built, from these lists, once a day comes out of order.
   const seenDays: string[] = []
@@ -373,7 +435,7 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
   let flagged = 0
   for (const { cells, line } of dataRows) {
     if (cells.length < needed) {
-      errors.push({ line, reason: `the line has ${cells.length} field${cells.length === 1 ? '' : 's'}; the header has ${header.length}` })
+      refuse(line, `the line has ${cells.length} field${cells.length === 1 ? '' : 's'}; the header has ${header.length}`)
       continue
     }
     let dateReason: string | null = null
@@ -425,17 +487,17 @@ export function parseFlowCsv(rawText: string, options: FlowCsvOptions = {}): Flo
       }
     }
     if (dateReason !== null || flowReason !== null) {
-      errors.push({ line, reason: dateReason !== null && flowReason !== null ? `${dateReason}; ${flowReason}` : (dateReason ?? flowReason)! })
+      refuse(line, dateReason !== null && flowReason !== null ? `${dateReason}; ${flowReason}` : (dateReason ?? flowReason)!)
       continue
     }
     if (flow === null) gaps++
     if (isFlagged) flagged++
     days.push({ date: date!, flow })
   }
-  if (errors.length) {
+  if (errorCount) {
     const first = errors[0]!
-    const more = errors.length > 1 ? ` (and ${errors.length - 1} more line${errors.length > 2 ? 's' : ''})` : ''
-    return { ok: false, kind: 'lines', errors, message: `file: line ${first.line}: ${first.reason}${more}; nothing was stored` }
+    const more = errorCount > 1 ? ` (and ${errorCount - 1} more line${errorCount > 2 ? 's' : ''})` : ''
+    return { ok: false, kind: 'lines', errors, errorCount, message: `file: line ${first.line}: ${first.reason}${more}; nothing was stored` }
   }
   // Days that came in order (checked above as they were read) need no sort.
   if (!inOrder) days.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))

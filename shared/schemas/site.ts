@@ -387,7 +387,10 @@ export interface FlowCsvLineError {
 
 /** `data` of a 422 from the upload: every bad line, or the header when the columns must be chosen. */
 export interface FlowUploadErrorData {
+  /** The first 1,000 bad lines. */
   errors: FlowCsvLineError[]
+  /** How many lines are bad in all (absent when the header is the problem). */
+  errorCount?: number
   needsColumns?: boolean
   header?: string[]
 }

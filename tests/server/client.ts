@@ -12,7 +12,7 @@ export class Client {
   private cookies = new Map<string, string>()
   constructor(readonly baseURL = inject('baseURL')) {}
 
-  /** The Cookie header this client sends. */
+  /** The Cookie header this client sends (empty when signed out), for requests made without it. */
   cookieHeader(): string {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
   }
@@ -26,7 +26,7 @@ export class Client {
 
   async request<T = any>(method: string, path: string, body?: unknown, init: RequestInit = {}): Promise<Reply<T>> {
     const headers = new Headers(init.headers)
-    if (this.cookies.size) headers.set('cookie', [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; '))
+    if (this.cookies.size) headers.set('cookie', this.cookieHeader())
     headers.set('accept', 'application/json')
     let payload = init.body
     if (body !== undefined) {

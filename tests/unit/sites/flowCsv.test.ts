@@ -122,3 +122,37 @@ describe('decodeCsvBytes and daySpan', () => {
     expect(daySpan('1920-01-01', '2019-12-31')).toBe(36_525)
   })
 })
+
+describe('refusals echo little of the file', () => {
+  it('quotes at most 100 characters of a bad cell, and says how long it was', () => {
+    const r = parseFlowCsv(`date,flow\n2020-01-01,${'9x'.repeat(50_000)}\n`)
+    expect(r.ok).toBe(false)
+    if (r.ok || r.kind !== 'lines') return
+    expect(r.errors[0]!.reason).toMatch(/^flow "(9x){50}… \(100,000 characters\)" is not a number$/)
+    expect(r.message.length).toBeLessThan(300)
+    expect(parseDay(`2020-01-01${'7'.repeat(10_000)}`, 'iso')).toEqual({ error: expect.stringMatching(/^"2020-01-017+… \(10,010 characters\)" is not a date/) })
+  })
+
+  it('refuses a column name longer than 200 characters', () => {
+    expect(parseFlowCsv(`date,${'h'.repeat(201)}\n2020-01-01,1\n`)).toMatchObject({ ok: false, kind: 'lines', errors: [{ line: 1, reason: expect.stringMatching(/column 2's name .* is longer than 200 characters/) }] })
+    expect(parseFlowCsv(`date,${'h'.repeat(200)}\n2020-01-01,1\n`)).toMatchObject({ ok: true })
+  })
+
+  it('refuses a file of more than 160,000 lines, or a header of more than 100 columns, before parsing it', () => {
+    // 10 MB of empty lines once took 800 MB to parse.
+    expect(parseFlowCsv(`date,flow\n${'\n'.repeat(200_000)}`)).toMatchObject({ ok: false, kind: 'lines', errors: [{ line: 160_001, reason: expect.stringMatching(/more than 160,000 lines/) }] })
+    // 160,000 lines exactly (a last line end starts no new line) are read: here, as a header and no days.
+    expect(parseFlowCsv(`date,flow\n${'\n'.repeat(159_999)}`)).toMatchObject({ ok: false, errors: [{ reason: 'the file has a header but no days' }] })
+    expect(parseFlowCsv(`# note\ndate,flow${',x'.repeat(99)}\n2020-01-01,1\n`)).toMatchObject({ ok: false, errors: [{ line: 2, reason: 'the header has more than 100 columns' }] })
+    expect(parseFlowCsv(`date,flow${',x'.repeat(98)}\n2020-01-01,1\n`)).toMatchObject({ ok: true })
+  })
+
+  it('lists the first 1,000 bad lines and counts them all', () => {
+    const r = parseFlowCsv(`date,flow\n${'2020-01-01\n'.repeat(5000)}`)
+    expect(r).toMatchObject({ ok: false, kind: 'lines', errorCount: 5000 })
+    if (r.ok || r.kind !== 'lines') return
+    expect(r.errors).toHaveLength(1000)
+    expect(r.errors[999]!.line).toBe(1001)
+    expect(r.message).toMatch(/^file: line 2: the line has 1 field; the header has 2 \(and 4999 more lines\); nothing was stored$/)
+  })
+})

@@ -5,7 +5,12 @@ import { UploadError } from '../../../composables/useUpload'
 describe('uploadOutcomeFromError', () => {
   it('shows per-line errors from a 422', () => {
     const out = uploadOutcomeFromError(new UploadError(422, { statusCode: 422, message: 'file: 2 lines could not be read', data: { errors: [{ line: 3, reason: 'date is not a date' }, { line: 9, reason: 'flow is negative' }] } }))
-    expect(out).toEqual({ kind: 'lines', message: 'file: 2 lines could not be read', errors: [{ line: 3, reason: 'date is not a date' }, { line: 9, reason: 'flow is negative' }] })
+    expect(out).toEqual({ kind: 'lines', message: 'file: 2 lines could not be read', errors: [{ line: 3, reason: 'date is not a date' }, { line: 9, reason: 'flow is negative' }], count: 2 })
+  })
+
+  it('counts every bad line when the server lists only the first ones', () => {
+    const out = uploadOutcomeFromError(new UploadError(422, { message: 'file: line 2: … (and 49999 more lines)', data: { errors: [{ line: 2, reason: 'x' }], errorCount: 50_000 } }))
+    expect(out).toMatchObject({ kind: 'lines', count: 50_000 })
   })
 
   it('asks for columns when the server sends the header', () => {

@@ -18,7 +18,8 @@ const unprocessable = (message: string, data: FlowUploadErrorData) =>
 export default defineEventHandler(async (event): Promise<FlowUploadResult> => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
-  const { file, fileName, mediaType, fields } = await readUpload(event, MAX_FLOW_CSV_BYTES)
+  const { file, fields } = await readUploadInMemory(event, MAX_FLOW_CSV_BYTES)
+  const { fileName, mediaType } = file
   const form = parseFields(FlowRecordFormSchema, fields)
 
   const extensionOk = FLOW_CSV_EXTENSIONS.some((ext) => fileName.toLowerCase().endsWith(ext))
@@ -60,7 +61,7 @@ export default defineEventHandler(async (event): Promise<FlowUploadResult> => {
   })
   if (!parsed.ok) {
     if (parsed.kind === 'columns') throw unprocessable(parsed.message, { errors: [], needsColumns: true, header: parsed.header })
-    throw unprocessable(parsed.message, { errors: parsed.errors })
+    throw unprocessable(parsed.message, { errors: parsed.errors, errorCount: parsed.errorCount })
   }
   if (!parsed.days.some((d) => d.flow !== null) && !storedDays.some((d) => d.flow !== null)) {
     throw unprocessable('file: has no day with a flow; every line is a gap', { errors: [] })
