@@ -30,8 +30,11 @@ export function bodyTooLarge(what: string, limit: number) {
   })
 }
 
-/** A refused body whose declared length is at most this is read and thrown away, bytes. */
-const DISCARD_AT_MOST = 16 * 1024 * 1024
+/**
+ * A refused body whose declared length is at most this is read and thrown away, bytes: nuxt-security
+ * refuses declared bodies over 64 MB (uploads; 32 MB otherwise) before any route, so this is bounded.
+ */
+const DISCARD_AT_MOST = 64 * 1024 * 1024 + 64 * 1024
 
 /**
  * Ends reading from a request whose body is refused, holding none of it. A body of declared

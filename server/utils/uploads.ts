@@ -46,18 +46,13 @@ interface Sink {
 }
 
 /**
- * What happens to the rest of a refused body. A chunked one could be endless: it is read no further,
- * and the connection closes after the answer (stopReading). One of declared length, which is bounded
- * (nuxt-security refuses declared uploads over 64 MB before any route), is read and thrown away, so
- * the client, still sending, gets the answer whole and keeps its connection: closing on a client in
- * mid-send resets the connection, and the client may never see the answer.
+ * What happens to the rest of a refused body (see stopReading in body.ts): a chunked one could be
+ * endless and is read no further, the connection closing after the answer; one of declared, bounded
+ * length is read and thrown away, so the client, still sending, gets the answer whole.
  */
 function leaveRest(event: H3Event, bb?: busboy.Busboy) {
-  const req = event.node.req
-  if (/\bchunked\b/i.test(String(req.headers['transfer-encoding'] ?? ''))) return stopReading(event)
-  if (bb) req.unpipe(bb)
-  req.removeAllListeners('data')
-  req.resume()
+  if (bb) event.node.req.unpipe(bb)
+  stopReading(event)
 }
 
 const badRequest = (message: string) => createError({ statusCode: 400, statusMessage: 'Bad Request', message })

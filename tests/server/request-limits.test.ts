@@ -1,4 +1,4 @@
-import { request } from 'node:http'
+import { connect } from 'node:net'
 import { describe, expect, inject, it } from 'vitest'
 import { Client, signUp } from './client'
 import { createSite } from './sites-helpers'
@@ -8,32 +8,51 @@ import { createSite } from './sites-helpers'
 // ids are plain digits; signed-in answers are never cached.
 
 /**
- * Sends a chunked body (no Content-Length) of up to `totalBytes`, stopping as soon as the answer
- * arrives; resolves with the status and how many bytes had been written by then.
+ * Sends a chunked JSON body (no Content-Length) of up to `totalBytes` over a raw socket, stopping as
+ * soon as an answer arrives; resolves with the status, the answer's body and how many bytes had been
+ * written by then. A raw socket keeps the answer even when the server closes the connection while
+ * the client is still writing (the write then fails, the answer is already in).
  */
-function sendChunked(path: string, totalBytes: number, headers: Record<string, string> = {}): Promise<{ status: number; sent: number; body: string }> {
+function sendChunked(path: string, totalBytes: number): Promise<{ status: number; sent: number; body: string }> {
   const url = new URL(path, inject('baseURL'))
   return new Promise((resolve, reject) => {
     let sent = 0
-    let answered = false
-    const req = request(url, { method: 'POST', headers: { 'content-type': 'application/json', 'transfer-encoding': 'chunked', ...headers } }, (res) => {
-      answered = true
-      let body = ''
-      res.on('data', (d) => (body += d))
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, sent, body }))
-      res.on('error', reject)
-    })
-    req.on('error', (error) => (answered ? undefined : reject(error)))
-    const chunk = Buffer.alloc(256 * 1024, 'a')
-    req.write('{"email":"')
-    const pump = () => {
-      while (!answered && sent < totalBytes) {
-        sent += chunk.length
-        if (!req.write(chunk)) return void req.once('drain', pump)
-      }
-      if (!answered) req.end('"}')
+    let received = ''
+    let done = false
+    const socket = connect(Number(url.port), url.hostname)
+    const finish = () => {
+      if (done) return
+      const head = /^HTTP\/1\.1 (\d{3})[\s\S]*?\r\n\r\n([\s\S]*)$/.exec(received)
+      if (!head) return
+      // The body is one chunk (or a Content-Length body): its JSON object is between the braces.
+      const json = /\{[\s\S]*\}/.exec(head[2]!)?.[0]
+      if (!json) return
+      done = true
+      socket.destroy()
+      resolve({ status: Number(head[1]), sent, body: json })
     }
-    pump()
+    socket.on('data', (d) => {
+      received += d.toString('utf8')
+      finish()
+    })
+    socket.on('error', () => finish())
+    socket.on('close', () => {
+      finish()
+      if (!done) reject(new Error(`no answer; got: ${received.slice(0, 200)}`))
+    })
+    socket.on('connect', () => {
+      socket.write(`POST ${url.pathname} HTTP/1.1\r\nHost: ${url.host}\r\nContent-Type: application/json\r\nTransfer-Encoding: chunked\r\n\r\n`)
+      const chunk = Buffer.alloc(256 * 1024, 'a')
+      const frame = Buffer.concat([Buffer.from(`${chunk.length.toString(16)}\r\n`), chunk, Buffer.from('\r\n')])
+      const pump = () => {
+        while (!done && !socket.destroyed && sent < totalBytes) {
+          sent += chunk.length
+          if (!socket.write(frame)) return void socket.once('drain', pump)
+        }
+        if (!done && !socket.destroyed) socket.write('0\r\n\r\n')
+      }
+      pump()
+    })
   })
 }
 

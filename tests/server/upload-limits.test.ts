@@ -33,8 +33,9 @@ async function start() {
 beforeAll(async () => {
   await start()
   email = uniqueEmail('limits')
-  const res = await owner.post('/api/auth/signup', { name: 'Test limits', email, password: GOOD_PASSWORD, organisationName: 'Org of limits' })
-  expect(res.status, JSON.stringify(res.body)).toBe(201)
+  expect((await owner.post('/api/auth/signup', { name: 'Test limits', email, password: GOOD_PASSWORD, organisationName: 'Org of limits' })).status).toBe(202)
+  const res = await owner.post('/api/auth/login', { email, password: GOOD_PASSWORD })
+  expect(res.status, JSON.stringify(res.body)).toBe(200)
   orgId = res.body.memberships[0].orgId
   siteId = (await createSite(owner, orgId)).id
 })
