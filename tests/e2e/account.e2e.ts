@@ -66,7 +66,7 @@ await runJourney('account', async (browser) => {
   await signInAs(phone, EMAIL, FIRST_PASSWORD)
   await laptop.reload()
   await laptop.waitForFunction(() => document.querySelectorAll('[data-testid=account-sessions] tbody tr').length === 2)
-  assert.match(await laptop.innerText("[data-testid=account-sessions]"), /This browser/)
+  assert.match(await laptop.innerText('[data-testid=account-sessions]'), /This browser/)
   await shot(laptop, 'a03-two-sessions')
   await laptop.click('[data-testid=end-other-sessions]')
   await laptop.waitForFunction(() => /One other browser was signed out/.test(document.querySelector('[data-testid=account-sessions]')?.textContent ?? ''))

@@ -79,6 +79,10 @@ describe('sign-in throttle', () => {
     let last = 0
     for (let i = 0; i < 31; i++) last = (await client.request('GET', `/api/invitations/guess-${i}-aaaaaaaaaaaa`, undefined, from('203.0.113.50'))).status
     expect(last).toBe(429)
+    // One bucket for every kind of link: summary links and reset links are slowed for that address too.
+    expect((await client.request('GET', '/api/public/summary/guess-summary-aaaaaaaa', undefined, from('203.0.113.50'))).status).toBe(429)
+    expect((await client.request('POST', '/api/auth/password-reset/guess-reset-aaaaaaa', { password: 'whatever long enough' }, from('203.0.113.50'))).status).toBe(429)
     expect((await client.request('GET', '/api/invitations/guess-x-aaaaaaaaaaaa', undefined, from('203.0.113.51'))).status).toBe(404)
+    expect((await client.request('GET', '/api/public/summary/guess-summary-aaaaaaaa', undefined, from('203.0.113.51'))).status).toBe(404)
   })
 })

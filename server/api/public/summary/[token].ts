@@ -19,10 +19,17 @@ export default defineEventHandler(async (event): Promise<PublicSummaryDto> => {
   const parsed = Params.safeParse(getRouterParams(event, { decode: true }))
   const token = parsed.success ? parsed.data.token : undefined
   if (!token) throw gone()
+  // Someone guessing tokens is slowed like any other guesser of links (per client address).
+  const linkKeys: [ThrottleBucket, string][] = [['link-address', clientAddress(event)]]
+  await assertNotThrottled(event, linkKeys)
   const db = useDb()
   const now = nowIso()
   const link = await db.selectFrom('summary_links').selectAll().where('token_hash', '=', hashLinkToken(token)).executeTakeFirst()
-  if (!link || !linkTokenMatches(token, link.token_hash) || summaryLinkState(link, now) !== 'active') throw gone()
+  if (!link || !linkTokenMatches(token, link.token_hash)) {
+    await recordHit(linkKeys)
+    throw gone()
+  }
+  if (summaryLinkState(link, now) !== 'active') throw gone()
   const site = await db.selectFrom('sites').selectAll().where('id', '=', link.site_id).where('deleted_at', 'is', null).executeTakeFirst()
   if (!site) throw gone()
   const summary = await loadPublicSummary(link, site)
