@@ -16,23 +16,12 @@ export default defineEventHandler(async (event) => {
   }
   const db = useDb()
   const removed = await db.transaction().execute(async (trx) => {
-    const current = await trx.selectFrom('memberships').select('role').where('org_id', '=', orgId).where('user_id', '=', userId).executeTakeFirst()
-    if (!current) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'userId: no such member in this organisation' })
-    if (current.role === 'admin') {
-      const { admins } = await trx
-        .selectFrom('memberships')
-        .select((eb) => eb.fn.countAll<number>().as('admins'))
-        .where('org_id', '=', orgId)
-        .where('role', '=', 'admin')
-        .executeTakeFirstOrThrow()
-      if (Number(admins) <= 1) {
-        throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `userId: the organisation must keep at least one admin; ${leaving ? 'make someone else admin before you leave' : 'this is the last one'}` })
-      }
-    }
+    const current = await memberRole(trx, orgId, userId)
+    if (current === 'admin') await assertAnotherAdmin(trx, orgId, 'userId', leaving ? 'make someone else admin before you leave' : 'this is the last one')
     await trx.deleteFrom('memberships').where('org_id', '=', orgId).where('user_id', '=', userId).execute()
     await trx.deleteFrom('site_grants').where('org_id', '=', orgId).where('user_id', '=', userId).execute()
     await trx.updateTable('users').set({ last_org_id: null }).where('id', '=', userId).where('last_org_id', '=', orgId).execute()
-    return current.role
+    return current
   })
   await audit({ orgId, userId: user.id, action: leaving ? 'member.left' : 'member.removed', targetType: 'user', targetId: userId, detail: { before: { role: removed }, after: null } })
   return { userId, removed: true }

@@ -11,21 +11,10 @@ export default defineEventHandler(async (event) => {
   const { role } = await readValidatedJson(event, MemberRoleSchema, BODY_LIMITS.form)
   const db = useDb()
   const result = await db.transaction().execute(async (trx) => {
-    const current = await trx.selectFrom('memberships').select('role').where('org_id', '=', orgId).where('user_id', '=', userId).executeTakeFirst()
-    if (!current) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'userId: no such member in this organisation' })
-    if (current.role === 'admin' && role !== 'admin') {
-      const { admins } = await trx
-        .selectFrom('memberships')
-        .select((eb) => eb.fn.countAll<number>().as('admins'))
-        .where('org_id', '=', orgId)
-        .where('role', '=', 'admin')
-        .executeTakeFirstOrThrow()
-      if (Number(admins) <= 1) {
-        throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'role: the organisation must keep at least one admin' })
-      }
-    }
+    const current = await memberRole(trx, orgId, userId)
+    if (current === 'admin' && role !== 'admin') await assertAnotherAdmin(trx, orgId, 'role', '')
     await trx.updateTable('memberships').set({ role }).where('org_id', '=', orgId).where('user_id', '=', userId).execute()
-    return { from: current.role, to: role }
+    return { from: current, to: role }
   })
   await audit({ orgId, userId: user.id, action: 'member.role-changed', targetType: 'user', targetId: userId, detail: result })
   return { userId, role }
