@@ -80,9 +80,8 @@ export const uniqueEmail = (tag: string) => `${tag}-${Date.now().toString(36)}-$
 
 export const GOOD_PASSWORD = 'correct horse battery'
 
-/** Signs up a fresh person with their own organisation; returns the signed-in client. */
-export async function signUp(tag = 'person') {
-  const client = new Client()
+/** Signs up a fresh person with their own organisation; returns the signed-in client (a new one on the shared server unless given). */
+export async function signUp(tag = 'person', client = new Client()) {
   const email = uniqueEmail(tag)
   const res = await client.post('/api/auth/signup', { name: `Test ${tag}`, email, password: GOOD_PASSWORD, organisationName: `Org of ${tag}` })
   if (res.status !== 201) throw new Error(`signup failed: ${res.status} ${JSON.stringify(res.body)}`)
