@@ -2,6 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startBuiltServer, type BuiltServer } from '../../scripts/builtServer.mjs'
 import { draft, record } from '../unit/engine/fixtures'
 import { Client, signUp } from './client'
+import { createOption } from './options-helpers'
+import { createSite } from './sites-helpers'
 
 // Engine work runs in the worker-thread pool, off the request thread: a heavy sweep leaves the server
 // answering; a full queue, a run past its time limit and a caller past their rate limit get a clear
@@ -128,7 +130,7 @@ describe('the time limit and the rate limit, on a server with a short time limit
     server = await startBuiltServer({
       prefix: 'gillwatt-test-pool-',
       env: {
-        NUXT_ENGINE_POOL_TIME_LIMIT_MS: '300',
+        NUXT_ENGINE_POOL_TIME_LIMIT_MS: '2000',
         NUXT_RATE_LIMITS: JSON.stringify({ 'engine-sweep': { limit: 3, windowSeconds: 3600 } }),
       },
     })
@@ -150,13 +152,14 @@ describe('the time limit and the rate limit, on a server with a short time limit
   it('answers 429 with Retry-After past a person\'s sweep limit, on both sweep routes, and not to anyone else', async () => {
     const one = await signUp('pool-rate-one', new Client(server.baseURL))
     const other = await signUp('pool-rate-other', new Client(server.baseURL))
+    const option = await createOption(one.client, (await createSite(one.client, one.orgId)).id)
     for (let k = 0; k < 3; k++) expect((await one.client.post('/api/engine/sweep', SMALL_SWEEP)).status).toBe(200)
     const refused = await one.client.post('/api/engine/sweep', SMALL_SWEEP)
     expect(refused.status).toBe(429)
     expect(Number(refused.headers.get('retry-after'))).toBeGreaterThan(0)
     expect(refused.body.message).toMatch(/too many sweeps/i)
-    // The option sweep shares the person's sweep allowance, before anything is looked up.
-    expect((await one.client.post('/api/options/1/sweep', { grid: SMALL_SWEEP.grid })).status).toBe(429)
+    // The option sweep shares the person's sweep allowance.
+    expect((await one.client.post(`/api/options/${option.id}/sweep`, { grid: SMALL_SWEEP.grid })).status).toBe(429)
     expect((await other.client.post('/api/engine/sweep', SMALL_SWEEP)).status).toBe(200)
     // Assessments have an allowance of their own.
     expect((await one.client.post('/api/engine/assess', draft())).status).toBe(200)

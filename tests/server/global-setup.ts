@@ -17,8 +17,17 @@ export async function setup(project: TestProject) {
   server = await startBuiltServer({
     prefix: 'gillwatt-test-',
     sessionPassword: 'test-only-session-password-0123456789abcdef',
-    // Links in mail and summary links keep nuxt.config's http://localhost:3000, which the tests expect.
-    env: { NUXT_PUBLIC_APP_URL: undefined },
+    env: {
+      // Links in mail and summary links keep nuxt.config's http://localhost:3000, which the tests expect.
+      NUXT_PUBLIC_APP_URL: undefined,
+      // Property tests (hostile-engine, fast-check) make hundreds of engine calls as one person; the
+      // per-person limits themselves are tested on a server of their own (engine-pool.test.ts).
+      NUXT_RATE_LIMITS: JSON.stringify({
+        'engine-sweep': { limit: 100_000 },
+        'engine-sensitivity': { limit: 100_000 },
+        'engine-assess': { limit: 100_000 },
+      }),
+    },
   })
   project.provide('baseURL', server.baseURL)
   project.provide('databasePath', server.databasePath)
