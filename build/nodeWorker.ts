@@ -15,6 +15,25 @@ import type { Plugin } from 'rollup'
 const MARKER = '?node-worker'
 const PREFIX = '\0node-worker:'
 
+/** Bundles a worker's entry file with everything it imports into one ES module: its code and the files it read. */
+export async function bundleNodeWorker(entry: string): Promise<{ code: string; inputs: string[] }> {
+  const out = await build({
+    entryPoints: [entry],
+    bundle: true,
+    format: 'esm',
+    platform: 'node',
+    target: 'node20',
+    write: false,
+    metafile: true,
+    // Half the size: a new thread (at start, or after a run past its time limit) loads it faster.
+    minify: true,
+    keepNames: true,
+    legalComments: 'none',
+    logLevel: 'silent',
+  })
+  return { code: out.outputFiles[0]!.text, inputs: Object.keys(out.metafile.inputs).map((input) => resolve(input)) }
+}
+
 /** Rollup plugin for Nitro (`nitro.rollupConfig.plugins`) bundling `?node-worker` imports. */
 export function nodeWorker(): Plugin {
   return {
@@ -30,23 +49,10 @@ export function nodeWorker(): Plugin {
       if (!id.startsWith(PREFIX)) return null
       const entry = id.slice(PREFIX.length)
       const fileName = `workers/${basename(entry).replace(/\.[cm]?[jt]s$/, '')}.mjs`
-      const out = await build({
-        entryPoints: [entry],
-        bundle: true,
-        format: 'esm',
-        platform: 'node',
-        target: 'node20',
-        write: false,
-        metafile: true,
-        // Half the size: a new thread (at start, or after a run past its time limit) loads it faster.
-        minify: true,
-        keepNames: true,
-        legalComments: 'none',
-        logLevel: 'silent',
-      })
+      const { code, inputs } = await bundleNodeWorker(entry)
       // Rebuild in development when the worker or anything it imports changes.
-      for (const input of Object.keys(out.metafile.inputs)) this.addWatchFile(resolve(input))
-      this.emitFile({ type: 'asset', fileName, source: out.outputFiles[0]!.text })
+      for (const input of inputs) this.addWatchFile(input)
+      this.emitFile({ type: 'asset', fileName, source: code })
       return `export default function workerUrl() { return new URL(${JSON.stringify(fileName)}, globalThis._importMeta_.url).href }\n`
     },
   }

@@ -4,6 +4,6 @@ export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   rateLimit(event, 'engine-sensitivity', user.id)
   assertEngineRoom(event)
-  const body = await readJsonText(event, BODY_LIMITS.engine)
+  const body = await readEngineBody(event)
   return runEngine(event, { kind: 'sensitivity', body })
 })
