@@ -13,14 +13,20 @@ import { AssessInputSchema, type AssessInput, type SweepGrid } from '../shared/s
 import { SensitivityRequestSchema, SweepRequestSchema } from '../shared/schemas/engineRequests'
 import { InputError, validator } from '../server/utils/validate'
 
-/** One piece of engine work. `body` is a request body as received (undefined when there was none). */
-export type EngineTask =
+/**
+ * One piece of engine work. `body` is a request body as received (undefined when there was none);
+ * with `answer: 'json'` the result comes back as JSON text, ready to send, so the request thread
+ * neither copies nor serialises it.
+ */
+export type EngineTask = (
+
   | { kind: 'assess'; body: string | undefined }
   | { kind: 'sweep'; body: string | undefined }
   | { kind: 'sensitivity'; body: string | undefined }
   | { kind: 'assess-input'; input: AssessInput }
   | { kind: 'sweep-input'; input: AssessInput; grid: SweepGrid }
   | { kind: 'design-at'; input: AssessInput; throatDiameter_m: number; units: number; throatDepth_m: number }
+) & { answer?: 'value' | 'json' }
 
 /** What each kind of task answers. */
 export interface EngineResults {
@@ -42,6 +48,7 @@ export interface FieldIssue {
 /** A task's answer: its value, or why not (400: the body or a field the schema refuses; 422: the engine refuses a field; 500: a fault). */
 export type EngineOutcome<T = unknown> =
   | { ok: true; value: T }
+  | { ok: true; json: string }
   | { ok: false; status: 400 | 422; statusMessage: string; message: string; issues: FieldIssue[] }
   | { ok: false; status: 500; message: string }
 
@@ -86,7 +93,8 @@ function compute(task: EngineTask): EngineResults[EngineTask['kind']] {
 /** Runs one task (piscina calls the default export), answering a value or why not, never throwing. */
 export default function runEngineTask(task: EngineTask): EngineOutcome {
   try {
-    return { ok: true, value: compute(task) }
+    const value = compute(task)
+    return task.answer === 'json' ? { ok: true, json: JSON.stringify(value) } : { ok: true, value }
   } catch (error) {
     // The same answers as server/utils/body.ts (broken JSON) and readValidatedJson (a refused field).
     if (error instanceof BrokenJson) return { ok: false, status: 400, statusMessage: 'Bad Request', message: error.message, issues: [{ path: 'body', message: error.message.slice('body: '.length) }] }

@@ -97,6 +97,23 @@ export function assertEngineRoom(event: H3Event): void {
  * 503 with Retry-After (queue full, or past the time limit). A caller who goes away cancels the run.
  */
 export async function runEngine<K extends EngineTask['kind']>(event: H3Event, task: Extract<EngineTask, { kind: K }>): Promise<EngineResults[K]> {
+  const outcome = await runInPool(event, { ...task, answer: 'value' })
+  if (!('value' in outcome)) throw new Error('engine worker: answered JSON text where a value was asked for')
+  return outcome.value as EngineResults[K]
+}
+
+/**
+ * As `runEngine`, but answers the result as the route's JSON response, serialised in the worker:
+ * for routes that send the engine's result as it is (the stateless engine routes).
+ */
+export async function respondWithEngine(event: H3Event, task: EngineTask): Promise<string> {
+  const outcome = await runInPool(event, { ...task, answer: 'json' })
+  if (!('json' in outcome)) throw new Error('engine worker: answered a value where JSON text was asked for')
+  setResponseHeader(event, 'Content-Type', 'application/json')
+  return outcome.json
+}
+
+async function runInPool(event: H3Event, task: EngineTask): Promise<Extract<EngineOutcome, { ok: true }>> {
   const { pool, settings } = enginePool()
   // piscina's own queue-full error carries no code: check first and answer plainly.
   if (pool.queueSize >= settings.queueLimit) throw busy(event, pool.queueSize)
@@ -129,7 +146,7 @@ export async function runEngine<K extends EngineTask['kind']>(event: H3Event, ta
   } finally {
     res.off('close', onClose)
   }
-  if (outcome.ok) return outcome.value as EngineResults[K]
+  if (outcome.ok) return outcome
   if (outcome.status === 500) throw new Error(`engine worker: ${outcome.message}`)
   throw createError({ statusCode: outcome.status, statusMessage: outcome.statusMessage, message: outcome.message, data: { issues: outcome.issues } })
 }

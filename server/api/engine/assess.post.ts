@@ -6,5 +6,5 @@ export default defineEventHandler(async (event) => {
   rateLimit(event, 'engine-assess', user.id)
   assertEngineRoom(event)
   const body = await readEngineBody(event)
-  return runEngine(event, { kind: 'assess', body })
+  return respondWithEngine(event, { kind: 'assess', body })
 })

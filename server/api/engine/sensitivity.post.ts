@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   rateLimit(event, 'engine-sensitivity', user.id)
   assertEngineRoom(event)
   const body = await readEngineBody(event)
-  return runEngine(event, { kind: 'sensitivity', body })
+  return respondWithEngine(event, { kind: 'sensitivity', body })
 })

@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   rateLimit(event, 'engine-sweep', user.id)
   assertEngineRoom(event)
   const body = await readEngineBody(event)
-  return runEngine(event, { kind: 'sweep', body })
+  return respondWithEngine(event, { kind: 'sweep', body })
 })
