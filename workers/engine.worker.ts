@@ -3,14 +3,17 @@
 // pure code: shared/ and the zod validator. (workers/sweep.worker.ts is the browser's Web Worker.)
 // Stateless routes post the body as raw JSON text, parsed and checked here (posting a parsed
 // 80,000-day object costs the request thread far more than the text); stored-option routes post the
-// input they built from the database. Failures come back as values: an Error loses its class and
+// input they built from the database; the hydrology tab posts a site's stored days. Failures come back as values: an Error loses its class and
 // fields across the thread boundary.
 import { assess, type AssessResult } from '../shared/engine/assess'
 import { EngineInputError } from '../shared/engine/errors'
+import { fdcFromRecord, fdcStats, monthlyFdcs, reservedFlow, type DailyFlow, type ReservedFlowSetting } from '../shared/engine/hydrology'
 import { sensitivity, type SensitivityResult } from '../shared/engine/sensitivity'
 import { sweep, withDesign, type SweepResult } from '../shared/engine/sweep'
 import { AssessInputSchema, type AssessInput, type SweepGrid } from '../shared/schemas/assess'
 import { SensitivityRequestSchema, SweepRequestSchema } from '../shared/schemas/engineRequests'
+import type { HydrologyDto } from '../shared/schemas/site'
+import { fdcChartPoints } from '../shared/utils/fdcChart'
 import { InputError, validator } from '../server/utils/validate'
 
 /**
@@ -26,6 +29,7 @@ export type EngineTask = (
   | { kind: 'assess-input'; input: AssessInput }
   | { kind: 'sweep-input'; input: AssessInput; grid: SweepGrid }
   | { kind: 'design-at'; input: AssessInput; throatDiameter_m: number; units: number; throatDepth_m: number }
+  | { kind: 'record-hydrology'; days: DailyFlow[]; reservedFlow: ReservedFlowSetting }
 ) & { answer?: 'value' | 'json' }
 
 /** What each kind of task answers. */
@@ -37,6 +41,8 @@ export interface EngineResults {
   'sweep-input': SweepResult
   /** The option's design moved to that grid point (as the sweep moves it). */
   'design-at': AssessInput['option']
+  /** A site's stored record as the hydrology tab shows it: its curve for charting, statistics, months, reserved flow. */
+  'record-hydrology': Pick<HydrologyDto, 'points' | 'stats' | 'monthly' | 'count'> & { reservedFlow: number }
 }
 
 /** A field and what is wrong with it. */
@@ -87,6 +93,18 @@ function compute(task: EngineTask): EngineResults[EngineTask['kind']] {
       return sweep(task.input, task.grid)
     case 'design-at':
       return withDesign(task.input, task.throatDiameter_m, task.units, task.throatDepth_m).option
+    case 'record-hydrology': {
+      const fdc = fdcFromRecord(task.days)
+      const counts = new Array<number>(12).fill(0)
+      for (const d of task.days) if (d.flow !== null) counts[Number(d.date.slice(5, 7)) - 1]! += 1
+      return {
+        points: fdcChartPoints(fdc),
+        stats: fdcStats(fdc),
+        monthly: monthlyFdcs(task.days).map((m, k) => ({ month: k + 1, days: counts[k]!, stats: m ? fdcStats(m) : null })),
+        reservedFlow: reservedFlow(task.reservedFlow, fdc),
+        count: fdc.count,
+      }
+    }
   }
 }
 

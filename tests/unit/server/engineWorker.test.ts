@@ -6,6 +6,7 @@ import { Piscina } from 'piscina'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { bundleNodeWorker } from '../../../build/nodeWorker'
 import { assess } from '../../../shared/engine/assess'
+import { fdcFromRecord, fdcStats, reservedFlow } from '../../../shared/engine/hydrology'
 import { sweep } from '../../../shared/engine/sweep'
 import runEngineTask, { type EngineOutcome, type EngineTask } from '../../../workers/engine.worker'
 import { draft, parse, record } from '../engine/fixtures'
@@ -34,6 +35,17 @@ describe('runEngineTask', () => {
     expect(runEngineTask({ kind: 'sweep-input', input, grid: GRID })).toEqual({ ok: true, value: sweep(input, GRID) })
     const moved = runEngineTask({ kind: 'design-at', input, throatDiameter_m: 0.3, units: 3, throatDepth_m: 1 })
     expect(moved).toMatchObject({ ok: true, value: { throatDiameter_m: 0.3, outletDiameter_m: 0.6, units: 3, throatDepth_m: 1 } })
+  })
+
+  it('works through a stored record for the hydrology tab: chart points, statistics, months and reserved flow', () => {
+    const days = record('2001-01-01', Array.from({ length: 730 }, (_, i) => (i % 50 === 7 ? null : 1 + (i % 365) / 100)))
+    const r = runEngineTask({ kind: 'record-hydrology', days, reservedFlow: { kind: 'percentile', exceedance: 95 } })
+    const fdc = fdcFromRecord(days)
+    expect(r).toMatchObject({ ok: true, value: { stats: fdcStats(fdc), reservedFlow: reservedFlow({ kind: 'percentile', exceedance: 95 }, fdc), count: fdc.count } })
+    const value = (r as { value: { points: unknown[]; monthly: { month: number; days: number }[] } }).value
+    expect(value.points).toHaveLength(200)
+    expect(value.monthly.map((m) => m.month)).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12])
+    expect(value.monthly.reduce((n, m) => n + m.days, 0)).toBe(fdc.count)
   })
 
   it('answers 400 naming the body for broken JSON and for prototype keys', () => {
