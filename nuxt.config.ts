@@ -1,3 +1,5 @@
+import { nodeWorker } from './build/nodeWorker'
+
 // Gillwatt keeps app.vue, pages/, components/, stores/ at the repo root (srcDir '.'), not in app/.
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
@@ -45,6 +47,14 @@ export default defineNuxtConfig({
       // server/utils/throttle.ts.
       addressFactor: 1,
     },
+    // The engine's worker threads (server/utils/enginePool.ts), so engine work never holds the request
+    // thread. threads 0: one fewer than the machine's cores, at least 1 (NUXT_ENGINE_POOL_THREADS).
+    // A run may take timeLimitMs, its wait in the queue included (NUXT_ENGINE_POOL_TIME_LIMIT_MS);
+    // at most queueLimit runs wait for a thread (NUXT_ENGINE_POOL_QUEUE_LIMIT). Past either: 503.
+    enginePool: { threads: 0, timeLimitMs: 30_000, queueLimit: 32 },
+    // Changes to the per-person rate limits of server/utils/rateLimit.ts (RATE_LIMITS), by bucket:
+    // NUXT_RATE_LIMITS='{"engine-sweep":{"limit":60,"windowSeconds":60}}'. Empty keeps the defaults.
+    rateLimits: {} as Record<string, { limit?: number; windowSeconds?: number }>,
     public: {
       // Base of the links in e-mails and summary links (NUXT_PUBLIC_APP_URL).
       appUrl: 'http://localhost:3000',
@@ -117,6 +127,9 @@ export default defineNuxtConfig({
   },
   nitro: {
     experimental: { tasks: false },
+    // `import x from '…?node-worker'` bundles a worker thread's file into .output/server/workers/
+    // (build/nodeWorker.ts): the engine's worker pool needs a real file after the build.
+    rollupConfig: { plugins: [nodeWorker()] },
     // Client files are stored gzip- and brotli-compressed beside the originals at build time and
     // sent compressed to browsers that accept it.
     compressPublicAssets: true,

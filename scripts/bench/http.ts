@@ -37,7 +37,8 @@ async function load(opts: autocannon.Options): Promise<Load> {
 }
 
 export async function httpBench(): Promise<BenchFigure[]> {
-  const server: BenchServer = await startBenchServer()
+  // One person makes every request: the per-person assessment limit is raised so it measures the server.
+  const server: BenchServer = await startBenchServer({ env: { NUXT_RATE_LIMITS: JSON.stringify({ 'engine-assess': { limit: 1_000_000 } }) } })
   try {
     const me = await signUpSession(server.baseURL, 'load')
     const body = assessExample()

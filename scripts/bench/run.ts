@@ -9,6 +9,7 @@ import { engineBench } from './engine'
 import { type BenchFigure, machine } from './harness'
 import { httpBench } from './http'
 import { portfolioBench } from './portfolio'
+import { poolLoadBench } from './poolLoad'
 import { portfolioPageBench } from './portfolioPage'
 import { assertBuilt } from './server'
 import { uploadBench } from './upload'
@@ -25,6 +26,7 @@ const suites: Suite[] = [
   { title: 'Engine', run: engineBench, needsBuild: false },
   { title: 'Portfolio', run: portfolioBench, needsBuild: false },
   { title: 'HTTP load', run: httpBench, needsBuild: true },
+  { title: 'Engine pool under load', run: poolLoadBench, needsBuild: true },
   { title: 'Upload', run: uploadBench, needsBuild: true },
   { title: 'Portfolio page', run: portfolioPageBench, needsBuild: true },
   { title: 'Client JavaScript', run: bundleBench, needsBuild: true },

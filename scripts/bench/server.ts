@@ -27,15 +27,17 @@ export interface BenchServer {
 
 /**
  * Starts the built server in production mode on a fresh temporary database and waits for
- * /api/health. `demo: true` loads the demo scenario (`db/cli.ts seed`, as `npm run db:seed`) first.
+ * /api/health. `demo: true` loads the demo scenario (`db/cli.ts seed`, as `npm run db:seed`) first;
+ * `env` adds to the server's environment (e.g. raised rate limits).
  */
-export async function startBenchServer(opts: { demo?: boolean } = {}): Promise<BenchServer> {
+export async function startBenchServer(opts: { demo?: boolean; env?: Record<string, string> } = {}): Promise<BenchServer> {
   assertBuilt()
   const server = await startBuiltServer({
     entry: SERVER_ENTRY,
     prefix: 'gillwatt-bench-server-',
     seed: opts.demo,
     sessionPassword: SESSION_PASSWORD,
+    env: opts.env,
     // Should the benchmark end without stop(), the server goes with it.
     onSpawn: (child) => {
       const kill = () => child.kill('SIGKILL')

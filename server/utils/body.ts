@@ -64,8 +64,9 @@ const RawBodySymbol = Symbol.for('h3RawBody')
  */
 export function readBodyBytes(event: H3Event, limit: number, what = 'body'): Promise<Buffer | undefined> {
   const req = event.node.req as typeof event.node.req & { [RawBodySymbol]?: Promise<Buffer | undefined> }
+  // A body read before (by another reader, with another limit) is held to this limit too.
   const cached = req[RawBodySymbol]
-  if (cached) return cached
+  if (cached) return cached.then((bytes) => (bytes && bytes.length > limit ? Promise.reject(bodyTooLarge(what, limit)) : bytes))
   const declared = Number(req.headers['content-length'] ?? NaN)
   const chunked = /\bchunked\b/i.test(String(req.headers['transfer-encoding'] ?? ''))
   if (!chunked && !(declared > 0)) return Promise.resolve(undefined)

@@ -96,10 +96,10 @@ export const GOOD_PASSWORD = 'correct horse battery'
 /**
  * Signs up a fresh person with their own organisation, confirms their address with the link from
  * the outbox (unless `verify` is false: the outbox read is the shared test server's, so a person on
- * another server stays unconfirmed), and signs them in; returns the signed-in client.
+ * another server stays unconfirmed), and signs them in; returns the signed-in client (`client`, or a
+ * new one on `baseURL`, by default the shared server).
  */
-export async function signUp(tag = 'person', { verify = true, baseURL }: { verify?: boolean; baseURL?: string } = {}) {
-  const client = new Client(baseURL)
+export async function signUp(tag = 'person', { verify = true, baseURL, client = new Client(baseURL) }: { verify?: boolean; baseURL?: string; client?: Client } = {}) {
   const email = uniqueEmail(tag)
   const res = await client.post('/api/auth/signup', { name: `Test ${tag}`, email, password: GOOD_PASSWORD, organisationName: `Org of ${tag}` })
   if (res.status !== 202) throw new Error(`signup failed: ${res.status} ${JSON.stringify(res.body)}`)

@@ -17,11 +17,22 @@ export async function setup(project: TestProject) {
   server = await startBuiltServer({
     prefix: 'gillwatt-test-',
     sessionPassword: 'test-only-session-password-0123456789abcdef',
-    // Links in mail and summary links keep nuxt.config's http://localhost:3000, which the tests expect.
-    // The tests sign up hundreds of people from one address: the per-address throttles get room
-    // (tests/server/throttle.test.ts checks them on a server of its own), and X-Forwarded-For is
-    // trusted so a test can stand for several client addresses.
-    env: { NUXT_PUBLIC_APP_URL: undefined, NUXT_TRUST_PROXY: 'true', NUXT_THROTTLE_ADDRESS_FACTOR: '1000' },
+    env: {
+      // Links in mail and summary links keep nuxt.config's http://localhost:3000, which the tests expect.
+      NUXT_PUBLIC_APP_URL: undefined,
+      // The tests sign up hundreds of people from one address: the per-address throttles get room
+      // (tests/server/throttle.test.ts checks them on a server of its own), and X-Forwarded-For is
+      // trusted so a test can stand for several client addresses.
+      NUXT_TRUST_PROXY: 'true',
+      NUXT_THROTTLE_ADDRESS_FACTOR: '1000',
+      // Property tests (hostile-engine, fast-check) make hundreds of engine calls as one person; the
+      // per-person limits themselves are tested on a server of their own (engine-pool.test.ts).
+      NUXT_RATE_LIMITS: JSON.stringify({
+        'engine-sweep': { limit: 100_000 },
+        'engine-sensitivity': { limit: 100_000 },
+        'engine-assess': { limit: 100_000 },
+      }),
+    },
   })
   project.provide('baseURL', server.baseURL)
   project.provide('databasePath', server.databasePath)

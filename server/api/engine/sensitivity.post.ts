@@ -1,10 +1,9 @@
-import { sensitivity } from '../../../shared/engine/sensitivity'
-import { SensitivityRequestSchema } from '../../../shared/schemas/engineRequests'
-
 // Stateless: each key input moved by ±fraction, and what that does to energy and oxygen.
+// Signed-in users only, within their sensitivity allowance; the body goes as text to the engine pool.
 export default defineEventHandler(async (event) => {
-  await requireUser(event)
-  assertBodyWithin(event, ENGINE_BODY_LIMIT)
-  const { input, fraction } = await readValidatedBody(event, validator(SensitivityRequestSchema, 'body'))
-  return runEngine(() => sensitivity(input, fraction))
+  const user = await requireUser(event)
+  rateLimit(event, 'engine-sensitivity', user.id)
+  assertEngineRoom(event)
+  const body = await readJsonText(event, BODY_LIMITS.engine)
+  return respondWithEngine(event, { kind: 'sensitivity', body })
 })

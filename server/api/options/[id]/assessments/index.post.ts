@@ -1,4 +1,3 @@
-import { assess } from '../../../../../shared/engine/assess'
 import { AssessInputSchema, type AssessInput } from '../../../../../shared/schemas/assess'
 import { AssessmentCreateSchema, OptionParamsSchema } from '../../../../../shared/schemas/option'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
@@ -7,10 +6,13 @@ import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 // exact input (defaults filled in), the engine version, the headline figures and the whole result.
 // `rerunOf` links the new run to an older one of this option, which is kept; `use: 'stored'` re-runs
 // the older run's stored input exactly, else the input is built afresh from the site and option.
+// Within the person's assessment allowance (shared with POST /api/engine/assess); the engine runs in
+// the worker pool.
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(OptionParamsSchema, 'params'))
   const { user, site, option } = await requireOption(event, id, EDITOR_ROLES)
-  const body = await readValidatedBody(event, validator(AssessmentCreateSchema, 'body'))
+  rateLimit(event, 'engine-assess', user.id)
+  const body = await readValidatedJson(event, AssessmentCreateSchema, BODY_LIMITS.form)
   const db = useDb()
 
   let input: AssessInput | undefined
@@ -35,9 +37,10 @@ export default defineEventHandler(async (event) => {
       input = stored.data
     }
   }
+  assertEngineRoom(event)
   input ??= await assessmentInputFor(site, option)
   const engineInput = input
-  const result = runEngine(() => assess(engineInput))
+  const result = await runEngine(event, { kind: 'assess-input', input: engineInput })
 
   let newId: number
   try {

@@ -1,16 +1,17 @@
-import { withDesign } from '../../../../../shared/engine/sweep'
 import { EngineOptionSchema, OptionParamsSchema, SweepSaveSchema } from '../../../../../shared/schemas/option'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 
 // Engineers and admins save one point of a sweep as a new option at the same site: the option's design
 // with that throat diameter (outlet scaled to keep the area ratio, as the sweep does), units and
-// submergence; its settings and costs carried over. Answers 201 with the new option.
+// submergence; its settings and costs carried over. Answers 201 with the new option. The design is
+// moved by the engine in the worker pool.
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(OptionParamsSchema, 'params'))
   const { user, site, option } = await requireOption(event, id, EDITOR_ROLES)
-  const body = await readValidatedBody(event, validator(SweepSaveSchema, 'body'))
+  const body = await readValidatedJson(event, SweepSaveSchema, BODY_LIMITS.form)
+  assertEngineRoom(event)
   const input = await assessmentInputFor(site, option)
-  const moved = runEngine(() => withDesign(input, body.throatDiameter_m, body.units, body.throatDepth_m)).option
+  const moved = await runEngine(event, { kind: 'design-at', input, throatDiameter_m: body.throatDiameter_m, units: body.units, throatDepth_m: body.throatDepth_m })
   const checked = EngineOptionSchema.safeParse(moved)
   if (!checked.success) {
     const issue = checked.error.issues[0]!
