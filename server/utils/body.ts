@@ -36,11 +36,17 @@ export function bodyTooLarge(what: string, limit: number) {
  */
 const DISCARD_AT_MOST = 64 * 1024 * 1024 + 64 * 1024
 
+/** A refused chunked body is read on and dropped for at most this many bytes, or this long. */
+const CHUNKED_DRAIN_BYTES = 256 * 1024 * 1024
+const CHUNKED_DRAIN_MS = 2000
+
 /**
  * Ends reading from a request whose body is refused, holding none of it. A body of declared
  * length up to DISCARD_AT_MOST is read on and thrown away, so the client (which is still sending)
- * sees the answer rather than a broken pipe; any other body, chunked or larger, stops flowing and
- * the answer goes out with `Connection: close`, so nothing more is read from that connection.
+ * sees the answer rather than a broken pipe. A chunked body could be endless: the answer goes out
+ * with `Connection: close`, and the body is read on and dropped only for a little while (2 s, 256 MB at most),
+ * time for the client to read the answer, before the connection is cut. (Cut at once, the peer's
+ * kernel may throw the answer away with the connection.) Anything larger is cut at once.
  */
 export function stopReading(event: H3Event): void {
   const req = event.node.req
@@ -53,7 +59,23 @@ export function stopReading(event: H3Event): void {
     return
   }
   if (!event.node.res.headersSent) event.node.res.setHeader('Connection', 'close')
-  req.pause()
+  if (!chunked) {
+    req.pause()
+    return
+  }
+  let drained = 0
+  const cut = () => {
+    clearTimeout(timer)
+    req.socket?.destroy()
+  }
+  const timer = setTimeout(cut, CHUNKED_DRAIN_MS)
+  timer.unref()
+  req.on('data', (chunk: Buffer) => {
+    drained += chunk.length
+    if (drained > CHUNKED_DRAIN_BYTES) cut()
+  })
+  req.once('end', () => clearTimeout(timer))
+  req.resume()
 }
 
 const RawBodySymbol = Symbol.for('h3RawBody')

@@ -23,6 +23,12 @@ export const RATE_LIMITS = {
   'engine-sensitivity': { limit: 30, windowSeconds: 60, what: 'sensitivity runs' },
   /** POST /api/engine/assess and POST /api/options/{id}/assessments (one engine run each). */
   'engine-assess': { limit: 60, windowSeconds: 60, what: 'assessments' },
+  /** POST /api/sites/{id}/flow-record and POST /api/sites/{id}/attachments (up to 10 and 20 MB each). */
+  uploads: { limit: 30, windowSeconds: 60, what: 'uploads' },
+  /** POST /api/orgs/{orgId}/invitations: each sends an e-mail to an address the caller chose. */
+  invitations: { limit: 30, windowSeconds: 3600, what: 'invitations' },
+  /** POST /api/sites/{id}/comments: each may e-mail the people it mentions. */
+  comments: { limit: 60, windowSeconds: 60, what: 'comments' },
 } as const satisfies Record<string, RateLimitRule>
 
 /** A bucket name from RATE_LIMITS. */
@@ -78,7 +84,8 @@ export function rateLimitRule(bucket: RateLimitBucket, overrides: unknown = useR
 
 const limiter = new RateLimiter()
 
-const spell = (seconds: number) => (seconds === 60 ? 'a minute' : seconds % 3600 === 0 ? `per ${seconds / 3600} hour(s)` : seconds % 60 === 0 ? `per ${seconds / 60} minutes` : `per ${seconds} s`)
+const spell = (seconds: number) =>
+  seconds === 60 ? 'a minute' : seconds === 3600 ? 'an hour' : seconds % 3600 === 0 ? `per ${seconds / 3600} hours` : seconds % 60 === 0 ? `per ${seconds / 60} minutes` : `per ${seconds} s`
 
 /** Counts one call of `key` (a user id) in `bucket`; 429 with Retry-After and a plain message past its limit. */
 export function rateLimit(event: H3Event, bucket: RateLimitBucket, key: string | number): void {

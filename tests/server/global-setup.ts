@@ -25,12 +25,16 @@ export async function setup(project: TestProject) {
       // trusted so a test can stand for several client addresses.
       NUXT_TRUST_PROXY: 'true',
       NUXT_THROTTLE_ADDRESS_FACTOR: '1000',
-      // Property tests (hostile-engine, fast-check) make hundreds of engine calls as one person; the
-      // per-person limits themselves are tested on a server of their own (engine-pool.test.ts).
+      // Property tests (hostile-engine, hostile-uploads, fast-check) make hundreds of calls as one
+      // person; the per-person limits themselves are tested on servers of their own
+      // (engine-pool.test.ts, rate-limits.test.ts).
       NUXT_RATE_LIMITS: JSON.stringify({
         'engine-sweep': { limit: 100_000 },
         'engine-sensitivity': { limit: 100_000 },
         'engine-assess': { limit: 100_000 },
+        uploads: { limit: 100_000 },
+        invitations: { limit: 100_000 },
+        comments: { limit: 100_000 },
       }),
     },
   })

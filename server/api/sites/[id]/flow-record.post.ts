@@ -18,6 +18,7 @@ const unprocessable = (message: string, data: FlowUploadErrorData) =>
 export default defineEventHandler(async (event): Promise<FlowUploadResult> => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
+  rateLimit(event, 'uploads', user.id)
   const { file, fields } = await readUploadInMemory(event, MAX_FLOW_CSV_BYTES)
   const { fileName, mediaType } = file
   const form = parseFields(FlowRecordFormSchema, fields)

@@ -10,6 +10,7 @@ const DAY_MS = 24 * 60 * 60 * 1000
 export default defineEventHandler(async (event): Promise<InvitationCreatedDto> => {
   const { orgId } = await getValidatedRouterParams(event, validator(OrgParamsSchema, 'params'))
   const { user } = await requireRole(event, orgId, ['admin'])
+  rateLimit(event, 'invitations', user.id)
   const { email, role, siteId } = await readValidatedJson(event, InvitationInputSchema, BODY_LIMITS.form)
   const db = useDb()
   const site = siteId === undefined ? null : await db.selectFrom('sites').select(['id', 'name']).where('id', '=', siteId).where('org_id', '=', orgId).where('deleted_at', 'is', null).executeTakeFirst()

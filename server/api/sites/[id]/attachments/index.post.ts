@@ -9,6 +9,7 @@ import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event): Promise<AttachmentDto> => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
+  rateLimit(event, 'uploads', user.id)
   const storageKey = randomBytes(18).toString('base64url')
   const { file } = await readUploadToFile(event, MAX_ATTACHMENT_BYTES, await pendingUploadPath(storageKey))
   const { fileName } = file

@@ -6,6 +6,7 @@ import { COMMENT_ROLES, CommentInputSchema, ReviewParamsSchema, siteReviewPath, 
 export default defineEventHandler(async (event): Promise<CommentDto> => {
   const { id } = await getValidatedRouterParams(event, validator(ReviewParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, COMMENT_ROLES)
+  rateLimit(event, 'comments', user.id)
   const input = await readValidatedJson(event, CommentInputSchema, BODY_LIMITS.form)
   if (input.assessmentId !== undefined && !(await reviewAssessmentRef(site.id, input.assessmentId))) {
     throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'assessmentId: is not an assessment of this site' })
