@@ -43,10 +43,11 @@ const CHUNKED_DRAIN_MS = 2000
 /**
  * Ends reading from a request whose body is refused, holding none of it. A body of declared
  * length up to DISCARD_AT_MOST is read on and thrown away, so the client (which is still sending)
- * sees the answer rather than a broken pipe. A chunked body could be endless: the answer goes out
- * with `Connection: close`, and the body is read on and dropped only for a little while (2 s, 256 MB at most),
- * time for the client to read the answer, before the connection is cut. (Cut at once, the peer's
- * kernel may throw the answer away with the connection.) Anything larger is cut at once.
+ * sees the answer rather than a broken pipe. A chunked body could be endless: it too is read on and
+ * dropped, but only for a short grace (2 s, 256 MB at most) in which the client reads the answer
+ * and stops, and then the connection is cut. (Closed at once after the answer, the connection would
+ * be reset while the client still sends, and a reset may throw the answer away before the client
+ * reads it.) A larger declared body is not read at all: `Connection: close`.
  */
 export function stopReading(event: H3Event): void {
   const req = event.node.req
@@ -58,8 +59,8 @@ export function stopReading(event: H3Event): void {
     req.resume()
     return
   }
-  if (!event.node.res.headersSent) event.node.res.setHeader('Connection', 'close')
   if (!chunked) {
+    if (!event.node.res.headersSent) event.node.res.setHeader('Connection', 'close')
     req.pause()
     return
   }

@@ -24,7 +24,8 @@ afterAll(async () => {
 
 /** Starts the built server on `databasePath` (the same file every time) and waits for /api/health. */
 async function start() {
-  const server = await startBuiltServer({ dir, databasePath, sessionPassword: 'killed-server-test-session-password-0123456789', onSpawn: (proc) => running.add(proc) })
+  // Many uploads in a minute by one person: the per-person upload limit gets room here.
+  const server = await startBuiltServer({ dir, databasePath, sessionPassword: 'killed-server-test-session-password-0123456789', onSpawn: (proc) => running.add(proc), env: { NUXT_RATE_LIMITS: JSON.stringify({ uploads: { limit: 100_000 } }) } })
   const health = await (await fetch(`${server.baseURL}/api/health`)).json()
   return { proc: server.child, baseURL: server.baseURL, health }
 }

@@ -135,3 +135,42 @@ describe('signed-in answers', () => {
     expect(res.body.statusMessage).toBe('Unauthorized')
   })
 })
+
+describe('a refused chunked body that never ends', () => {
+  it('is dropped for a short grace only: the server cuts the connection itself', async () => {
+    const url = new URL('/api/auth/login', inject('baseURL'))
+    const outcome = await new Promise<{ status: number; cut: boolean; sent: number }>((resolve) => {
+      let received = ''
+      let sent = 0
+      let stop = false
+      const socket = connect(Number(url.port), url.hostname)
+      const chunk = Buffer.alloc(64 * 1024, 'a')
+      const frame = Buffer.concat([Buffer.from(`${chunk.length.toString(16)}\r\n`), chunk, Buffer.from('\r\n')])
+      const finish = (cut: boolean) => {
+        if (stop) return
+        stop = true
+        clearInterval(timer)
+        socket.destroy()
+        resolve({ status: Number(/^HTTP\/1\.1 (\d{3})/.exec(received)?.[1] ?? 0), cut, sent })
+      }
+      // Keeps sending slowly after the answer, as an endless hostile body would, for up to 20 s.
+      const timer = setInterval(() => {
+        if (!socket.destroyed && socket.writable) {
+          sent += chunk.length
+          socket.write(frame)
+        }
+      }, 20)
+      const deadline = setTimeout(() => finish(false), 20_000)
+      socket.on('data', (d) => (received += d.toString('utf8')))
+      socket.on('error', () => undefined)
+      socket.on('close', () => {
+        clearTimeout(deadline)
+        finish(true)
+      })
+      socket.on('connect', () => socket.write(`POST ${url.pathname} HTTP/1.1\r\nHost: ${url.host}\r\nContent-Type: application/json\r\nTransfer-Encoding: chunked\r\n\r\n`))
+    })
+    expect(outcome.status).toBe(413)
+    expect(outcome.cut).toBe(true)
+    expect((await new Client().get('/api/health')).status).toBe(200)
+  })
+})

@@ -96,7 +96,6 @@ describe('a chunked upload far over the limit', () => {
       const most = memory.stop()
       expect(reply.status, JSON.stringify(reply.body).slice(0, 300)).toBe(413)
       expect(reply.body.message).toBe(`file: is larger than the ${limit} limit`)
-      expect(reply.headers.connection).toBe('close')
       // Answered while the body was still coming: the server neither read it all nor waited for it.
       expect(reply.sentAll).toBe(false)
       expect(reply.sentBytes).toBeLessThan(100 * MB)
