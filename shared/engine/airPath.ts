@@ -49,7 +49,7 @@ export function pipeLoss(airFlow_m3s: number, pipe: AirPipe, rhoAir: number): nu
   return airFlow_m3s > 0 ? c * airFlow_m3s * airFlow_m3s : 0
 }
 
-/** Pump line of the throat as a water-jet air pump, Δp_pump = Δp₀·(1 − Q_a/Q_a,max), Pa (ENGINE §3, linear jet-pump characteristic). */
+/** Pump line of the throat as a water-jet air pump, Δp_pump = Δp₀·(1 − Q_a/Q_a,max), Pa (linear jet-pump characteristic; common practice, no source). */
 export function pumpPressure(airFlow_m3s: number, shutOff_Pa: number, maxAirFlow_m3s: number): number {
   if (!(maxAirFlow_m3s > 0)) return 0
   return Math.max(0, shutOff_Pa * (1 - airFlow_m3s / maxAirFlow_m3s))
@@ -69,7 +69,7 @@ export interface MaxAirFlow {
   limitedBy: 'energy' | 'gas-ratio' | 'none'
 }
 
-/** Q_a,max from energy (peak isentropic pneumatic power Δp₀Q_a,max·φ(Δp₀)/4 = η_ej·ρgQ_uH_w) and from β_max·Q_u (ENGINE §3; φ keeps the bound on the expansion work). */
+/** Q_a,max from energy (peak isentropic pneumatic power Δp₀Q_a,max·φ(Δp₀)/4 = η_ej·ρgQ_uH_w) and from β_max·Q_u (φ keeps the bound on the expansion work; energy balance, no outside source). */
 export function maxAirFlow(
   shutOff_Pa: number, p_atm: number, hydraulicPower_W: number, unitFlow_m3s: number,
   jetPumpEfficiency: number, maxGasLiquidRatio: number,
@@ -187,7 +187,7 @@ export function blankAirPoint(): AirOperatingPoint {
   }
 }
 
-/** Operating point of one unit's air path: pump line with η_ej times the useful compression share, turbine loaded for maximum shaft power, rating cap and cut-in (ENGINE §3). */
+/** Operating point of one unit's air path: pump line with η_ej times the useful compression share, turbine loaded for maximum shaft power, rating cap and cut-in. */
 export function airOperatingPoint(a: AirPathInput): AirOperatingPoint {
   return airPointInto(airPathSetting(a), a.suction_m, a.unitFlow_m3s, a.workingHead_m, blankAirPoint())
 }

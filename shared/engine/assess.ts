@@ -218,7 +218,7 @@ function neverRunsReason(s: Scheme, grid: PowerState[]): string {
   return 'The units make no energy over the flow-duration curve.'
 }
 
-/** Assess one option at one site (ENGINE §1–7): per-flow table across the FDC, month table, annual energy, oxygen by both methods, flags, money. */
+/** Assess one option at one site: per-flow table across the FDC, month table, annual energy, oxygen by both methods, flags, money. */
 export function assess(input: AssessInput): AssessResult {
   const st = input.settings
   const h = siteHydrology(input)

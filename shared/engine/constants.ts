@@ -30,9 +30,6 @@ export const N2_AR_MOLE_FRACTION = 1 - O2_MOLE_FRACTION
 /** Hours in a 365-day year. */
 export const HOURS_PER_YEAR = 8760
 
-/** Seconds in an hour. */
-export const SECONDS_PER_HOUR = 3600
-
 /** Critical temperature of water T_c, K (IAPWS R12-08 reducing temperature). */
 export const T_CRIT_WATER = 647.096
 

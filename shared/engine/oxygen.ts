@@ -96,7 +96,7 @@ export interface TransferResult {
   transfer_kgs: number
 }
 
-/** Field transfer as an exponential approach, φ = SOTR·α·θ^(T−20)/(C*₂₀·Q_u), SOTR = SOTE·ṁ_O₂ (ASCE/EWRI 2-06 field correction; ENGINE §5). */
+/** Field transfer as an exponential approach, φ = SOTR·α·θ^(T−20)/(C*₂₀·Q_u), SOTR = SOTE·ṁ_O₂ (ASCE/EWRI 2-06 field correction). */
 export function fieldTransfer(f: FieldTransferInput): TransferResult {
   const cStar = unitSaturation(f.tC, f.p_atm, f.rho, f.submergence_m, f.beta, f.salinity_gkg)
   if (!(f.unitFlow_m3s > 0)) return { cStar_mgL: cStar, cOut_mgL: f.cIn_mgL, exponent: 0, fractionApproached: 0, transfer_kgs: 0 }
@@ -142,7 +142,7 @@ export interface BubbleContactInput {
   contactTime_s: number
 }
 
-/** Bubble-contact transfer C_out = C* − (C* − C_in)·e^(−K_L·a·t), a = 6ε/d_b, ε = Q_a/(Q_a + Q_u), capped at the O₂ supplied (Higbie 1935; ENGINE §5). */
+/** Bubble-contact transfer C_out = C* − (C* − C_in)·e^(−K_L·a·t), a = 6ε/d_b, ε = Q_a/(Q_a + Q_u), capped at the O₂ supplied (Higbie 1935). */
 export function bubbleContact(b: BubbleContactInput): TransferResult & { voidFraction: number, interfacialArea_m2m3: number, filmCoefficient_ms: number } {
   const zero = { cStar_mgL: b.cStar_mgL, cOut_mgL: b.cIn_mgL, exponent: 0, fractionApproached: 0, transfer_kgs: 0, voidFraction: 0, interfacialArea_m2m3: 0, filmCoefficient_ms: 0 }
   if (!(b.unitFlow_m3s > 0) || !(b.airFlow_m3s > 0) || !(b.bubbleDiameter_m > 0)) return zero
@@ -202,7 +202,7 @@ export function totalDissolvedGas(tC: number, p_atm: number, o2Saturation: numbe
   return ((P - pwv) * (O2_MOLE_FRACTION * o2Saturation + N2_AR_MOLE_FRACTION * n2Saturation) + pwv) / P
 }
 
-/** Dissolved N₂ in a unit's discharge, treated like O₂: the same fraction of the deficit to β·C_s,N₂ at mid-submergence is removed, mg/L (ENGINE §5). */
+/** Dissolved N₂ in a unit's discharge, treated like O₂: the same fraction of the deficit to β·C_s,N₂ at mid-submergence is removed, mg/L. */
 export function unitNitrogen(
   tC: number, p_atm: number, rho: number, submergence_m: number, beta: number, salinity_gkg: number,
   upstreamSaturation: number, fractionApproached: number,

@@ -78,7 +78,7 @@ export interface FlowState extends PowerState {
   oxygen: OxygenState
 }
 
-/** Resolve geometry, atmosphere, reserved flow and the unit rating of an input (ENGINE §2–3). */
+/** Resolve geometry, atmosphere, reserved flow and the unit rating of an input. */
 export function buildScheme(input: AssessInput, reserved_m3s: number, design: Conditions): Scheme {
   const o = input.option
   const base = constrictionDefaults(o.constriction)
@@ -213,7 +213,7 @@ function ratedWaterAt(s: Scheme, k: Kernel, tC: number): WaterAt {
   return w
 }
 
-/** Hydraulics and air path of one unit (ENGINE §2–3), as unitHydraulics and airOperatingPoint give them; the result is `w.point`, overwritten by the next call. */
+/** Hydraulics and air path of one unit, as unitHydraulics and airOperatingPoint give them; the result is `w.point`, overwritten by the next call. */
 function unitPoint(w: WaterAt, unitFlow: number, grossHead: number, s: Scheme): UnitPoint {
   const pt = w.point
   if (w.hasPoint && Object.is(w.lastFlow, unitFlow) && Object.is(w.lastHead, grossHead)) return pt
@@ -264,7 +264,7 @@ function evaluate(s: Scheme, flow_m3s: number, c: Conditions): Evaluation {
   return at
 }
 
-/** Split, hydraulics and air path of all units at one river flow (ENGINE §2–3). */
+/** Split, hydraulics and air path of all units at one river flow. */
 export function powerState(s: Scheme, flow_m3s: number, c: Conditions): PowerState {
   const { river, H, split, point: p, w } = evaluate(s, flow_m3s, c)
   const n = split.unitsRunning
@@ -305,7 +305,7 @@ function mixWithWeir(unitsQ: number, unitC: number, weirQ: number, weirC: number
   return mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirC }], fallback)
 }
 
-/** Oxygen below the scheme at one power state: units, weir streams, mix, net gain, total dissolved gas (ENGINE §5). */
+/** Oxygen below the scheme at one power state: units, weir streams, mix, net gain, total dissolved gas. */
 export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
   const site = s.input.site
   const cs = oxygenSaturation(c.tC, s.p_atm, site.salinity_gkg)
@@ -342,7 +342,7 @@ export function unitTotalDissolvedGas(s: Scheme, ps: PowerState, c: Conditions):
   return tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? unitBubbleContact(s, ps, c, ft) : ft)
 }
 
-/** Field transfer in one unit (ASCE/EWRI 2-06, ENGINE §5). */
+/** Field transfer in one unit (ASCE/EWRI 2-06). */
 function unitFieldTransfer(s: Scheme, ps: PowerState, c: Conditions): TransferResult {
   const st = s.input.settings
   return fieldTransfer({
@@ -352,7 +352,7 @@ function unitFieldTransfer(s: Scheme, ps: PowerState, c: Conditions): TransferRe
   })
 }
 
-/** Bubble contact in one unit (Higbie, ENGINE §5), toward field transfer's C*. */
+/** Bubble contact in one unit (Higbie 1935), toward field transfer's C*. */
 function unitBubbleContact(s: Scheme, ps: PowerState, c: Conditions, ft: TransferResult): TransferResult {
   const st = s.input.settings
   const perUnitAir = ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0

@@ -74,7 +74,7 @@ const LEVERS: Lever[] = [
   { key: 'sotePerMetre', label: 'Oxygen transfer per metre of submergence', unit: '1/m', get: (i) => i.settings.sotePerMetre, set: (i, v) => ({ ...i, settings: { ...i.settings, sotePerMetre: v } }) },
 ]
 
-/** Move each key input by ±fraction (default 20 %), holding the rest, and report annual energy and net oxygen gain at each end (one-at-a-time sensitivity, ENGINE §7). */
+/** Move each key input by ±fraction (default 20 %), holding the rest, and report annual energy and net oxygen gain at each end (one-at-a-time sensitivity). */
 export function sensitivity(input: AssessInput, fraction = 0.2): SensitivityResult {
   const f = Math.min(Math.max(fraction, 0), 0.9)
   const baseRun = assess(input).summary

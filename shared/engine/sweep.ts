@@ -49,7 +49,7 @@ export function withDesign(input: AssessInput, throatDiameter_m: number, units: 
   }
 }
 
-/** Run assess over every grid point and pick the best option that keeps every safety flag clear (ENGINE §7). */
+/** Run assess over every grid point and pick the best option that keeps every safety flag clear. */
 export function sweep(input: AssessInput, grid: SweepGrid): SweepResult {
   const points: SweepPoint[] = []
   for (const dt of grid.throatDiameters_m) {

@@ -30,7 +30,7 @@ export function circleArea(d_m: number): number {
   return d_m > 0 ? (Math.PI * d_m * d_m) / 4 : 0
 }
 
-/** Throat-to-outlet area ratio r = A_t/A_o (ENGINE §2), clamped to [0, 1]. */
+/** Throat-to-outlet area ratio r = A_t/A_o, clamped to [0, 1]. */
 export function throatAreaRatio(g: Pick<UnitGeometry, 'throatDiameter_m' | 'outletDiameter_m'>): number {
   if (!(g.outletDiameter_m > 0)) return 1
   return Math.min(1, (g.throatDiameter_m / g.outletDiameter_m) ** 2)
@@ -51,7 +51,7 @@ export function effectiveThroatArea(g: UnitGeometry): number {
   return g.flowCoefficient * circleArea(g.throatDiameter_m)
 }
 
-/** Unit capacity Q_cap(H) = C·A_t·√(2gH/K), m³/s (energy equation, ENGINE §2). Zero for H ≤ 0. */
+/** Unit capacity Q_cap(H) = C·A_t·√(2gH/K), m³/s (energy equation). Zero for H ≤ 0. */
 export function unitCapacity(head_m: number, g: UnitGeometry): number {
   const K = unitLossFactor(g)
   if (!(head_m > 0) || !(K > 0)) return 0
@@ -64,7 +64,7 @@ export function throatVelocity(unitFlow_m3s: number, g: UnitGeometry): number {
   return a > 0 && unitFlow_m3s > 0 ? unitFlow_m3s / a : 0
 }
 
-/** Working head of a flow-limited unit H_w = K·(Q_u/(C·A_t))²/2g, m (energy equation, ENGINE §2). */
+/** Working head of a flow-limited unit H_w = K·(Q_u/(C·A_t))²/2g, m (energy equation). */
 export function headForUnitFlow(unitFlow_m3s: number, g: UnitGeometry): number {
   const V = throatVelocity(unitFlow_m3s, g)
   return (unitLossFactor(g) * V * V) / (2 * G)
@@ -80,7 +80,7 @@ export function vapourSuctionLimit(p_atm: number, p_v: number, rho: number): num
   return Math.max(0, (p_atm - p_v) / (rho * G))
 }
 
-/** Cavitation margin with the air valve shut, m = (p_atm − p_v)/ρg − s, m (ENGINE §2). */
+/** Cavitation margin with the air valve shut, m = (p_atm − p_v)/ρg − s, m. */
 export function cavitationMargin(p_atm: number, p_v: number, rho: number, suction_m: number): number {
   return (p_atm - p_v) / (rho * G) - suction_m
 }
@@ -130,7 +130,7 @@ function sortedByFlow(table: ReadonlyArray<HeadPoint>): boolean {
   return true
 }
 
-/** Gross head at a river flow by linear interpolation in a head-vs-flow table, held flat beyond its ends (ENGINE §2). */
+/** Gross head at a river flow by linear interpolation in a head-vs-flow table, held flat beyond its ends. */
 export function headAtFlow(table: ReadonlyArray<HeadPoint>, flow_m3s: number, fallback_m: number): number {
   if (table.length === 0) return Math.max(0, fallback_m)
   // A table already in order (the engine sorts its table once) is used as it is: a stable sort would leave it unchanged.
@@ -180,7 +180,7 @@ export interface SplitInput {
   staging: Staging
 }
 
-/** Flow-limited vs head-limited split (ENGINE §2): reserved flow first; units pass what is left up to N·Q_cap; below the minimum unit flow units stop. */
+/** Flow-limited vs head-limited split: reserved flow first; units pass what is left up to N·Q_cap; below the minimum unit flow units stop. */
 export function splitFlow(s: SplitInput): FlowSplit {
   const river = Math.max(0, s.riverFlow_m3s)
   const reserved = Math.min(river, Math.max(0, s.reservedFlow_m3s))
@@ -217,7 +217,7 @@ export interface UnitHydraulics {
   cavitationIndex: number | null
 }
 
-/** Working head, throat velocity, suction and cavitation of one unit at a unit flow (ENGINE §2). */
+/** Working head, throat velocity, suction and cavitation of one unit at a unit flow. */
 export function unitHydraulics(
   unitFlow_m3s: number, grossHead_m: number, throatDepth_m: number, g: UnitGeometry,
   env: { p_atm: number, p_v: number, rho: number },

@@ -235,7 +235,7 @@ describe('the scheme kernel against a direct evaluation', () => {
         const c = months[(i >> 1) % months.length]!
         const fast = powerState(s, q, c)
         const direct = directPowerState(s, q, c)
-        // identity with the direct evaluation (ENGINE §2–3), no outside source
+        // identity with the direct evaluation, no outside source
         expect(fast).toStrictEqual(direct)
         expect(Object.keys(fast)).toEqual(Object.keys(direct))
         const sample = powerSample(s, q, c)
@@ -253,7 +253,7 @@ describe('the scheme kernel against a direct evaluation', () => {
       const expected = input.option.turbine.ratedPower_kW === null
         ? directAirPoint(airInputAt(s, unitCapacity(H, s.geometry), H, design.tC, null).air).availableElectricalPower_W
         : input.option.turbine.ratedPower_kW * 1000
-      // identity with the direct evaluation (ENGINE §3), no outside source
+      // identity with the direct evaluation, no outside source
       expect(s.ratedPerUnit_W).toBe(expected)
     }), { numRuns: 100 })
   })
@@ -267,7 +267,7 @@ describe('the scheme kernel against a direct evaluation', () => {
         const fs = flowState(s, q, c)
         const ps = directPowerState(s, q, c)
         const direct = directOxygenState(s, ps, c)
-        // identity with the direct evaluation (ENGINE §5), no outside source
+        // identity with the direct evaluation, no outside source
         expect(fs.oxygen).toStrictEqual(direct)
         expect(oxygenState(s, ps, c)).toStrictEqual(direct)
         expect(unitTotalDissolvedGas(s, ps, c)).toBe(direct.unitTdg)
@@ -287,7 +287,7 @@ describe('the air path written into a reused record', () => {
     })
     fc.assert(fc.property(input, input, (a, b) => {
       const out = airPointInto(airPathSetting(b), b.suction_m, b.unitFlow_m3s, b.workingHead_m, blankAirPoint())
-      // identity with the direct evaluation (ENGINE §3), no outside source
+      // identity with the direct evaluation, no outside source
       expect(airPointInto(airPathSetting(a), a.suction_m, a.unitFlow_m3s, a.workingHead_m, out)).toStrictEqual(directAirPoint(a))
       expect(airOperatingPoint(a)).toStrictEqual(directAirPoint(a))
       expect(Object.keys(airOperatingPoint(a))).toEqual(Object.keys(directAirPoint(a)))
@@ -301,7 +301,7 @@ describe('head table used in order', () => {
     fc.assert(fc.property(table, fc.array(fc.oneof(num(-5, 100), fc.constantFrom(0, 5, 20)), { minLength: 1, maxLength: 10 }), num(-1, 5), (t, flows, fallback) => {
       const sorted = [...t].sort((a, b) => a.flow_m3s - b.flow_m3s)
       for (const q of flows) {
-        // identity with sorting on every call (ENGINE §2), no outside source
+        // identity with sorting on every call, no outside source
         expect(headAtFlow(t, q, fallback)).toBe(directHeadAt(t, q, fallback))
         expect(headAtFlow(sorted, q, fallback)).toBe(directHeadAt(t, q, fallback))
       }
