@@ -1,126 +1,24 @@
-// The single entry point: one option at one site → energy, oxygen, safety flags, money.
+// The single entry point: one option at one site → energy, oxygen, safety flags, money. The result's
+// shape is in results.ts, the flags and their plain-language reasons in flags.ts.
 import type { AssessInput } from '../schemas/assess'
-import { defaultsUsed, type DefaultUsed } from './defaultsUsed'
+import { defaultsUsed } from './defaultsUsed'
 import { annualEnergyFromFdc, annualEnergyFromRecord, DAYS_IN_MONTH, tabulatedPower, type AnnualEnergy, type PowerAt, type PowerSample } from './energy'
 import {
   exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, monthOfDay, reservedFlow,
-  scaleFdcByAreaRatio, scaleRecordByAreaRatio, type DailyFlow, type Fdc, type FdcStats,
+  scaleFdcByAreaRatio, scaleRecordByAreaRatio, type DailyFlow, type Fdc,
 } from './hydrology'
-import { moneySummary, type MoneySummary } from './money'
+import { moneySummary } from './money'
 import { buildScheme, flowState, powerSample, powerState, unitTotalDissolvedGas, type Conditions, type FlowState, type PowerState, type Scheme } from './scheme'
+import { buildFlags, NET_LOSS_TOLERANCE_mgL, type Running } from './flags'
+import type { AssessResult, FlagId, MethodsComparison, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { ENGINE_VERSION } from './version'
 
-/** Names of the flags an assessment raises. */
-export type FlagId = 'cavitation' | 'gas-supersaturation' | 'oxygen-below-target' | 'net-oxygen-loss' | 'head-limited-never-runs'
-
-/** One flag, raised or clear, with a plain-language reason either way. */
-export interface Flag {
-  id: FlagId
-  raised: boolean
-  /** True for flags about harm (to people, plant or fish); the sweep keeps these clear. */
-  safety: boolean
-  reason: string
-}
-
-/** One row of the table across the flow-duration curve. */
-export interface PerFlowRow {
-  /** % of time the flow is equalled or exceeded. */
-  exceedance: number
-  riverFlow_m3s: number
-  regime: FlowState['regime']
-  unitsRunning: number
-  unitFlow_m3s: number
-  spill_m3s: number
-  reservedFlow_m3s: number
-  grossHead_m: number
-  workingHead_m: number
-  throatVelocity_ms: number
-  suctionHead_m: number
-  cavitationMargin_m: number
-  cavitationIndex: number | null
-  airFlow_m3s: number
-  electricalPower_kW: number
-  waterToWire: number
-  downstreamOxygenWithout_mgL: number
-  downstreamOxygenWith_mgL: number
-  netOxygenGain_mgL: number
-  unitTotalDissolvedGas: number
-}
-
-/** One row of the month table. */
-export interface MonthRow {
-  month: number
-  name: string
-  temperature_C: number
-  flow_m3s: number
-  flowBasis: 'record-mean' | 'entered' | 'annual-q50'
-  upstreamOxygen_mgL: number
-  downstreamWithout_mgL: number
-  downstreamWith_mgL: number
-  downstreamFieldTransfer_mgL: number
-  downstreamBubbleContact_mgL: number
-  netGain_mgL: number
-  target_mgL: number
-  unitTotalDissolvedGas: number
-  cavitationMargin_m: number | null
-  flags: FlagId[]
-  energy_MWh: number
-  energyBasis: 'record' | 'month-flow'
-}
-
-/** The condition the summary's oxygen figure is taken at. */
-export interface SummerLowFlow {
-  month: number
-  flow_m3s: number
-  temperature_C: number
-  basis: string
-}
-
-/** Headline figures. */
-export interface AssessSummary {
-  annualEnergy_MWh: number
-  capacityFactor: number
-  fullLoadHours: number
-  ratedPower_kW: number
-  ratingSizedToDesign: boolean
-  meanAirFlow_m3s: number
-  peakAirFlow_m3s: number
-  /** Null when the units never run. */
-  minCavitationMargin_m: number | null
-  /** Smallest throat cavitation index σ where units run; null when they never run. */
-  minCavitationIndex: number | null
-  maxUnitTotalDissolvedGas: number
-  netOxygenGainSummerLowFlow_mgL: number
-  summerLowFlow: SummerLowFlow
-  lcoe: number | null
-  flags: Flag[]
-}
-
-/** Both oxygen methods side by side. */
-export interface MethodsComparison {
-  summaryUses: 'field-transfer' | 'bubble-contact'
-  note: string
-  atSummerLowFlow: Record<'fieldTransfer' | 'bubbleContact', { unitOutlet_mgL: number, downstream_mgL: number, netGain_mgL: number }>
-}
-
-/** Result of one assessment. */
-export interface AssessResult {
-  summary: AssessSummary
-  perFlow: PerFlowRow[]
-  months: MonthRow[]
-  methods: MethodsComparison
-  hydrology: FdcStats & { reservedFlow_m3s: number, basis: 'fdc' | 'record', daysWithData: number | null }
-  money: MoneySummary
-  defaultsUsed: DefaultUsed[]
-  engineVersion: string
-}
+export type { AssessResult, AssessSummary, Flag, FlagId, MethodsComparison, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 
 const MONTH_NAMES = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'] as const
 const PER_FLOW_EXCEEDANCES = [1, 5, 10, 20, 30, 40, 50, 60, 70, 80, 90, 95, 99] as const
 const SUMMARY_GRID = 200
-const NET_LOSS_TOLERANCE_mgL = 0.01
 
-const fmt = (x: number, digits = 2): string => x.toFixed(digits)
 const mean = (xs: readonly number[]): number => (xs.length ? xs.reduce((s, x) => s + x, 0) / xs.length : 0)
 
 /** The site's hydrology after gauge scaling: its FDC and, for a record, its days. */
@@ -203,19 +101,6 @@ function pickSummerLowFlow(rows: ReadonlyArray<{ month: number, temperature_C: n
     month: low.month, flow_m3s: low.flow_m3s, temperature_C: low.temperature_C,
     basis: 'lowest month flow among the three warmest months, at that month\'s temperature and upstream oxygen',
   }
-}
-
-/** Why the units make no energy, in plain words. */
-function neverRunsReason(s: Scheme, grid: PowerState[]): string {
-  const running = grid.filter((g) => g.unitsRunning > 0)
-  if (!(s.input.site.grossHead_m > 0) && s.input.site.headTable.every((p) => !(p.head_m > 0))) return 'The site has no head, so no water can be driven through the units.'
-  if (running.length === 0) return `The river never carries more than the reserved flow (${fmt(s.reserved_m3s, 3)} m³/s) plus the minimum flow a unit needs, so the units never start.`
-  if (running.every((g) => g.suction_m <= 0)) {
-    const best = Math.max(...running.map((g) => g.suction_m + s.input.option.throatDepth_m))
-    return `The throat is ${fmt(s.input.option.throatDepth_m)} m below the tail pool but the diffuser recovers at most ${fmt(best)} m of head, so the throat never drops below atmospheric pressure and draws no air. Raise the throat or use a better diffuser.`
-  }
-  if (running.every((g) => g.electricalPower_W === 0)) return 'Air flows, but the turbine never reaches its cut-in power, so no electricity is made.'
-  return 'The units make no energy over the flow-duration curve.'
 }
 
 /** Assess one option at one site: per-flow table across the FDC, month table, annual energy, oxygen by both methods, flags, money. */
@@ -318,77 +203,4 @@ export function assess(input: AssessInput): AssessResult {
     defaultsUsed: defaultsUsed(input),
     engineVersion: ENGINE_VERSION,
   }
-}
-
-/** A state where units run, with the total dissolved gas of their discharge. */
-interface Running {
-  state: PowerState
-  tdg: number
-}
-
-interface FlagContext {
-  s: Scheme
-  worst: PowerState | null
-  tdgWorst: Running | null
-  maxTdg: number
-  months: MonthRow[]
-  slfGain: number
-  slf: SummerLowFlow
-  energy: AnnualEnergy
-  grid: PowerState[]
-}
-
-function buildFlags(c: FlagContext): Flag[] {
-  const st = c.s.input.settings
-  const thr = st.minCavitationMargin_m
-  const flags: Flag[] = []
-
-  if (c.worst === null) {
-    flags.push({ id: 'cavitation', raised: false, safety: true, reason: 'The units never run, so the throat never sees suction.' })
-  } else {
-    const w = c.worst
-    const raised = w.cavitationMargin_m < thr
-    flags.push({
-      id: 'cavitation', raised, safety: true,
-      reason: raised
-        ? `At ${fmt(w.riverFlow_m3s)} m³/s river flow the throat would hold ${fmt(w.suction_m)} m of suction with the air valve shut, leaving only ${fmt(w.cavitationMargin_m)} m before the water boils (keep at least ${fmt(thr)} m, common practice). The throat can cavitate: set it deeper or lower the head it works on.`
-        : `The smallest cavitation margin is ${fmt(w.cavitationMargin_m)} m (at ${fmt(w.riverFlow_m3s)} m³/s), above the ${fmt(thr)} m kept as a minimum.`,
-    })
-  }
-
-  const tdgRaised = c.maxTdg > st.tdgLimit
-  flags.push({
-    id: 'gas-supersaturation', raised: tdgRaised, safety: true,
-    reason: c.tdgWorst === null
-      ? 'The units never run, so they add no dissolved gas.'
-      : tdgRaised
-        ? `Water leaving the units could carry ${fmt(c.maxTdg * 100, 0)} % total dissolved gas (at ${fmt(c.tdgWorst.state.riverFlow_m3s)} m³/s), above the ${fmt(st.tdgLimit * 100, 0)} % limit. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
-        : `Water leaving the units carries at most ${fmt(c.maxTdg * 100, 0)} % total dissolved gas, within the ${fmt(st.tdgLimit * 100, 0)} % limit.`,
-  })
-
-  const below = c.months.filter((m) => m.flags.includes('oxygen-below-target'))
-  flags.push({
-    id: 'oxygen-below-target', raised: below.length > 0, safety: false,
-    reason: below.length > 0
-      ? `Below the weir the river stays under the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target in ${below.map((m) => m.name).join(', ')}, even with the scheme.`
-      : `Below the weir the river meets the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target in every month.`,
-  })
-
-  const losing = c.months.filter((m) => m.flags.includes('net-oxygen-loss'))
-  const slfLoss = c.slfGain < -NET_LOSS_TOLERANCE_mgL
-  const lossRaised = losing.length > 0 || slfLoss
-  const worstLoss = Math.min(c.slfGain, ...c.months.map((m) => m.netGain_mgL))
-  flags.push({
-    id: 'net-oxygen-loss', raised: lossRaised, safety: true,
-    reason: lossRaised
-      ? `With the scheme the river would carry less oxygen than without it (down to ${fmt(worstLoss)} mg/L${losing.length ? ` in ${losing.map((m) => m.name).join(', ')}` : ' at summer low flow'}): water taken through the units misses the aeration it gets falling over the weir, and the units do not give it back.`
-      : `The scheme never leaves the river with less oxygen than the weir alone gives (summer low flow: ${c.slfGain >= 0 ? '+' : ''}${fmt(c.slfGain)} mg/L).`,
-  })
-
-  const never = !(c.energy.annualEnergyMWh > 0)
-  flags.push({
-    id: 'head-limited-never-runs', raised: never, safety: false,
-    reason: never ? neverRunsReason(c.s, c.grid) : `The units make ${fmt(c.energy.annualEnergyMWh, 1)} MWh in an average year.`,
-  })
-  return flags
 }
