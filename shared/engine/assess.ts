@@ -8,7 +8,8 @@ import {
   scaleFdcByAreaRatio, scaleRecordByAreaRatio, type DailyFlow, type Fdc,
 } from './hydrology'
 import { moneySummary } from './money'
-import { buildScheme, flowState, powerSample, powerState, unitTotalDissolvedGas, type Conditions, type FlowState, type PowerState, type Scheme } from './scheme'
+import { buildScheme, flowState, powerSample, powerState, type Conditions, type FlowState, type PowerState, type Scheme } from './scheme'
+import { unitTotalDissolvedGas } from './schemeOxygen'
 import { buildFlags, NET_LOSS_TOLERANCE_mgL, type Running } from './flags'
 import type { AssessResult, FlagId, MethodsComparison, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { ENGINE_VERSION } from './version'

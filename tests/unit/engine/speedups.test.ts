@@ -23,10 +23,8 @@ import {
   WATER_QUALITY_A, WEIR_SHAPE_B, weirDeficitRatio,
 } from '../../../shared/engine/oxygen'
 import { nitrogenSaturation, oxygenSaturation } from '../../../shared/engine/oxygenSaturation'
-import {
-  buildScheme, flowState, oxygenState, powerSample, powerState, unitTotalDissolvedGas,
-  type Conditions, type OxygenState, type PowerState, type Scheme,
-} from '../../../shared/engine/scheme'
+import { buildScheme, flowState, powerSample, powerState, type Conditions, type OxygenState, type PowerState, type Scheme } from '../../../shared/engine/scheme'
+import { oxygenState, unitTotalDissolvedGas } from '../../../shared/engine/schemeOxygen'
 import { circleArea, headAtFlow, splitFlow, unitCapacity, unitHydraulics, type HeadPoint } from '../../../shared/engine/venturi'
 import { vapourPressure, waterDensity } from '../../../shared/engine/water'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'

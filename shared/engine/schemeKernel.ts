@@ -1,0 +1,166 @@
+// The inner loop of an assessment, kept apart from the scheme it serves (scheme.ts): per-scheme and
+// per-temperature constants worked out once, and scratch records written in place.
+import { airPathSetting, airPointInto, blankAirPoint, type AirOperatingPoint, type AirPathSetting } from './airPath'
+import {
+  cavitationIndex, cavitationMargin, headAtFlow, headForUnitFlow, splitFlow, suctionHead,
+  throatVelocity, unitCapacity, vapourSuctionLimit, type FlowSplit, type HeadPoint, type SplitInput,
+} from './venturi'
+import { vapourPressure, waterDensity } from './water'
+import type { Conditions, Scheme } from './scheme'
+
+// An assessment evaluates the units at a few thousand river flows (the energy integral, the summary
+// grids, the month table) but at only a handful of water temperatures. What depends only on the
+// temperature (water properties, the suction limit, the air-path setting) is worked out once per
+// temperature, the head table is sorted once, and each flow's figures are written into scratch
+// records instead of fresh objects. Every figure comes from the same functions with the same
+// arguments as a direct evaluation, so the answers are identical to the last bit
+// (tests/unit/engine/speedups.test.ts checks this against a fresh composition).
+
+/** Hydraulics and air path of one running unit at one unit flow and gross head. */
+interface UnitPoint {
+  workingHead_m: number
+  throatVelocity_ms: number
+  suction_m: number
+  cavitationMargin_m: number
+  cavitationIndex: number | null
+  air: AirOperatingPoint
+}
+
+/** What every flow at one water temperature shares, and the last unit point computed there. */
+interface WaterAt {
+  tC: number
+  p_v: number
+  rho: number
+  /** (p_atm − p_v)/ρg, ≥ 0: the shut-off suction cap, and the cavitation margin of stopped units. */
+  suctionLimit_m: number
+  air: AirPathSetting
+  /** The last unit point, valid for `lastFlow` and `lastHead`: a river above the units' capacity at a fixed head repeats it. */
+  point: UnitPoint
+  hasPoint: boolean
+  lastFlow: number
+  lastHead: number
+}
+
+/** One river flow's split and unit point (scratch, see evaluate). */
+interface Evaluation {
+  river: number
+  H: number
+  split: FlowSplit
+  w: WaterAt
+  point: UnitPoint
+}
+
+/** Per-scheme constants and scratch for the inner loop. */
+interface Kernel {
+  /** The head-vs-flow table sorted by flow once (headAtFlow sorts a copy on every call otherwise). */
+  heads: readonly HeadPoint[]
+  /** Unit capacity at the last gross head asked for: without a head table every flow has the same head. */
+  capHead: number
+  cap: number
+  hasCap: boolean
+  split: SplitInput
+  temps: WaterAt[]
+  lastTemp: WaterAt | null
+  /** Filled by evaluate once a flow has been asked (null before). */
+  at: Evaluation | null
+}
+
+const kernels = new WeakMap<Scheme, Kernel>()
+
+function kernelOf(s: Scheme): Kernel {
+  let k = kernels.get(s)
+  if (k) return k
+  const o = s.input.option
+  // Array sort is stable, so sorting once gives the very order headAtFlow's per-call sort gives.
+  const heads = [...s.input.site.headTable].sort((a, b) => a.flow_m3s - b.flow_m3s)
+  k = {
+    heads, capHead: 0, cap: 0, hasCap: false,
+    split: { riverFlow_m3s: 0, reservedFlow_m3s: s.reserved_m3s, units: o.units, capacity_m3s: 0, minUnitFlowFraction: o.minUnitFlowFraction, staging: o.staging },
+    temps: [], lastTemp: null, at: null,
+  }
+  kernels.set(s, k)
+  return k
+}
+
+/** Water properties and the air-path setting at one temperature, for units rated `rated` W (null: no cap). */
+export function waterAt(s: Scheme, tC: number, rated: number | null): WaterAt {
+  const o = s.input.option
+  const p_v = vapourPressure(tC)
+  const rho = waterDensity(tC)
+  const suctionLimit_m = vapourSuctionLimit(s.p_atm, p_v, rho)
+  const air = airPathSetting({
+    suctionLimit_m,
+    dischargeDepth_m: o.throatDepth_m,
+    waterDensity: rho,
+    p_atm: s.p_atm,
+    airTemperature_C: tC + s.input.settings.airTemperatureOffset_K,
+    jetPumpEfficiency: o.air.jetPumpEfficiency,
+    maxGasLiquidRatio: o.air.maxGasLiquidRatio,
+    pipe: { diameter_m: o.air.pipeDiameter_m, length_m: o.air.pipeLength_m, lossK: o.air.pipeLossK, frictionFactor: o.air.frictionFactor },
+    turbine: { efficiency: o.turbine.efficiency, generatorEfficiency: o.turbine.generatorEfficiency, ratedPower_W: rated, cutInFraction: o.turbine.cutInFraction },
+  })
+  return {
+    tC, p_v, rho, suctionLimit_m, air,
+    point: { workingHead_m: 0, throatVelocity_ms: 0, suction_m: 0, cavitationMargin_m: 0, cavitationIndex: null, air: blankAirPoint() },
+    hasPoint: false, lastFlow: 0, lastHead: 0,
+  }
+}
+
+/** The scheme's per-temperature record for rated units, built on first use. */
+function ratedWaterAt(s: Scheme, k: Kernel, tC: number): WaterAt {
+  const last = k.lastTemp
+  if (last !== null && Object.is(last.tC, tC)) return last
+  let w = k.temps.find((t) => Object.is(t.tC, tC))
+  if (!w) {
+    w = waterAt(s, tC, s.ratedPerUnit_W)
+    k.temps.push(w)
+  }
+  k.lastTemp = w
+  return w
+}
+
+/** Hydraulics and air path of one unit, as unitHydraulics and airOperatingPoint give them; the result is `w.point`, overwritten by the next call. */
+export function unitPoint(w: WaterAt, unitFlow: number, grossHead: number, s: Scheme): UnitPoint {
+  const pt = w.point
+  if (w.hasPoint && Object.is(w.lastFlow, unitFlow) && Object.is(w.lastHead, grossHead)) return pt
+  const g = s.geometry
+  const d = s.input.option.throatDepth_m
+  const Vt = throatVelocity(unitFlow, g)
+  const Hw = unitFlow > 0 ? Math.min(grossHead, headForUnitFlow(unitFlow, g)) : 0
+  const suction = unitFlow > 0 ? suctionHead(Hw, d, Vt, g.inletLoss) : -d
+  pt.workingHead_m = Hw
+  pt.throatVelocity_ms = Vt
+  pt.suction_m = suction
+  pt.cavitationMargin_m = cavitationMargin(s.p_atm, w.p_v, w.rho, suction)
+  pt.cavitationIndex = cavitationIndex(s.p_atm, w.p_v, w.rho, suction, Vt)
+  airPointInto(w.air, suction, unitFlow, Hw, pt.air)
+  w.hasPoint = true
+  w.lastFlow = unitFlow
+  w.lastHead = grossHead
+  return pt
+}
+
+/** Split and unit point at one river flow, written into the kernel's scratch record (read it before the next call). */
+export function evaluate(s: Scheme, flow_m3s: number, c: Conditions): Evaluation {
+  const k = kernelOf(s)
+  const river = Math.max(0, flow_m3s)
+  const H = headAtFlow(k.heads, river, s.input.site.grossHead_m)
+  if (!k.hasCap || !Object.is(k.capHead, H)) {
+    k.cap = unitCapacity(H, s.geometry)
+    k.capHead = H
+    k.hasCap = true
+  }
+  k.split.riverFlow_m3s = river
+  k.split.capacity_m3s = k.cap
+  const split = splitFlow(k.split)
+  const w = ratedWaterAt(s, k, c.tC)
+  const point = unitPoint(w, split.unitFlow_m3s, H, s)
+  const at = k.at
+  if (at === null) return (k.at = { river, H, split, w, point })
+  at.river = river
+  at.H = H
+  at.split = split
+  at.w = w
+  at.point = point
+  return at
+}
