@@ -1,5 +1,6 @@
 // Annual energy from a daily record or an FDC, with availability, capacity factor, full-load hours
 // and energy by month. Power in W inside; energy out in MWh/yr.
+// Longer than most files: the record and FDC integrals share the tabulated power curve and its checks.
 
 import { HOURS_PER_YEAR } from './constants'
 import type { SourcedValue } from './defaults'

@@ -1,5 +1,6 @@
 // Hydrology: flow-duration curves (FDC) from entered points or a daily record, their statistics,
 // monthly curves, gauge scaling and the reserved (hands-off) flow. Flows in m³/s, exceedance in %.
+// Longer than most files: every curve here shares the same sorted-array and interpolation helpers.
 
 import type { SourcedValue } from './defaults'
 import { EngineInputError, checkNumber } from './errors'
