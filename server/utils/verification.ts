@@ -23,11 +23,6 @@ export async function sendVerification(user: { id: number; email: string; name: 
   void delivery.catch((error: unknown) => console.error('verification mail: recording the delivery failed', error))
 }
 
-/** Marks the address verified now, unless it already was. */
-export async function markVerified(userId: number, at = nowIso()): Promise<void> {
-  await useDb().updateTable('users').set({ email_verified_at: at }).where('id', '=', userId).where('email_verified_at', 'is', null).execute()
-}
-
 /** Whether the user's address is verified. */
 export async function isVerified(userId: number): Promise<boolean> {
   const row = await useDb().selectFrom('users').select('email_verified_at').where('id', '=', userId).executeTakeFirst()
