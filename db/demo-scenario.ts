@@ -193,7 +193,7 @@ export function demoDailyFlows(spec: DemoRecordSpec): { date: string; flow: numb
 
 // ——— Design options and their stored assessments ———
 // Two options at Hollin Mill weir, one at each other site. The seed stores one assessment of each,
-// computed by the real engine from the site and option as stored (db/assessmentInput.ts).
+// computed by the real engine from the site and option as stored (server/domain/assessments.ts).
 
 /** One demo option: the site it belongs to (by name) and the option as a form would send it. */
 export interface DemoOption {

@@ -1,9 +1,11 @@
 import type { Kysely, Transaction } from 'kysely'
-import { fdcFromRecord, fdcStats } from '../shared/engine/hydrology'
-import type { Database } from './schema'
+import { buildAssessInput, insertAssessment, loadStoredRecord, storedOption } from '../server/domain/assessments'
+import { saveFlowRecord } from '../server/domain/flowRecords'
+import { createOptionFromInput } from '../server/domain/options'
+import { createSite } from '../server/domain/sites'
 import { assess } from '../shared/engine/assess'
 import { OptionInputSchema } from '../shared/schemas/option'
-import { buildAssessInput, insertAssessment, loadStoredRecord, storedOption } from './assessmentInput'
+import type { Database } from './schema'
 import { seedReviewDemo } from './seedReview'
 import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_PENDING_ACCOUNT, DEMO_SITES, DEMO_VERIFIED_AT, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
 
@@ -63,61 +65,19 @@ async function seedSite(trx: Transaction<Database>, orgId: number, userId: numbe
   const { site } = demo
   const found = await trx.selectFrom('sites').select('id').where('org_id', '=', orgId).where('name', '=', site.name).executeTakeFirst()
   if (found) return 0
-  const row = await trx
-    .insertInto('sites')
-    .values({
-      org_id: orgId,
-      created_by: userId,
-      name: site.name,
-      river_name: site.riverName,
-      lat: site.location.lat,
-      lng: site.location.lng,
-      altitude_m: site.altitudeM,
-      gross_head_m: site.weir.grossHeadM,
-      target_oxygen_mgl: site.targetOxygenMgL,
-      reach: site.reach ? JSON.stringify(site.reach) : null,
-      weir: JSON.stringify(site.weir),
-      head_table: JSON.stringify(site.headTable),
-      reserved_flow: JSON.stringify(site.reservedFlow),
-      months: JSON.stringify(site.months),
-      catchment: site.catchment ? JSON.stringify(site.catchment) : null,
-      fdc_points: JSON.stringify(site.fdcPoints),
-      notes: site.notes,
-    })
-    .returning('id')
-    .executeTakeFirstOrThrow()
+  const row = await createSite(trx, { orgId, userId, input: site })
   if (!demo.record) return 1
-  const days = demoDailyFlows(demo.record)
-  for (let i = 0; i < days.length; i += 2000) {
-    await trx
-      .insertInto('flow_days')
-      .values(days.slice(i, i + 2000).map((d) => ({ site_id: row.id, day: d.date, flow: d.flow })))
-      .execute()
-  }
-  const stats = fdcStats(fdcFromRecord(days))
-  await trx
-    .insertInto('flow_records')
-    .values({
-      site_id: row.id,
-      file_name: demo.record.fileName,
-      uploaded_by: userId,
-      date_column: 'date',
-      flow_column: 'flow_m3s',
-      flag_column: null,
-      date_format: 'iso',
-      day_count: days.length,
-      gap_count: days.filter((d) => d.flow === null).length,
-      first_day: days[0]!.date,
-      last_day: days.at(-1)!.date,
-      site_area_km2: null,
-      gauge_area_km2: null,
-      scale_factor: 1,
-      q95: stats.q95,
-      q50: stats.q50,
-      q10: stats.q10,
-      mean_flow: stats.mean,
-    })
-    .execute()
+  // Stored as an upload of the generated days would be (gauged flows, no scaling).
+  await saveFlowRecord(trx, row.id, 'replace', demoDailyFlows(demo.record), [], {
+    fileName: demo.record.fileName,
+    uploadedBy: userId,
+    uploadedAt: new Date().toISOString(),
+    dateColumn: 'date',
+    flowColumn: 'flow_m3s',
+    flagColumn: null,
+    dateFormat: 'iso',
+    scale: null,
+  })
   return 2
 }
 
@@ -133,11 +93,7 @@ async function seedOption(trx: Transaction<Database>, orgId: number, userId: num
   const input = OptionInputSchema.parse(demo.option)
   let option = await trx.selectFrom('options').selectAll().where('site_id', '=', site.id).where('name', '=', input.name).where('deleted_at', 'is', null).executeTakeFirst()
   if (!option) {
-    option = await trx
-      .insertInto('options')
-      .values({ site_id: site.id, org_id: orgId, name: input.name, notes: input.notes, design: JSON.stringify(input.design), settings: JSON.stringify(input.settings), created_by: userId })
-      .returningAll()
-      .executeTakeFirstOrThrow()
+    option = await createOptionFromInput(trx, site, userId, input)
     created++
   }
   const stored = await trx.selectFrom('assessments').select('id').where('option_id', '=', option.id).executeTakeFirst()

@@ -1,14 +1,13 @@
-import { createHash, randomBytes } from 'node:crypto'
 import type { Transaction } from 'kysely'
+// The demo's outbox uses the real e-mail templates, so it reads like the real thing.
+import { commentMentionMail } from '../server/domain/mail/templates/commentMention'
+import { invitationMail } from '../server/domain/mail/templates/invitation'
+import { reviewDecidedMail } from '../server/domain/mail/templates/reviewDecided'
+import { reviewSubmittedMail } from '../server/domain/mail/templates/reviewSubmitted'
+import { hashLinkToken, newLinkToken } from '../server/domain/tokens'
 import { REVIEW_STATE_LABELS, siteReviewPath } from '../shared/schemas/review'
 import { invitationPath } from '../shared/schemas/invitation'
 import { ROLE_LABELS } from '../shared/utils/roles'
-// The e-mail templates are pure functions (no Nitro); the demo uses them so its outbox reads like
-// the real thing. This is the one place db/ reaches into server/.
-import { commentMentionMail } from '../server/mail/templates/commentMention'
-import { invitationMail } from '../server/mail/templates/invitation'
-import { reviewDecidedMail } from '../server/mail/templates/reviewDecided'
-import { reviewSubmittedMail } from '../server/mail/templates/reviewSubmitted'
 import type { Database } from './schema'
 import { DEMO_ACCOUNTS, DEMO_INVITATION, DEMO_REVIEW, DEMO_SUMMARY_LINK, DEMO_SUMMARY_TOKEN } from './demo-scenario'
 
@@ -18,7 +17,6 @@ import { DEMO_ACCOUNTS, DEMO_INVITATION, DEMO_REVIEW, DEMO_SUMMARY_LINK, DEMO_SU
 // only when missing, so running the seed twice changes nothing.
 
 const DAY = 86_400_000
-const sha256 = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex')
 const appUrl = () => (process.env.NUXT_PUBLIC_APP_URL || 'http://localhost:3000').replace(/\/+$/, '')
 
 /** Adds what is missing of the demo review; returns the number of records created. */
@@ -100,7 +98,7 @@ export async function seedReviewDemo(trx: Transaction<Database>, orgId: number, 
   }
 
   const linkSite = await trx.selectFrom('sites').select('id').where('org_id', '=', orgId).where('name', '=', DEMO_SUMMARY_LINK.siteName).where('deleted_at', 'is', null).executeTakeFirst()
-  const tokenHash = sha256(DEMO_SUMMARY_TOKEN)
+  const tokenHash = hashLinkToken(DEMO_SUMMARY_TOKEN)
   if (linkSite && !(await trx.selectFrom('summary_links').select('id').where('token_hash', '=', tokenHash).executeTakeFirst())) {
     const row = await trx
       .insertInto('summary_links')
@@ -114,11 +112,11 @@ export async function seedReviewDemo(trx: Transaction<Database>, orgId: number, 
   const invSite = await trx.selectFrom('sites').select(['id', 'name']).where('org_id', '=', orgId).where('name', '=', DEMO_INVITATION.siteName).where('deleted_at', 'is', null).executeTakeFirst()
   if (invSite && !(await trx.selectFrom('invitations').select('id').where('org_id', '=', orgId).where('email', '=', DEMO_INVITATION.email).executeTakeFirst())) {
     // A real random token, like any invitation: the link is in the demo outbox, nowhere else.
-    const token = randomBytes(16).toString('base64url')
+    const token = newLinkToken()
     const expiresAt = new Date(now + 7 * DAY).toISOString()
     const row = await trx
       .insertInto('invitations')
-      .values({ org_id: orgId, email: DEMO_INVITATION.email, role: DEMO_INVITATION.role, site_id: invSite.id, token_hash: sha256(token), invited_by: admin.id, expires_at: expiresAt })
+      .values({ org_id: orgId, email: DEMO_INVITATION.email, role: DEMO_INVITATION.role, site_id: invSite.id, token_hash: hashLinkToken(token), invited_by: admin.id, expires_at: expiresAt })
       .returning('id')
       .executeTakeFirstOrThrow()
     await trx.insertInto('audit_log').values({ org_id: orgId, user_id: admin.id, action: 'invitation.created', target_type: 'invitation', target_id: row.id, detail: JSON.stringify({ before: null, after: { email: DEMO_INVITATION.email, role: DEMO_INVITATION.role, siteId: invSite.id, expiresAt } }) }).execute()

@@ -1,17 +1,17 @@
 // Portfolio benchmark, function level: a temporary SQLite file with one organisation of 10,000
 // invented sites, two options each and one to three stored assessments per option (real result JSON
-// from the engine), then the portfolio statement of server/utils/portfolio.ts timed as the route runs
+// from the engine), then the portfolio of server/domain/portfolio.ts (loadPortfolio) timed as the route runs
 // it, page by page. `fillPortfolio` is also used by portfolioPage.ts for the same data over HTTP.
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import type { Kysely } from 'kysely'
-import { buildAssessInput, storedOption, summaryColumns } from '../../db/assessmentInput'
 import { migrateToLatest, openDatabase } from '../../db/connection'
 import type { Database, SiteRow } from '../../db/schema'
 import { assess } from '../../shared/engine/assess'
 import { OptionInputSchema, PortfolioQuerySchema } from '../../shared/schemas/option'
-import { portfolioQuery, portfolioRow } from '../../server/utils/portfolio'
+import { buildAssessInput, storedOption, summaryColumns } from '../../server/domain/assessments'
+import { allPortfolioRows, loadPortfolio } from '../../server/domain/portfolio'
 import { type BenchFigure, median, percentile, timeAsync } from './harness'
 
 const SITES = 10_000
@@ -129,14 +129,14 @@ export async function portfolioBench(): Promise<BenchFigure[]> {
     let sink = 0
     for (const [name, query] of cases) {
       const ms = await timeAsync(RUNS, async () => {
-        const rows = await portfolioQuery(db, org.id, query).execute()
-        sink += rows.map(portfolioRow).length
+        const { format: _format, ...pageQuery } = query
+        sink += (await loadPortfolio(db, org.id, pageQuery, 'page')).rows.length
       })
       const p95 = percentile(ms, 95)
       figures.push({ name: `portfolio, ${SITES.toLocaleString('en-GB')} sites, ${name}: 95th percentile`, value: p95, unit: 'ms', target: `< ${TARGET_MS} ms`, pass: p95 < TARGET_MS })
     }
     const csvMs = await timeAsync(10, async () => {
-      sink += (await portfolioQuery(db, org.id, q({ sort: 'annualEnergyMWh' }), false).execute()).length
+      sink += (await allPortfolioRows(db, org.id, q({ sort: 'annualEnergyMWh' }))).length
     })
     figures.push({ name: 'portfolio, every row of the organisation (CSV export query): median', value: median(csvMs), unit: 'ms', target: '(reported)', pass: true })
     if (sink <= 0) throw new Error('benchmark read no rows')

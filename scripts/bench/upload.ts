@@ -13,7 +13,7 @@ import { performance } from 'node:perf_hooks'
 import SQLite from 'better-sqlite3'
 import Papa from 'papaparse'
 import { migrateToLatest, openDatabase } from '../../db/connection'
-import { parseFlowCsv } from '../../server/utils/flowCsv'
+import { parseFlowCsv } from '../../server/domain/flowCsv'
 import type { FlowUploadResult } from '../../shared/schemas/site'
 import { century } from './engine'
 import { type BenchFigure, median, timeRuns } from './harness'
@@ -190,7 +190,7 @@ export async function uploadBench(): Promise<BenchFigure[]> {
   return [
     { name: `upload of a ${days.toLocaleString('en-GB')}-day CSV (${kb} KiB), replace mode, over HTTP: median of ${RUNS}`, value: median(uploadMs), unit: 'ms', target: '(reported)', pass: true },
     { name: `bare papaparse parse + one-transaction insert of the same rows (better-sqlite3 prepared statement): median of ${RUNS}`, value: median(bareMs), unit: 'ms', target: '(baseline)', pass: true },
-    { name: 'of which the route\'s parser, parseFlowCsv (server/utils/flowCsv.ts), in process: median', value: median(parserMs), unit: 'ms', target: '(reported)', pass: true },
+    { name: 'of which the route\'s parser, parseFlowCsv (server/domain/flowCsv.ts), in process: median', value: median(parserMs), unit: 'ms', target: '(reported)', pass: true },
     { name: 'upload ÷ bare parse and insert', value: ratio, unit: '×', target: `< ${MAX_RATIO}×`, pass: ratio < MAX_RATIO },
     { name: `${HOSTILE_BYTES / MB} MB flow CSV sent chunked (no Content-Length) against the 10 MB limit: time to the 413 (${(hostile.sent / MB).toFixed(1)} MB sent by then)`, value: hostile.ms, unit: 'ms', target: '(reported)', pass: true },
     { name: 'the server\'s resident memory growth meanwhile (largest VmRSS seen, sampled every 10 ms, less the start)', value: hostile.growth / MB, unit: 'MB', target: `< ${MAX_GROWTH / MB} MB`, pass: hostile.growth < MAX_GROWTH },

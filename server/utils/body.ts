@@ -190,3 +190,16 @@ export async function readValidatedJson<T>(event: H3Event, schema: ZodType<T>, l
     throw error
   }
 }
+
+/** Parses already-read input (multipart fields) like the house validator: 400 naming the field. */
+export function parseFields<T>(schema: ZodType<T>, input: unknown, what = 'body'): T {
+  try {
+    return validator(schema, what)(input)
+  } catch (error) {
+    if (error instanceof InputError) {
+      throw createError({ statusCode: 400, statusMessage: 'Validation Error', message: error.message, data: { issues: error.issues } })
+    }
+    throw error
+  }
+}
+

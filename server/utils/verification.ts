@@ -1,4 +1,5 @@
-import { verifyEmailMail } from '../mail/templates/verifyEmail'
+import { verifyEmailMail } from '../domain/mail/templates/verifyEmail'
+import { hashLinkToken, newLinkToken } from '../domain/tokens'
 import { VERIFICATION_TTL_HOURS, verifyEmailPath } from '../../shared/schemas/account'
 
 // E-mail verification: a new account gets a single-use link by e-mail; opening it marks the

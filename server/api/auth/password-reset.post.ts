@@ -1,4 +1,5 @@
-import { passwordResetMail } from '../../mail/templates/passwordReset'
+import { passwordResetMail } from '../../domain/mail/templates/passwordReset'
+import { hashLinkToken, newLinkToken } from '../../domain/tokens'
 import { PASSWORD_RESET_TTL_MINUTES, PasswordResetRequestSchema, passwordResetPath } from '../../../shared/schemas/invitation'
 
 const MESSAGE = `If an account uses that e-mail, we have sent it a link to choose a new password. The link works once, for ${PASSWORD_RESET_TTL_MINUTES} minutes.`

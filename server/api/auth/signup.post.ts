@@ -1,4 +1,4 @@
-import { signupExistsMail } from '../../mail/templates/verifyEmail'
+import { signupExistsMail } from '../../domain/mail/templates/verifyEmail'
 import { SignupSchema } from '../../../shared/schemas/auth'
 import type { SignupAnswer } from '../../../shared/schemas/account'
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { assess } from '../../../shared/engine/assess'
-import { reservedFlowBasis, reviewBrief } from '../../../server/utils/review'
+import { reservedFlowBasis, reviewBrief } from '../../../server/domain/review'
 import { draft, parse } from '../engine/fixtures'
 
 // The brief only re-reads a stored result: every figure must be the result's own.

@@ -1,12 +1,12 @@
 import nodemailer from 'nodemailer'
 import { describe, expect, it } from 'vitest'
-import { commentMentionMail } from '../../../server/mail/templates/commentMention'
-import { invitationMail } from '../../../server/mail/templates/invitation'
-import { escapeHtml } from '../../../server/mail/templates/layout'
-import { passwordResetMail } from '../../../server/mail/templates/passwordReset'
-import { reviewDecidedMail } from '../../../server/mail/templates/reviewDecided'
-import { reviewSubmittedMail } from '../../../server/mail/templates/reviewSubmitted'
-import { hashLinkToken, linkTokenMatches, newLinkToken } from '../../../server/utils/tokens'
+import { commentMentionMail } from '../../../server/domain/mail/templates/commentMention'
+import { invitationMail } from '../../../server/domain/mail/templates/invitation'
+import { escapeHtml } from '../../../server/domain/mail/templates/layout'
+import { passwordResetMail } from '../../../server/domain/mail/templates/passwordReset'
+import { reviewDecidedMail } from '../../../server/domain/mail/templates/reviewDecided'
+import { reviewSubmittedMail } from '../../../server/domain/mail/templates/reviewSubmitted'
+import { hashLinkToken, linkTokenMatches, newLinkToken } from '../../../server/domain/tokens'
 
 const all = [
   invitationMail({ organisationName: 'Tarn & Beck', inviterName: 'Mo', roleLabel: 'Reviewer', siteName: 'Hollin <Mill>', link: 'http://app.example/invitations/abc', expiresAt: '2026-03-08T12:00:00.000Z' }),

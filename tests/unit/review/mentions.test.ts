@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { commentPointsAt, findMentions } from '../../../server/utils/review'
+import { commentPointsAt, findMentions } from '../../../server/domain/review'
 
 const people = [
   { id: 1, name: 'Idris Penrose', email: 'idris@tarnbeck.example' },

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { REVIEW_DECISIONS, REVIEW_STATES, type ReviewState } from '../../../shared/schemas/review'
-import { reviewActionsIn, reviewTransition, type ReviewAction } from '../../../server/utils/review'
+import { reviewActionsIn, reviewTransition, type ReviewAction } from '../../../server/domain/review'
 
 // The review workflow of the issue: draft → submitted → accepted / accepted-with-conditions /
 // returned, and submitted again after returned. Everything else is refused with the current state named.

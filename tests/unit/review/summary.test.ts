@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { assess } from '../../../shared/engine/assess'
 import { HOME_KWH_PER_YEAR } from '../../../shared/schemas/summaryLink'
 import { CAUTIONS } from '../../../shared/utils/cautions'
-import { buildPublicSummary, homesEquivalent, schemeInPlainWords, summaryLinkState, type SummarySources } from '../../../server/utils/summary'
+import { buildPublicSummary, homesEquivalent, schemeInPlainWords, summaryLinkState, type SummarySources } from '../../../server/domain/summaryLinks'
 import { draft, parse } from '../engine/fixtures'
 
 const input = parse(draft())

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { dateFormatOf, daySpan, decodeCsvBytes, parseDay, parseFlowCell, parseFlowCsv } from '../../../server/utils/flowCsv'
+import { dateFormatOf, daySpan, decodeCsvBytes, parseDay, parseFlowCell, parseFlowCsv } from '../../../server/domain/flowCsv'
 
 describe('parseDay', () => {
   it('reads ISO and day-first dates, with or without a time of day', () => {

@@ -3,7 +3,7 @@
 // both readers to the same line numbers, and the plain date and flow readers of the hot loop to the
 // general parseDay and parseFlowCell.
 import { describe, expect, it } from 'vitest'
-import { parseDay, parseFlowCell, parseFlowCsv } from '../../../server/utils/flowCsv'
+import { parseDay, parseFlowCell, parseFlowCsv } from '../../../server/domain/flowCsv'
 
 /** The lines named by a refused file's errors. */
 function badLines(text: string, options: Parameters<typeof parseFlowCsv>[1] = {}): number[] {

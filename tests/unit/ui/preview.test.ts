@@ -1,8 +1,8 @@
 // The live preview of the option editor: the debounced runner over the real engine, and the site
-// mapping it shares with the server (db/assessmentInput.ts).
+// mapping it shares with the server (server/domain/assessments.ts).
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { assess } from '../../../shared/engine/assess'
-import { buildAssessInput } from '../../../db/assessmentInput'
+import { buildAssessInput } from '../../../server/domain/assessments'
 import type { SiteRow } from '../../../db/schema'
 import { DEMO_OPTIONS, DEMO_SITES, demoDailyFlows } from '../../../db/demo-scenario'
 import { OptionInputSchema } from '../../../shared/schemas/option'

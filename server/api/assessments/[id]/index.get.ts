@@ -1,3 +1,4 @@
+import { loadAssessmentDetail } from '../../../domain/options'
 import { AssessmentParamsSchema } from '../../../../shared/schemas/option'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 
@@ -6,5 +7,5 @@ import { READER_ROLES } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(AssessmentParamsSchema, 'params'))
   await requireAssessment(event, id, READER_ROLES)
-  return (await loadAssessmentDetail(id))!
+  return (await loadAssessmentDetail(useDb(), id))!
 })

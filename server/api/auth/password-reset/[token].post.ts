@@ -1,3 +1,4 @@
+import { hashLinkToken, linkTokenMatches } from '../../../domain/tokens'
 import { PasswordResetParamsSchema, PasswordResetSchema } from '../../../../shared/schemas/invitation'
 
 const unknown = () => createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This reset link is not known. Check that the whole link was copied, or ask for a new one.' })

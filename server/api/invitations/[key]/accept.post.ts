@@ -1,3 +1,4 @@
+import { assertInvitationOpen } from '../../../domain/invitations'
 import { InvitationAcceptSchema, InvitationTokenParamsSchema, type InvitationAcceptedDto } from '../../../../shared/schemas/invitation'
 
 const unprocessable = (message: string) => createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message })

@@ -1,3 +1,4 @@
+import { revokeInvitation } from '../../../domain/invitations'
 import { InvitationIdParamsSchema, type InvitationDto } from '../../../../shared/schemas/invitation'
 
 // DELETE /api/invitations/[id]: an admin of the invitation's organisation withdraws a pending
@@ -8,13 +9,7 @@ export default defineEventHandler(async (event): Promise<InvitationDto> => {
   const row = await useDb().selectFrom('invitations').selectAll().where('id', '=', id).executeTakeFirst()
   if (!row) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Invitation not found' })
   const { user } = await requireRole(event, row.org_id, ['admin'], 'Invitation not found')
-  const at = nowIso()
-  const before = invitationState(row, at)
-  if (before !== 'pending') {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `invitation: cannot revoke, it is ${before}`, data: { state: before } })
-  }
-  await useDb().updateTable('invitations').set({ revoked_at: at, revoked_by: user.id }).where('id', '=', id).where('accepted_at', 'is', null).where('revoked_at', 'is', null).execute()
-  await audit({ orgId: row.org_id, userId: user.id, action: 'invitation.revoked', targetType: 'invitation', targetId: id, detail: { before: { state: before }, after: { state: 'revoked' }, email: row.email } })
-  const updated = await invitationQuery().where('invitations.id', '=', id).executeTakeFirstOrThrow()
-  return invitationDto(updated)
+  const revoked = await revokeInvitation(useDb(), row, user.id, nowIso())
+  await audit({ orgId: row.org_id, userId: user.id, action: 'invitation.revoked', targetType: 'invitation', targetId: id, detail: { before: { state: 'pending' }, after: { state: 'revoked' }, email: row.email } })
+  return revoked
 })

@@ -1,3 +1,4 @@
+import { assertInvitationOpen } from '../../../domain/invitations'
 import { InvitationTokenParamsSchema, type InvitationPublicDto } from '../../../../shared/schemas/invitation'
 import { ROLE_LABELS } from '../../../../shared/utils/roles'
 

@@ -1,3 +1,4 @@
+import { deleteOption } from '../../../domain/options'
 import { OptionParamsSchema } from '../../../../shared/schemas/option'
 import { EDITOR_ROLES } from '../../../../shared/utils/roles'
 
@@ -6,8 +7,8 @@ import { EDITOR_ROLES } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(OptionParamsSchema, 'params'))
   const { user, site, option } = await requireOption(event, id, EDITOR_ROLES)
-  const deletedAt = new Date().toISOString()
-  await useDb().updateTable('options').set({ deleted_at: deletedAt, deleted_by: user.id }).where('id', '=', id).where('deleted_at', 'is', null).execute()
+  const deletedAt = nowIso()
+  await deleteOption(useDb(), id, user.id, deletedAt)
   await audit({ orgId: site.org_id, userId: user.id, action: 'option.deleted', targetType: 'option', targetId: id, detail: { siteId: site.id, name: option.name } })
   return { id, deletedAt }
 })

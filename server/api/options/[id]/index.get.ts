@@ -1,3 +1,4 @@
+import { loadOptionDto } from '../../../domain/options'
 import { OptionParamsSchema } from '../../../../shared/schemas/option'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 
@@ -5,5 +6,5 @@ import { READER_ROLES } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(OptionParamsSchema, 'params'))
   const { option } = await requireOption(event, id, READER_ROLES)
-  return loadOptionDto(option)
+  return loadOptionDto(useDb(), option)
 })

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { openSummary, summaryLinkByToken } from '../../../domain/summaryLinks'
 import type { PublicSummaryDto } from '../../../../shared/schemas/summaryLink'
 
 // GET /api/public/summary/[token]: the landowner summary behind a summary link: no sign-in,
@@ -23,22 +24,12 @@ export default defineEventHandler(async (event): Promise<PublicSummaryDto> => {
   const linkKeys: [ThrottleBucket, string][] = [['link-address', clientAddress(event)]]
   await assertNotThrottled(event, linkKeys)
   const db = useDb()
-  const now = nowIso()
-  const link = await db.selectFrom('summary_links').selectAll().where('token_hash', '=', hashLinkToken(token)).executeTakeFirst()
-  if (!link || !linkTokenMatches(token, link.token_hash)) {
+  const link = await summaryLinkByToken(db, token)
+  if (!link) {
     await recordHit(linkKeys)
     throw gone()
   }
-  if (summaryLinkState(link, now) !== 'active') throw gone()
-  const site = await db.selectFrom('sites').selectAll().where('id', '=', link.site_id).where('deleted_at', 'is', null).executeTakeFirst()
-  if (!site) throw gone()
-  const summary = await loadPublicSummary(link, site)
-  if (event.method === 'GET') {
-    await db
-      .updateTable('summary_links')
-      .set((eb) => ({ view_count: eb('view_count', '+', 1), last_viewed_at: now }))
-      .where('id', '=', link.id)
-      .execute()
-  }
+  const summary = await openSummary(db, link, nowIso(), event.method === 'GET')
+  if (!summary) throw gone()
   return summary
 })

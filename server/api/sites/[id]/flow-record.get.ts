@@ -1,3 +1,4 @@
+import { loadSiteDays, requireFlowRecord } from '../../../domain/flowRecords'
 import { FlowRecordQuerySchema, SiteParamsSchema, type FlowRecordDto } from '../../../../shared/schemas/site'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 
@@ -7,7 +8,6 @@ export default defineEventHandler(async (event): Promise<FlowRecordDto> => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   await requireSite(event, id, READER_ROLES)
   const range = await getValidatedQuery(event, validator(FlowRecordQuerySchema, 'query'))
-  const record = await loadFlowRecord(id)
-  if (!record) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This site has no flow record' })
-  return { record, days: await loadSiteDays(id, record.scale, range) }
+  const record = await requireFlowRecord(useDb(), id)
+  return { record, days: await loadSiteDays(useDb(), id, record.scale, range) }
 })

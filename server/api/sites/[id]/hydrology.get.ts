@@ -1,3 +1,4 @@
+import { loadFlowRecord, loadSiteDays } from '../../../domain/flowRecords'
 import { fdcFromPoints, fdcStats, reservedFlow, scaleFdcByAreaRatio } from '../../../../shared/engine/hydrology'
 import { SiteParamsSchema, type Catchment, type FdcPointInput, type HydrologyDto, type ReservedFlow } from '../../../../shared/schemas/site'
 import { fdcChartPoints } from '../../../../shared/utils/fdcChart'
@@ -11,10 +12,10 @@ export default defineEventHandler(async (event): Promise<HydrologyDto> => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { site } = await requireSite(event, id, READER_ROLES)
   const setting = JSON.parse(site.reserved_flow) as ReservedFlow
-  const record = await loadFlowRecord(id)
+  const record = await loadFlowRecord(useDb(), id)
   if (record && record.stats) {
     assertEngineRoom(event)
-    const days = await loadSiteDays(id, record.scale)
+    const days = await loadSiteDays(useDb(), id, record.scale)
     const curves = await runEngine(event, { kind: 'record-hydrology', days, reservedFlow: setting })
     return { source: 'record', ...curves, reservedFlow: { setting, flow: curves.reservedFlow }, scale: record.scale }
   }

@@ -1,3 +1,4 @@
+import { deleteSite } from '../../../domain/sites'
 import { SiteParamsSchema } from '../../../../shared/schemas/site'
 import { EDITOR_ROLES } from '../../../../shared/utils/roles'
 
@@ -6,7 +7,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
   const deletedAt = nowIso()
-  await useDb().updateTable('sites').set({ deleted_at: deletedAt, deleted_by: user.id }).where('id', '=', id).where('deleted_at', 'is', null).execute()
+  await deleteSite(useDb(), id, user.id, deletedAt)
   await audit({ orgId: site.org_id, userId: user.id, action: 'site.deleted', targetType: 'site', targetId: id, detail: { name: site.name } })
   return { id, deletedAt }
 })

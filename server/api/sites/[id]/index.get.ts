@@ -1,3 +1,4 @@
+import { siteDto } from '../../../domain/sites'
 import { SiteParamsSchema } from '../../../../shared/schemas/site'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 
@@ -5,5 +6,5 @@ import { READER_ROLES } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { site } = await requireSite(event, id, READER_ROLES)
-  return siteDto(site)
+  return siteDto(useDb(), site)
 })

@@ -1,4 +1,4 @@
-import { sql } from 'kysely'
+import { siteDto, updateSite } from '../../../domain/sites'
 import { SiteParamsSchema, SitePatchSchema } from '../../../../shared/schemas/site'
 import { EDITOR_ROLES } from '../../../../shared/utils/roles'
 
@@ -7,17 +7,8 @@ import { EDITOR_ROLES } from '../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
-  const { version, ...patch } = await readValidatedJson(event, SitePatchSchema, BODY_LIMITS.form)
-  const changed = Object.keys(patch).filter((k) => patch[k as keyof typeof patch] !== undefined)
-  const updated = await useDb()
-    .updateTable('sites')
-    .set({ ...siteColumns(patch), version: sql<number>`version + 1`, updated_at: nowIso() })
-    .where('id', '=', id)
-    .where('version', '=', version)
-    .where('deleted_at', 'is', null)
-    .returningAll()
-    .executeTakeFirst()
-  if (!updated) throw await staleVersionError('sites', id, version, 'site')
+  const patch = await readValidatedJson(event, SitePatchSchema, BODY_LIMITS.form)
+  const { site: updated, changed } = await updateSite(useDb(), id, patch, nowIso())
   await audit({ orgId: site.org_id, userId: user.id, action: 'site.updated', targetType: 'site', targetId: id, detail: { fields: changed, version: updated.version } })
-  return siteDto(updated)
+  return siteDto(useDb(), updated)
 })

@@ -1,3 +1,4 @@
+import { assessmentCsv } from '../../../../domain/assessmentCsv'
 import type { AssessResult } from '../../../../../shared/engine/assess'
 import { AssessmentExportParamsSchema } from '../../../../../shared/schemas/option'
 import { READER_ROLES } from '../../../../../shared/utils/roles'

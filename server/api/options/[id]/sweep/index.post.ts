@@ -1,3 +1,4 @@
+import { assessmentInputFor } from '../../../../domain/assessments'
 import { ENGINE_VERSION } from '../../../../../shared/engine/version'
 import { OptionParamsSchema, OptionSweepSchema, type OptionSweepDto } from '../../../../../shared/schemas/option'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
@@ -11,7 +12,7 @@ export default defineEventHandler(async (event): Promise<OptionSweepDto> => {
   rateLimit(event, 'engine-sweep', user.id)
   const { grid } = await readValidatedJson(event, OptionSweepSchema, BODY_LIMITS.form)
   assertEngineRoom(event)
-  const input = await assessmentInputFor(site, option)
+  const input = await assessmentInputFor(useDb(), site, option)
   const result = await runEngine(event, { kind: 'sweep-input', input, grid })
   return { optionId: option.id, engineVersion: ENGINE_VERSION, ...result }
 })

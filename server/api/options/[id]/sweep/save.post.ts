@@ -1,3 +1,6 @@
+import { assessmentInputFor } from '../../../../domain/assessments'
+import { unprocessable } from '../../../../domain/errors'
+import { createOption, optionDto } from '../../../../domain/options'
 import { EngineOptionSchema, OptionParamsSchema, SweepSaveSchema } from '../../../../../shared/schemas/option'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 
@@ -10,27 +13,22 @@ export default defineEventHandler(async (event) => {
   const { user, site, option } = await requireOption(event, id, EDITOR_ROLES)
   const body = await readValidatedJson(event, SweepSaveSchema, BODY_LIMITS.form)
   assertEngineRoom(event)
-  const input = await assessmentInputFor(site, option)
+  const input = await assessmentInputFor(useDb(), site, option)
   const moved = await runEngine(event, { kind: 'design-at', input, throatDiameter_m: body.throatDiameter_m, units: body.units, throatDepth_m: body.throatDepth_m })
   const checked = EngineOptionSchema.safeParse(moved)
   if (!checked.success) {
     const issue = checked.error.issues[0]!
     const field = issue.path.map(String).join('.')
-    throw unassessable(field === 'throatDiameter_m' || field === 'units' || field === 'throatDepth_m' ? field : 'throatDiameter_m', `the point gives a design the engine refuses (${field}: ${issue.message})`)
+    throw unprocessable(field === 'throatDiameter_m' || field === 'units' || field === 'throatDepth_m' ? field : 'throatDiameter_m', `the point gives a design the engine refuses (${field}: ${issue.message})`)
   }
-  const row = await useDb()
-    .insertInto('options')
-    .values({
-      site_id: site.id,
-      org_id: site.org_id,
-      name: body.name,
-      notes: `Saved from a sweep of "${option.name}": throat ${body.throatDiameter_m} m, ${body.units} unit(s), throat depth ${body.throatDepth_m} m.`,
-      design: JSON.stringify(checked.data),
-      settings: option.settings,
-      created_by: user.id,
-    })
-    .returningAll()
-    .executeTakeFirstOrThrow()
+  const row = await createOption(useDb(), {
+    site,
+    userId: user.id,
+    name: body.name,
+    notes: `Saved from a sweep of "${option.name}": throat ${body.throatDiameter_m} m, ${body.units} unit(s), throat depth ${body.throatDepth_m} m.`,
+    design: JSON.stringify(checked.data),
+    settings: option.settings,
+  })
   await audit({
     orgId: site.org_id,
     userId: user.id,

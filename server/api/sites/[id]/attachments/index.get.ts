@@ -1,3 +1,4 @@
+import { attachmentDto } from '../../../../domain/sites'
 import { SiteParamsSchema, type AttachmentDto } from '../../../../../shared/schemas/site'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 

@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto'
+import { attachmentDto } from '../../../../domain/sites'
 import { ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, SiteParamsSchema, type AttachmentDto } from '../../../../../shared/schemas/site'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 

@@ -1,3 +1,4 @@
+import { createOptionFromInput, optionDto } from '../../../../domain/options'
 import { OptionInputSchema } from '../../../../../shared/schemas/option'
 import { SiteParamsSchema } from '../../../../../shared/schemas/site'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
@@ -7,20 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
   const input = await readValidatedJson(event, OptionInputSchema, BODY_LIMITS.form)
-  const cols = optionColumns(input)
-  const row = await useDb()
-    .insertInto('options')
-    .values({
-      site_id: site.id,
-      org_id: site.org_id,
-      name: input.name,
-      notes: input.notes,
-      design: cols.design!,
-      settings: cols.settings!,
-      created_by: user.id,
-    })
-    .returningAll()
-    .executeTakeFirstOrThrow()
+  const row = await createOptionFromInput(useDb(), site, user.id, input)
   await audit({ orgId: site.org_id, userId: user.id, action: 'option.created', targetType: 'option', targetId: row.id, detail: { siteId: site.id, name: row.name } })
   setResponseStatus(event, 201)
   return optionDto(row, user.name, null)

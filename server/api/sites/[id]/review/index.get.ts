@@ -1,3 +1,4 @@
+import { loadReview } from '../../../../domain/reviewRecords'
 import { ReviewParamsSchema } from '../../../../../shared/schemas/review'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
@@ -5,5 +6,5 @@ import { READER_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(ReviewParamsSchema, 'params'))
   const { site, role } = await requireSite(event, id, READER_ROLES)
-  return loadReview(site, role)
+  return loadReview(useDb(), site, role)
 })

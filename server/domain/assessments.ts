@@ -1,13 +1,15 @@
-// Turns a stored site (with its flow record, if any) and a stored option into the engine's input, and
-// an engine result into the summary columns of an assessment row. No Nitro here: the server
-// (server/utils/assessmentInput.ts) and the demo loader (db/seed.ts) both call it.
+// Assessments: the engine input for a stored option at its stored site (with its flow record, if
+// any), the input of a re-run, and storing one engine run (exact input, whole result, headline
+// columns). The engine itself runs elsewhere (the worker pool on the server, in process in the seed);
+// routes, the seed (db/seed.ts) and the benchmarks call these.
 import type { Kysely } from 'kysely'
-import type { AssessResult } from '../shared/engine/assess'
-import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../shared/schemas/assess'
-import type { OptionDesign, OptionSettings } from '../shared/schemas/option'
-import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../shared/schemas/site'
-import { siteToEngine, SiteNotReadyError, type RecordForEngine } from '../shared/utils/siteEngineInput'
-import type { AssessmentsTable, Database, OptionRow, SiteRow } from './schema'
+import type { AssessmentsTable, Database, OptionRow, SiteRow } from '../../db/schema'
+import type { AssessResult } from '../../shared/engine/assess'
+import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../shared/schemas/assess'
+import type { AssessmentCreate, OptionDesign, OptionSettings } from '../../shared/schemas/option'
+import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../../shared/schemas/site'
+import { siteToEngine, SiteNotReadyError, type RecordForEngine } from '../../shared/utils/siteEngineInput'
+import { conflict, unprocessable } from './errors'
 
 /** A site's stored daily record as gauged (before scaling), with the area ratio its flows get. */
 export type StoredRecord = RecordForEngine
@@ -112,4 +114,68 @@ export async function insertAssessment(
     return row.id
   }
   return db.isTransaction ? write(db) : db.transaction().execute(write)
+}
+
+/**
+ * The engine input for a stored option at its stored site (flow record days when the site has a
+ * record, else its FDC points), defaults filled in; 422 naming the field when it cannot be assessed.
+ */
+export async function assessmentInputFor(db: Kysely<Database>, site: SiteRow, option: Pick<OptionRow, 'design' | 'settings'>): Promise<AssessInput> {
+  const record = await loadStoredRecord(db, site.id)
+  try {
+    return buildAssessInput(site, record, storedOption(option))
+  } catch (error) {
+    if (error instanceof SiteNotReadyError) throw unprocessable(error.field, error.message)
+    throw error
+  }
+}
+
+/** The 409 for re-running an assessment that already has a re-run. */
+function alreadyRerun(oldId: number, laterId: number) {
+  return conflict(`rerunOf: assessment ${oldId} was already re-run as assessment ${laterId}; re-run that one instead`, { supersededBy: laterId })
+}
+
+/**
+ * What a new run of `option` re-runs, if anything: `rerunOf` must be an assessment of this option
+ * not yet re-run (422, 409); with `use: 'stored'` its stored input is run again exactly (422 when
+ * it no longer fits this engine), else `input` is null and the caller builds it afresh.
+ */
+export async function rerunBasis(
+  db: Kysely<Database>,
+  option: Pick<OptionRow, 'id'>,
+  body: AssessmentCreate,
+): Promise<{ supersedesId: number | null; input: AssessInput | null }> {
+  if (body.rerunOf === undefined) return { supersedesId: null, input: null }
+  const old = await db
+    .selectFrom('assessments')
+    .innerJoin('assessment_payloads', 'assessment_payloads.assessment_id', 'assessments.id')
+    .select(['assessments.id', 'assessments.option_id', 'assessment_payloads.input_json'])
+    .where('assessments.id', '=', body.rerunOf)
+    .executeTakeFirst()
+  if (!old || old.option_id !== option.id) throw unprocessable('rerunOf', `assessment ${body.rerunOf} is not an assessment of this option`)
+  const later = await db.selectFrom('assessments').select('id').where('supersedes_id', '=', old.id).executeTakeFirst()
+  if (later) throw alreadyRerun(old.id, later.id)
+  if (body.use !== 'stored') return { supersedesId: old.id, input: null }
+  const stored = AssessInputSchema.safeParse(JSON.parse(old.input_json))
+  if (!stored.success) {
+    const issue = stored.error.issues[0]!
+    throw unprocessable('rerunOf', `the stored input no longer fits this engine (${issue.path.map(String).join('.')}: ${issue.message}); re-run with use 'current'`)
+  }
+  return { supersedesId: old.id, input: stored.data }
+}
+
+/**
+ * Stores one engine run as an assessment of `option` (as insertAssessment); when two re-runs of the
+ * same assessment race, the unique index lets one through and the other gets the 409.
+ */
+export async function storeAssessment(db: Kysely<Database>, args: Parameters<typeof insertAssessment>[1]): Promise<number> {
+  try {
+    return await insertAssessment(db, args)
+  } catch (error) {
+    if (args.supersedesId !== null && /UNIQUE constraint failed: assessments\.supersedes_id/.test(String(error))) {
+      const later = await db.selectFrom('assessments').select('id').where('supersedes_id', '=', args.supersedesId).executeTakeFirst()
+      throw alreadyRerun(args.supersedesId, later?.id ?? 0)
+    }
+    throw error
+  }
 }

@@ -20,15 +20,3 @@ export function linkTokenMatches(token: string, storedHash: string): boolean {
   const b = Buffer.from(storedHash, 'hex')
   return a.length === b.length && timingSafeEqual(a, b)
 }
-
-/** The app's public base URL (NUXT_PUBLIC_APP_URL, default http://localhost:3000), no trailing slash. */
-export function appBaseUrl(): string {
-  const url = useRuntimeConfig().public.appUrl || 'http://localhost:3000'
-  return String(url).replace(/\/+$/, '')
-}
-
-/** An absolute link into the app. */
-export const appLink = (path: string) => `${appBaseUrl()}${path.startsWith('/') ? path : `/${path}`}`
-
-/** ISO time `ms` milliseconds from now. */
-export const isoIn = (ms: number, now = Date.now()) => new Date(now + ms).toISOString()

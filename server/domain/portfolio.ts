@@ -1,14 +1,15 @@
 // The portfolio query: an organisation's live sites with the headline figures of each site's latest
 // assessment (of a live option), in ONE SQL statement (no query per site). The total comes from a
 // window count, so paging needs no second query.
-// No Nitro globals here: scripts/bench/portfolio.ts times this very query.
+// scripts/bench/portfolio.ts times this very query.
 import { sql, type Kysely } from 'kysely'
 import Papa from 'papaparse'
 import type { Database } from '../../db/schema'
 import type { FlagId } from '../../shared/engine/assess'
 import { ENGINE_VERSION } from '../../shared/engine/version'
-import type { PortfolioQuery, PortfolioRow, PortfolioSort } from '../../shared/schemas/option'
+import { PORTFOLIO_MAP_MAX, type PortfolioDto, type PortfolioQuery, type PortfolioRow, type PortfolioSort } from '../../shared/schemas/option'
 import { REVIEW_STATES, type ReviewState } from '../../shared/schemas/review'
+import { siteTextFilter } from './sites'
 
 // Sort keys as the `page` step sees them: site columns from `latest`, figures from the assessment.
 const SORT_COLUMNS = {
@@ -29,9 +30,6 @@ const SORT_COLUMNS = {
 /** The review state of `sites` (no site_reviews row: `draft`), and its place in REVIEW_STATES (sort order). */
 const reviewStateSql = sql<ReviewState>`coalesce(${sql.ref('r.state')}, 'draft')`
 const reviewRankSql = sql<number>`case ${reviewStateSql} ${sql.join(REVIEW_STATES.map((s, i) => sql`when ${s} then ${i}`), sql` `)} end`
-
-/** A LIKE pattern finding `text` anywhere, with % _ and \ taken literally (use with `escape '\'`). */
-const likeAnywhere = (text: string) => `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
 
 /**
  * The portfolio statement for one organisation; `paged: false` returns every matching row (CSV).
@@ -71,8 +69,8 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
           .where('sites.org_id', '=', orgId)
           .where('sites.deleted_at', 'is', null)
         if (query.q) {
-          const pattern = likeAnywhere(query.q)
-          sites = sites.where((eb) => eb.or([sql<boolean>`${sql.ref('sites.name')} like ${pattern} escape '\\'`, sql<boolean>`${sql.ref('sites.river_name')} like ${pattern} escape '\\'`]))
+          const text = query.q
+          sites = sites.where((eb) => siteTextFilter(eb, text))
         }
         if (query.river) sites = sites.where('sites.river_name', '=', query.river)
         if (query.reviewState) sites = sites.where(reviewStateSql, '=', query.reviewState)
@@ -189,4 +187,21 @@ export function portfolioCsv(rows: readonly PortfolioRow[]): string {
       ]
     }),
   })}\r\n`
+}
+
+/** Every matching row of the portfolio, unpaged (the CSV download). */
+export async function allPortfolioRows(db: Kysely<Database>, orgId: number, query: Omit<PortfolioQuery, 'format'>): Promise<PortfolioRow[]> {
+  return (await portfolioQuery(db, orgId, query, false).execute()).map(portfolioRow)
+}
+
+/** The portfolio as the API answers it: one page (`page`), or every matching row up to PORTFOLIO_MAP_MAX unpaged (`map`). */
+export async function loadPortfolio(db: Kysely<Database>, orgId: number, query: Omit<PortfolioQuery, 'format'>, shape: 'page' | 'map'): Promise<PortfolioDto> {
+  if (shape === 'map') {
+    const rows = await portfolioQuery(db, orgId, { ...query, page: 1, pageSize: PORTFOLIO_MAP_MAX }).execute()
+    const total = rows.length > 0 ? Number(rows[0]!.total) : 0
+    return { page: 1, pageSize: PORTFOLIO_MAP_MAX, total, sort: query.sort, dir: query.dir, rows: rows.map(portfolioRow) }
+  }
+  const rows = await portfolioQuery(db, orgId, query).execute()
+  const total = rows.length > 0 ? Number(rows[0]!.total) : query.page > 1 ? await portfolioCount(db, orgId, query) : 0
+  return { page: query.page, pageSize: query.pageSize, total, sort: query.sort, dir: query.dir, rows: rows.map(portfolioRow) }
 }

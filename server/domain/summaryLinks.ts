@@ -1,11 +1,13 @@
-import { sql } from 'kysely'
-import type { SiteRow, SummaryLinkRow } from '../../db/schema'
+import { sql, type Kysely } from 'kysely'
+import type { Database, SiteRow, SummaryLinkRow } from '../../db/schema'
 import type { AssessResult } from '../../shared/engine/assess'
 import type { OptionDesign } from '../../shared/schemas/option'
 import { REVIEW_STATE_LABELS, type ReviewState } from '../../shared/schemas/review'
 import type { Reach } from '../../shared/schemas/site'
 import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type SummaryLinkState } from '../../shared/schemas/summaryLink'
 import { CAUTIONS } from '../../shared/utils/cautions'
+import { conflict } from './errors'
+import { hashLinkToken, linkTokenMatches, newLinkToken } from './tokens'
 
 // Summary links: their list rows, and the landowner summary one opens. The summary is built only
 // from named fields (never a row spread), so nothing but what PublicSummaryDto lists can leave.
@@ -34,8 +36,8 @@ export function summaryLinkDto(row: SummaryLinkRow & { site_name: string; creato
 }
 
 /** Summary-link rows with their site and creator names, for list routes to filter and page. */
-export function summaryLinkQuery() {
-  return useDb()
+export function summaryLinkQuery(db: Kysely<Database>) {
+  return db
     .selectFrom('summary_links')
     .innerJoin('sites', 'sites.id', 'summary_links.site_id')
     .leftJoin('users', 'users.id', 'summary_links.created_by')
@@ -140,8 +142,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
 }
 
 /** Loads the sources of a live link's summary: the assessment under review, else the site's latest of a live option. */
-export async function loadPublicSummary(link: SummaryLinkRow, site: SiteRow): Promise<PublicSummaryDto> {
-  const db = useDb()
+export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkRow, site: SiteRow): Promise<PublicSummaryDto> {
   const [org, creator, review] = await Promise.all([
     db.selectFrom('organisations').select('name').where('id', '=', site.org_id).executeTakeFirstOrThrow(),
     link.created_by === null ? undefined : db.selectFrom('users').select('name').where('id', '=', link.created_by).executeTakeFirst(),
@@ -184,4 +185,79 @@ export async function loadPublicSummary(link: SummaryLinkRow, site: SiteRow): Pr
         }
       : null,
   })
+}
+
+const DAY_MS = 24 * 60 * 60 * 1000
+
+/** One page of summary links (of a site, or of every site of an organisation), newest first, with the total. */
+export async function listSummaryLinks(
+  db: Kysely<Database>,
+  scope: { siteId: number } | { orgId: number },
+  query: { state?: SummaryLinkState; page: number; pageSize: number },
+): Promise<{ total: number; links: SummaryLinkDto[] }> {
+  let q = 'siteId' in scope ? summaryLinkQuery(db).where('summary_links.site_id', '=', scope.siteId) : summaryLinkQuery(db).where('summary_links.org_id', '=', scope.orgId)
+  if (query.state) q = q.where(summaryLinkStateCondition(query.state))
+  const [rows, total] = await Promise.all([
+    q.orderBy('summary_links.id', 'desc').limit(query.pageSize).offset((query.page - 1) * query.pageSize).execute(),
+    q.clearSelect().select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow(),
+  ])
+  return { total: Number(total.n), links: rows.map(summaryLinkDto) }
+}
+
+/** Makes a summary link for a site; the token is returned here only (the database keeps its hash). */
+export async function createSummaryLink(
+  db: Kysely<Database>,
+  args: { site: Pick<SiteRow, 'id' | 'org_id' | 'name'>; user: { id: number; name: string }; expiresInDays: number; note: string | null; now?: number },
+): Promise<{ link: SummaryLinkDto; token: string }> {
+  const token = newLinkToken()
+  const expiresAt = new Date((args.now ?? Date.now()) + args.expiresInDays * DAY_MS).toISOString()
+  const row = await db
+    .insertInto('summary_links')
+    .values({ site_id: args.site.id, org_id: args.site.org_id, token_hash: hashLinkToken(token), note: args.note || null, created_by: args.user.id, expires_at: expiresAt })
+    .returningAll()
+    .executeTakeFirstOrThrow()
+  return { link: summaryLinkDto({ ...row, site_name: args.site.name, creator_name: args.user.name }), token }
+}
+
+/** Revokes a link at once (409 when it already was); it stays in the lists as revoked. Returns it and its state before. */
+export async function revokeSummaryLink(
+  db: Kysely<Database>,
+  args: { link: SummaryLinkRow; siteName: string; userId: number; now: string },
+): Promise<{ link: SummaryLinkDto; before: SummaryLinkState }> {
+  const { link, now } = args
+  const updated = await db
+    .updateTable('summary_links')
+    .set({ revoked_at: now, revoked_by: args.userId })
+    .where('id', '=', link.id)
+    .where('revoked_at', 'is', null)
+    .returningAll()
+    .executeTakeFirst()
+  if (!updated) throw conflict(`summary link: already revoked (${link.revoked_at})`)
+  const creator = link.created_by === null ? undefined : await db.selectFrom('users').select('name').where('id', '=', link.created_by).executeTakeFirst()
+  return { link: summaryLinkDto({ ...updated, site_name: args.siteName, creator_name: creator?.name ?? null }), before: summaryLinkState(link, now) }
+}
+
+/** The link a presented token stands for, whatever its state, or null when no link has it. */
+export async function summaryLinkByToken(db: Kysely<Database>, token: string): Promise<SummaryLinkRow | null> {
+  const link = await db.selectFrom('summary_links').selectAll().where('token_hash', '=', hashLinkToken(token)).executeTakeFirst()
+  return link && linkTokenMatches(token, link.token_hash) ? link : null
+}
+
+/**
+ * The landowner summary behind a link, or null when the link no longer works (expired, revoked, or
+ * its site deleted). `countView` counts the opening.
+ */
+export async function openSummary(db: Kysely<Database>, link: SummaryLinkRow, now: string, countView: boolean): Promise<PublicSummaryDto | null> {
+  if (summaryLinkState(link, now) !== 'active') return null
+  const site = await db.selectFrom('sites').selectAll().where('id', '=', link.site_id).where('deleted_at', 'is', null).executeTakeFirst()
+  if (!site) return null
+  const summary = await loadPublicSummary(db, link, site)
+  if (countView) {
+    await db
+      .updateTable('summary_links')
+      .set((eb) => ({ view_count: eb('view_count', '+', 1), last_viewed_at: now }))
+      .where('id', '=', link.id)
+      .execute()
+  }
+  return summary
 }

@@ -1,0 +1,87 @@
+// Every e-mail Gillwatt produces goes through a Mailer. Each message is written to the `outbox`
+// table first. Without an SMTP URL that is where it stays (the admin page shows it); with one it is
+// also delivered, and the row records when it was sent or why it failed. A failed delivery never
+// fails the change that caused it. The server makes its Mailer from runtime config
+// (server/utils/mail.ts); the seed makes its own.
+import type { Kysely } from 'kysely'
+import nodemailer, { type Transporter } from 'nodemailer'
+import type { Database } from '../../../db/schema'
+import type { MailKind } from '../../../shared/schemas/admin'
+
+/** One e-mail: plain text and simple HTML, what it is about, and the organisation it belongs to. */
+export interface MailMessage {
+  to: string
+  subject: string
+  text: string
+  html: string
+  kind: MailKind
+  /** Null for mail about an account rather than an organisation (password reset). */
+  orgId: number | null
+}
+
+/** What happened to one message. */
+export interface MailOutcome {
+  outboxId: number
+  sent: boolean
+  error: string | null
+}
+
+/** What domain operations that send e-mail are given. */
+export interface Mailer {
+  /** Writes the message to the outbox; `delivery` settles when it has been sent (at once without SMTP). */
+  queue(message: MailMessage): Promise<{ outboxId: number; delivery: Promise<MailOutcome> }>
+  /** An absolute link into the app, for the e-mail's button. */
+  link(path: string): string
+}
+
+/** Sends the messages one after another, waiting for each delivery; returns their outcomes. */
+export async function sendAll(mailer: Mailer, messages: readonly MailMessage[]): Promise<MailOutcome[]> {
+  const outcomes: MailOutcome[] = []
+  for (const m of messages) {
+    const { delivery } = await mailer.queue(m)
+    outcomes.push(await delivery)
+  }
+  return outcomes
+}
+
+let transport: { url: string; transporter: Transporter } | undefined
+
+function transporterFor(url: string): Transporter {
+  if (transport?.url !== url) transport = { url, transporter: nodemailer.createTransport(url) }
+  return transport.transporter
+}
+
+/**
+ * The outbox mailer: `smtpUrl` empty keeps every message in the outbox; `appUrl` starts every link;
+ * `clock`, when given, dates each outbox row (the seed's backdated demo), else the database does.
+ */
+export function outboxMailer(db: Kysely<Database>, config: { smtpUrl: string; from: string; appUrl: string; clock?: () => string }): Mailer {
+  const base = config.appUrl.replace(/\/+$/, '')
+  async function deliver(outboxId: number, url: string, message: MailMessage): Promise<MailOutcome> {
+    let error: string | null = null
+    try {
+      await transporterFor(url).sendMail({ from: config.from, to: message.to, subject: message.subject, text: message.text, html: message.html })
+    } catch (e) {
+      // Keep the reason, never the URL (it may hold a password).
+      error = (e instanceof Error ? e.message : String(e)).replaceAll(url, '[SMTP_URL]').slice(0, 500)
+    }
+    await db
+      .updateTable('outbox')
+      .set(error ? { error } : { sent_at: new Date().toISOString(), error: null })
+      .where('id', '=', outboxId)
+      .execute()
+    return { outboxId, sent: !error, error }
+  }
+  return {
+    async queue(message) {
+      const row = await db
+        .insertInto('outbox')
+        .values({ org_id: message.orgId, to_address: message.to, subject: message.subject, text: message.text, html: message.html, kind: message.kind, ...(config.clock ? { created_at: config.clock() } : {}) })
+        .returning('id')
+        .executeTakeFirstOrThrow()
+      if (!config.smtpUrl) return { outboxId: row.id, delivery: Promise.resolve({ outboxId: row.id, sent: false, error: null }) }
+      return { outboxId: row.id, delivery: deliver(row.id, config.smtpUrl, message) }
+    },
+    link: (path) => `${base}${path.startsWith('/') ? path : `/${path}`}`,
+  }
+}
