@@ -1,3 +1,5 @@
+// The `?node-worker` import below has its types in this declaration file; `nuxt typecheck` needs the reference.
+// eslint-disable-next-line @typescript-eslint/triple-slash-reference
 /// <reference path="../../workers/node-worker.d.ts" />
 import { availableParallelism } from 'node:os'
 import type { H3Event } from 'h3'

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { Client, signUp } from './client'
+import type { Client } from './client'
+import { signUp } from './client'
 
 // docs/api.md shows a complete request and response for each engine route; the running server
 // must give exactly the documented answer (same engine version, deterministic engine).

@@ -1,6 +1,7 @@
 import { connect } from 'node:net'
 import { beforeAll, describe, expect, inject, it } from 'vitest'
-import { Client, GOOD_PASSWORD, signUp } from './client'
+import type { Client } from './client'
+import { GOOD_PASSWORD, signUp } from './client'
 import { createSite } from './sites-helpers'
 
 // Durability against the shared test server: concurrent writers on one site lose no update, concurrent

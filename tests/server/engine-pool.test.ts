@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startBuiltServer, type BuiltServer } from '../../scripts/builtServer.mjs'
 import { draft, record } from '../unit/engine/fixtures'
-import { Client, signUp } from './client'
+import type { Client } from './client'
+import { signUp } from './client'
 import { createOption } from './options-helpers'
 import { createSite } from './sites-helpers'
 

@@ -1,5 +1,5 @@
-import { expect } from 'vitest'
-import { Client, addMember, signUp } from './client'
+import type { Client } from './client'
+import { addMember, signUp } from './client'
 import { createAssessment, createOption } from './options-helpers'
 import { createSite } from './sites-helpers'
 

@@ -1,5 +1,6 @@
 import { expect } from 'vitest'
-import { Client, addMember, signUp } from './client'
+import type { Client } from './client'
+import { addMember, signUp } from './client'
 
 /** A valid body for POST /api/orgs/[orgId]/sites; `over` replaces top-level fields. */
 export function siteBody(over: Record<string, unknown> = {}) {

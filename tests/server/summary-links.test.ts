@@ -103,7 +103,10 @@ describe('the public summary', () => {
     const keys: string[] = []
     const walk = (v: unknown) => {
       if (Array.isArray(v)) v.forEach(walk)
-      else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) (keys.push(k), walk(x))
+      else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) {
+        keys.push(k)
+        walk(x)
+      }
     }
     walk(res.body)
     expect(keys.filter((k) => /id$/i.test(k) || /_id/i.test(k))).toEqual([])

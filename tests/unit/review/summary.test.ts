@@ -34,7 +34,10 @@ describe('buildPublicSummary', () => {
     const keys: string[] = []
     const walk = (v: unknown) => {
       if (Array.isArray(v)) v.forEach(walk)
-      else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) (keys.push(k), walk(x))
+      else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) {
+        keys.push(k)
+        walk(x)
+      }
     }
     walk(s)
     expect(keys.filter((k) => /id$/i.test(k))).toEqual([])
