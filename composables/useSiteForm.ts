@@ -4,8 +4,7 @@ import { computed, reactive, ref, watch } from 'vue'
 import type { ZodType } from 'zod'
 import { MonthsSchema, SiteInputSchema, SitePatchSchema, type SiteInput, type SitePatch } from '~~/shared/schemas/site'
 import { issuesFromError } from '../utils/serverErrors'
-import { issuesByPath, monthsFromDraft, type SiteDraft } from '../utils/siteDraft'
-import { cloneDraft, friendly, overviewFromDraft } from '../utils/siteDraft'
+import { cloneDraft, friendly, issuesByPath, monthsFromDraft, overviewFromDraft, type SiteDraft } from '../utils/siteDraft'
 
 /**
  * Form state for one site: the draft, per-field errors (keyed by the API's paths, e.g.

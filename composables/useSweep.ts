@@ -4,7 +4,7 @@ import { ref, shallowRef } from 'vue'
 import type { SweepPoint } from '~~/shared/engine/sweep'
 import type { AssessInput, SweepGrid } from '~~/shared/schemas/assess'
 import type { OptionSweepDto } from '~~/shared/schemas/option'
-import { type SweepWorkerMessage, type SweepWorkerRequest } from '../utils/sweep'
+import type { SweepWorkerMessage, SweepWorkerRequest } from '../utils/sweep'
 
 /** Running a sweep: in a worker when the browser can, else on the server (no per-point progress). */
 export function useSweep() {

@@ -1,4 +1,5 @@
 // How a stored assessment is shown: its headline figures, flag titles and method names.
+import { MONTH_SHORT } from '~~/shared/utils/months'
 import type { AssessResult, AssessSummary, FlagId } from '~~/shared/engine/assess'
 import { formatNumber } from './format'
 
@@ -28,13 +29,12 @@ export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headlin
     },
     {
       key: 'oxygen', label: 'Net oxygen gain, summer low flow', value: `${s.netOxygenGainSummerLowFlow_mgL > 0 ? '+' : ''}${formatNumber(s.netOxygenGainSummerLowFlow_mgL, 2)}`, unit: 'mg/L',
-      warn: s.netOxygenGainSummerLowFlow_mgL < 0, note: s.netOxygenGainSummerLowFlow_mgL < 0 ? 'a loss: the river is worse off with the scheme' : `${MONTHS[s.summerLowFlow.month - 1] ?? ''} at ${formatNumber(s.summerLowFlow.flow_m3s, 2)} m³/s`,
+      warn: s.netOxygenGainSummerLowFlow_mgL < 0, note: s.netOxygenGainSummerLowFlow_mgL < 0 ? 'a loss: the river is worse off with the scheme' : `${MONTH_SHORT[s.summerLowFlow.month - 1] ?? ''} at ${formatNumber(s.summerLowFlow.flow_m3s, 2)} m³/s`,
     },
     { key: 'lcoe', label: 'LCOE', value: s.lcoe === null ? 'no energy' : formatNumber(s.lcoe, 0), unit: s.lcoe === null ? '' : 'currency/MWh' },
   ]
 }
 
-const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec']
 
 /** Plain titles of the flags. */
 export const FLAG_TITLES: Record<FlagId, string> = {

@@ -1,12 +1,10 @@
 // The review comment thread's pure helpers: the tags a comment may carry, the body the form sends,
 // and @mentions while typing and when shown.
+import { monthName } from '~~/shared/utils/months'
 import type { FlagId } from '~~/shared/engine/assess'
 import type { CommentDto, CommentInput } from '~~/shared/schemas/review'
 import { FLAG_IDS } from '~~/shared/schemas/review'
 import { FLAG_TITLES } from './assessment'
-
-/** Month names, January first, as the selects and labels show them. */
-export const COMMENT_MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'] as const
 
 /** The flags offered in the comment form, in the schema's order. */
 export const COMMENT_FLAG_CHOICES = FLAG_IDS.map((id) => ({ value: id, label: FLAG_TITLES[id] }))
@@ -15,7 +13,7 @@ export const COMMENT_FLAG_CHOICES = FLAG_IDS.map((id) => ({ value: id, label: FL
 export function commentTags(c: Pick<CommentDto, 'assessmentId' | 'month' | 'flagId'>): string[] {
   const tags: string[] = []
   if (c.assessmentId !== null) tags.push(`Assessment ${c.assessmentId}`)
-  if (c.month !== null) tags.push(COMMENT_MONTHS[c.month - 1] ?? `Month ${c.month}`)
+  if (c.month !== null) tags.push(monthName(c.month))
   if (c.flagId !== null) tags.push(FLAG_TITLES[c.flagId] ?? c.flagId)
   return tags
 }

@@ -1,5 +1,7 @@
 // How the review is shown: state labels and tones, the decisions, the assessments a submission may
 // name, and the oxygen by month from the brief or the summary.
+import { monthName } from '~~/shared/utils/months'
+import { formatDay, formatNumber } from './format'
 import type { AssessmentListDto } from '~~/shared/schemas/option'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '~~/shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '~~/shared/schemas/review'
@@ -44,9 +46,8 @@ export interface AssessmentChoice {
   superseded: boolean
 }
 
-const dayOf = (iso: string) => new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' })
 
-const signed = (x: number, digits: number) => `${x > 0 ? '+' : ''}${x.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits })}`
+const signed = (x: number, digits: number) => `${x > 0 ? '+' : ''}${formatNumber(x, digits)}`
 
 /** Every assessment of the options, newest first, labelled with its option, day and headline figures. */
 export function assessmentChoices(options: readonly { id: number; name: string }[], lists: readonly AssessmentListDto[]): AssessmentChoice[] {
@@ -56,7 +57,7 @@ export function assessmentChoices(options: readonly { id: number; name: string }
     .sort((a, b) => b.createdAt.localeCompare(a.createdAt) || b.id - a.id)
     .map((a) => {
       const optionName = names.get(a.optionId) ?? `Option ${a.optionId}`
-      const energy = `${a.annualEnergyMWh.toLocaleString('en-GB', { maximumFractionDigits: 1, minimumFractionDigits: 1 })} MWh/yr`
+      const energy = `${formatNumber(a.annualEnergyMWh, 1)} MWh/yr`
       const oxygen = `${signed(a.netOxygenGainSlfMgL, 2)} mg/L at summer low flow`
       const marks = [a.stale ? 'older engine' : '', a.supersededBy !== null ? 're-run since' : ''].filter(Boolean)
       return {
@@ -64,7 +65,7 @@ export function assessmentChoices(options: readonly { id: number; name: string }
         optionId: a.optionId,
         optionName,
         createdAt: a.createdAt,
-        label: [optionName, dayOf(a.createdAt), energy, oxygen].join(' · ') + (marks.length ? ` (${marks.join(', ')})` : ''),
+        label: [optionName, formatDay(a.createdAt), energy, oxygen].join(' · ') + (marks.length ? ` (${marks.join(', ')})` : ''),
         stale: a.stale,
         superseded: a.supersededBy !== null,
       }
@@ -91,10 +92,8 @@ export interface OxygenRow {
   temperature?: number
 }
 
-const MONTH_NAMES = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'] as const
 
 /** The whole name of a month (1 = January); the server's own name when the number is out of range. */
-const monthName = (month: number, given: string) => MONTH_NAMES[month - 1] ?? given
 
 /** The reviewer's brief as oxygen rows. */
 export function oxygenRowsFromBrief(brief: Pick<ReviewBriefDto, 'oxygenByMonth'>): OxygenRow[] {

@@ -1,5 +1,6 @@
 // The site form's draft: a blank one, one from a stored site, the bodies it sends, and the schema's
 // issues by field path in plain words.
+import { MONTH_NAMES } from '~~/shared/utils/months'
 import { type OxygenUnit, type Reach, type SiteDto } from '~~/shared/schemas/site'
 import type { WaterQualityClass, WeirShapeClass } from '~~/shared/engine/oxygen'
 
@@ -37,9 +38,6 @@ export interface SiteDraft {
 export function cloneDraft<T>(value: T): T {
   return JSON.parse(JSON.stringify(value)) as T
 }
-
-/** Month names, January first, for the months table. */
-export const MONTH_NAMES = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'] as const
 
 /** Starting month values for a new site: 10 °C and water at saturation (common practice, no source; replace with measurements). */
 export const STARTING_MONTH: MonthDraft = { waterTempC: 10, oxygenValue: 100, oxygenUnit: '%sat' }

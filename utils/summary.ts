@@ -1,6 +1,7 @@
 // The landowner summary in plain words, and the summary links' states.
-import type { SummaryLinkState } from '~~/shared/schemas/summaryLink'
+import { formatNumber } from './format'
 import type { OxygenRow } from './review'
+import type { SummaryLinkState } from '~~/shared/schemas/summaryLink'
 
 // ——— link states ———
 
@@ -16,15 +17,9 @@ export function daysLeft(expiresAt: string, now: Date = new Date()): number {
   return Math.max(0, Math.ceil((Date.parse(expiresAt) - now.getTime()) / 86_400_000))
 }
 
-/** A UTC day as "12 Mar 2026". */
-export function formatDay(iso: string | null): string {
-  if (!iso) return '—'
-  return new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' })
-}
-
 // ——— plain words for the landowner ———
 
-const mgL = (x: number) => `${x.toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 })} mg/L`
+const mgL = (x: number) => `${formatNumber(x, 1)} mg/L`
 
 // Changes are judged on the figures as shown (one decimal), so no sentence says "up from 12.7 to 12.7".
 const shownChange = (r: OxygenRow) => Math.round(r.with * 10) - Math.round(r.without * 10)

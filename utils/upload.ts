@@ -1,5 +1,4 @@
 // Sending a multipart upload with progress (XMLHttpRequest), and its refusal as an error.
-
 /** What the server answered: the status and the parsed JSON body (or null). */
 export interface UploadAnswer<T> {
   status: number

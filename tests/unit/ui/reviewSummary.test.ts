@@ -2,8 +2,9 @@
 // the plain-language sentences, the homes figure's rounding and the link's days left.
 import { describe, expect, it } from 'vitest'
 import { SummaryLinkInputSchema } from '../../../shared/schemas/summaryLink'
+import { formatDay } from '../../../utils/format'
 import type { OxygenRow } from '../../../utils/review'
-import { daysLeft, formatDay, listInWords, monthInWords, riverInWords, roundHomes } from '../../../utils/summary'
+import { daysLeft, listInWords, monthInWords, riverInWords, roundHomes } from '../../../utils/summary'
 
 const row = (name: string, without: number, withScheme: number, target = 7): OxygenRow => ({ month: 1, name, without, with: withScheme, target })
 
