@@ -1,3 +1,4 @@
+import { fileURLToPath } from 'node:url'
 import { nodeWorker } from './build/nodeWorker'
 
 // Gillwatt keeps app.vue, pages/, components/, stores/ at the repo root (srcDir '.'), not in app/.
@@ -122,6 +123,15 @@ export default defineNuxtConfig({
     '/api/**': { headers: { 'Content-Security-Policy': "default-src 'none'; frame-ancestors 'none'", 'Cache-Control': 'no-store' } },
   },
   typescript: { strict: true },
+  // App code imports its own composables/ and utils/ by path (`import { x } from '~/utils/format'`),
+  // so a reader can follow every name to its file; only Vue, Nuxt and the Pinia stores stay
+  // auto-imported. Nuxt would otherwise make every export of those two folders a global name.
+  hooks: {
+    'imports:dirs': (dirs) => {
+      const own = new Set(['composables', 'utils'].map((d) => fileURLToPath(new URL(d, import.meta.url))))
+      dirs.splice(0, dirs.length, ...dirs.filter((d) => !own.has(d.replace(/\/+$/, ''))))
+    },
+  },
   vite: {
     resolve: { alias: [{ find: /^leaflet$/, replacement: 'leaflet/dist/leaflet-src.esm.js' }] },
   },

@@ -1,9 +1,6 @@
-// The comment thread of a site's review: typed fetch wrappers over server/api/sites/[id]/comments*,
-// and pure helpers for what a comment points at and for the @mention hint.
-import type { FlagId } from '~~/shared/engine/assess'
+// The comment thread of a site's review: typed fetch wrappers over server/api/sites/[id]/comments*
+// (the thread's pure helpers are in utils/comments.ts).
 import type { CommentDto, CommentInput, CommentListDto } from '~~/shared/schemas/review'
-import { FLAG_IDS } from '~~/shared/schemas/review'
-import { FLAG_TITLES } from './useAssessment'
 
 /** The site's comments, oldest first. */
 export function useComments(siteId: Ref<number>) {
@@ -16,56 +13,4 @@ export function useComments(siteId: Ref<number>) {
 /** Adds a comment; `@name` or `@e-mail` in the body notifies that member. */
 export function postComment(siteId: number, body: CommentInput): Promise<CommentDto> {
   return $fetch<CommentDto>(`/api/sites/${siteId}/comments`, { method: 'POST', body })
-}
-
-/** Month names, January first, as the selects and labels show them. */
-export const COMMENT_MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'] as const
-
-/** The flags offered in the comment form, in the schema's order. */
-export const COMMENT_FLAG_CHOICES = FLAG_IDS.map((id) => ({ value: id, label: FLAG_TITLES[id] }))
-
-/** What a comment is about, as short tags ("Assessment 12", "August", "Gas supersaturation"). */
-export function commentTags(c: Pick<CommentDto, 'assessmentId' | 'month' | 'flagId'>): string[] {
-  const tags: string[] = []
-  if (c.assessmentId !== null) tags.push(`Assessment ${c.assessmentId}`)
-  if (c.month !== null) tags.push(COMMENT_MONTHS[c.month - 1] ?? `Month ${c.month}`)
-  if (c.flagId !== null) tags.push(FLAG_TITLES[c.flagId] ?? c.flagId)
-  return tags
-}
-
-/** A comment form's values as the body the server takes: empty selects are left out. */
-export function commentBody(v: { body: string; assessmentId: number | '' ; month: number | ''; flagId: FlagId | '' }): CommentInput {
-  return {
-    body: v.body,
-    ...(v.assessmentId !== '' ? { assessmentId: v.assessmentId } : {}),
-    ...(v.month !== '' ? { month: v.month } : {}),
-    ...(v.flagId !== '' ? { flagId: v.flagId } : {}),
-  }
-}
-
-/** The `@word` being typed at the end of the text, without the `@`; null when the text does not end in one. */
-export function mentionBeingTyped(text: string): string | null {
-  const m = /(?:^|\s)@([^\s@]*)$/.exec(text)
-  return m ? m[1]! : null
-}
-
-const escapeRegExp = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
-
-/**
- * Splits a comment body into plain text and mention parts, so mentions can be set apart: `@` and one
- * of `names` (the people the server found mentioned; any case), or `@` and an e-mail address.
- */
-export function splitMentions(text: string, names: readonly string[]): { text: string; mention: boolean }[] {
-  const alternatives = [...names.filter((n) => n.trim()).map((n) => escapeRegExp(n.trim())).sort((a, b) => b.length - a.length), '[^\\s@]+@[^\\s@]+\\.[^\\s@.,;:!?()]+']
-  const re = new RegExp(`(^|[^\\w.@])(@(?:${alternatives.join('|')}))(?![\\w@-])`, 'giu')
-  const parts: { text: string; mention: boolean }[] = []
-  let last = 0
-  for (const m of text.matchAll(re)) {
-    const start = m.index + m[1]!.length
-    if (start > last) parts.push({ text: text.slice(last, start), mention: false })
-    parts.push({ text: m[2]!, mention: true })
-    last = start + m[2]!.length
-  }
-  if (last < text.length) parts.push({ text: text.slice(last), mention: false })
-  return parts
 }

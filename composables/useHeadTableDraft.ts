@@ -3,7 +3,7 @@
 // server's per-row issues for as long as the refused rows stand unchanged.
 import { computed, ref, toValue, type MaybeRefOrGetter } from 'vue'
 import type { HeadRow } from '~~/shared/schemas/site'
-import { checkHeadRows, headRowErrorsFromIssues, headRowsFrom, headTableText } from './useHeadTable'
+import { checkHeadRows, headRowErrorsFromIssues, headRowsFrom, headTableText } from '../utils/headTable'
 
 export function useHeadTableDraft(initial: readonly HeadRow[], serverErrors: MaybeRefOrGetter<Record<string, string>>) {
   const rows = ref(headRowsFrom(initial))

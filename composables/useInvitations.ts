@@ -1,16 +1,6 @@
 // Invitations and password reset: typed fetch wrappers over server/api/orgs/[orgId]/invitations*,
 // server/api/invitations/** and server/api/auth/password-reset*. Shapes from shared/schemas/invitation.ts.
-import { statusOf } from './useSites'
-import type {
-  InvitationAcceptedDto,
-  InvitationAcceptInput,
-  InvitationCreatedDto,
-  InvitationDto,
-  InvitationInput,
-  InvitationListDto,
-  InvitationPublicDto,
-  InvitationState,
-} from '~~/shared/schemas/invitation'
+import type { InvitationAcceptedDto, InvitationAcceptInput, InvitationCreatedDto, InvitationDto, InvitationInput, InvitationListDto, InvitationPublicDto, InvitationState } from '~~/shared/schemas/invitation'
 
 /** The organisation's invitations, newest first, optionally of one state (admins). */
 export function useInvitations(orgId: Ref<number>, state: Ref<InvitationState | ''>) {
@@ -52,31 +42,4 @@ export function requestPasswordReset(email: string): Promise<{ message: string }
 /** Sets a new password with a reset link's token. */
 export function resetPassword(token: string, password: string): Promise<{ ok: boolean; message: string }> {
   return $fetch<{ ok: boolean; message: string }>(`/api/auth/password-reset/${encodeURIComponent(token)}`, { method: 'POST', body: { password } })
-}
-
-/** Where to go after accepting: the one site for a single-site reviewer, else the portfolio. */
-export function afterAcceptPath(accepted: Pick<InvitationAcceptedDto, 'siteId'>): string {
-  return accepted.siteId !== null ? `/sites/${accepted.siteId}` : '/'
-}
-
-
-/** The heading and words for an invitation link that cannot be used, from the server's refusal. */
-export function closedInvitation(error: unknown): { title: string; text: string; signIn: boolean } {
-  const e = error as { data?: { message?: string; data?: { state?: string } } } | null
-  const state = e?.data?.data?.state
-  const said = e?.data?.message
-  const titles: Record<string, string> = {
-    expired: 'This invitation has expired',
-    accepted: 'This invitation has already been used',
-    revoked: 'This invitation was withdrawn',
-    'site-removed': 'The site of this invitation has been removed',
-  }
-  if (statusOf(error) === 410 && state && titles[state]) {
-    return { title: titles[state]!, text: said ?? 'Ask the administrator who sent it for a new one.', signIn: state === 'accepted' }
-  }
-  return {
-    title: 'This invitation link does not work',
-    text: 'Check that the whole link was copied from the e-mail. If it still does not work, ask the person who invited you to send a new one.',
-    signIn: false,
-  }
 }

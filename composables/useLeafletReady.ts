@@ -1,4 +1,4 @@
-import { noteMapTeardown } from './mapTeardown'
+import { noteMapTeardown } from '../utils/mapTeardown'
 
 /**
  * True once Leaflet's module and its marker images are loaded and the component is still mounted.

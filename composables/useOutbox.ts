@@ -1,8 +1,5 @@
-// Administration lists that shared/schemas/admin.ts describes: the local outbox of e-mails and the
-// audit trail with its filters. Typed fetch wrappers, and pure helpers for the filter query and for
-// showing an entry's before/after details.
-import type { AuditQuery, MailKind, OutboxListDto } from '~~/shared/schemas/admin'
-import type { AuditEntry } from './useOrgData'
+// The organisation's local outbox of e-mails (GET /api/orgs/[orgId]/outbox), admins only.
+import type { MailKind, OutboxListDto } from '~~/shared/schemas/admin'
 
 /** One page of the organisation's outbox, newest first, optionally of one kind (admins). */
 export function useOutbox(orgId: Ref<number>, kind: Ref<MailKind | ''>, page: Ref<number>) {
@@ -10,83 +7,4 @@ export function useOutbox(orgId: Ref<number>, kind: Ref<MailKind | ''>, page: Re
     key: computed(() => `outbox-${orgId.value}-${kind.value}-${page.value}`),
     query: computed(() => ({ kind: kind.value || undefined, page: page.value, pageSize: 25 })),
   })
-}
-
-/** The audit filters as a form holds them (empty string: no filter). */
-export interface AuditFilters {
-  action: string
-  userId: number | ''
-  targetType: string
-  from: string
-  to: string
-}
-
-export const EMPTY_AUDIT_FILTERS: Readonly<AuditFilters> = { action: '', userId: '', targetType: '', from: '', to: '' }
-
-/** The query string of the filters: blanks left out, text trimmed. */
-export function auditQuery(f: AuditFilters, page: number): Partial<AuditQuery> & { page: number; pageSize: number } {
-  const q: Partial<AuditQuery> & { page: number; pageSize: number } = { page, pageSize: 25 }
-  if (f.action.trim()) q.action = f.action.trim()
-  if (f.userId !== '') q.userId = f.userId
-  if (f.targetType.trim()) q.targetType = f.targetType.trim()
-  if (f.from) q.from = f.from
-  if (f.to) q.to = f.to
-  return q
-}
-
-/** One page of the audit trail matching the filters; a bad filter comes back as a 400 naming it. */
-export function useAuditSearch(orgId: Ref<number>, filters: Ref<AuditFilters>, page: Ref<number>) {
-  return useFetch<{ page: number; pageSize: number; total: number; entries: AuditEntry[] }>(() => `/api/orgs/${orgId.value}/audit`, {
-    key: computed(() => `audit-${orgId.value}-${JSON.stringify(filters.value)}-${page.value}`),
-    query: computed(() => auditQuery(filters.value, page.value)),
-  })
-}
-
-/** Action prefixes offered in the filter (a prefix ends in a dot and matches every action under it). */
-export const AUDIT_ACTION_HINTS = [
-  'member.', 'invitation.', 'site-grant.', 'review.', 'comment.', 'summary-link.', 'site.', 'option.', 'assessment.', 'attachment.', 'flow-record.', 'organisation.',
-] as const
-
-/** Target types offered in the filter. */
-export const AUDIT_TARGET_HINTS = ['site', 'option', 'assessment', 'attachment', 'user', 'organisation', 'invitation', 'summary_link'] as const
-
-/** One line of an entry's details: a field, and its value before and after where the entry has both. */
-export interface AuditDetailRow {
-  key: string
-  before?: string
-  after?: string
-  value?: string
-}
-
-const show = (v: unknown): string => {
-  if (v === null || v === undefined) return '—'
-  if (typeof v === 'string') return v
-  if (typeof v === 'number' || typeof v === 'boolean') return String(v)
-  if (Array.isArray(v)) return v.map(show).join(', ')
-  return JSON.stringify(v)
-}
-const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v)
-
-/**
- * An entry's details as rows. `{ before: {...}, after: {...} }` gives one row per field that either
- * side holds (a creation, `before: null`, just lists the new values); `{ from, to }` gives one
- * "change" row; other fields are shown as they are.
- */
-export function auditDetailRows(detail: Record<string, unknown> | null): AuditDetailRow[] {
-  if (!detail) return []
-  const rows: AuditDetailRow[] = []
-  const { before, after, from, to, ...rest } = detail
-  if (before === null && isRecord(after)) {
-    // A creation: nothing came before, so the new values are simply listed.
-    for (const [key, v] of Object.entries(after)) rows.push({ key, value: show(v) })
-  } else if (before !== undefined || after !== undefined) {
-    if (isRecord(before) || isRecord(after)) {
-      const b = isRecord(before) ? before : {}
-      const a = isRecord(after) ? after : {}
-      for (const key of [...new Set([...Object.keys(b), ...Object.keys(a)])]) rows.push({ key, before: show(b[key]), after: show(a[key]) })
-    } else rows.push({ key: 'value', before: show(before), after: show(after) })
-  }
-  if (from !== undefined || to !== undefined) rows.push({ key: 'change', before: show(from), after: show(to) })
-  for (const [key, v] of Object.entries(rest)) rows.push({ key, value: show(v) })
-  return rows
 }

@@ -1,17 +1,5 @@
 import type { z, ZodType } from 'zod'
-
-interface ServerIssue {
-  path: string
-  message: string
-}
-
-/** Pulls per-field issues out of a failed $fetch; falls back to the error's message. */
-export function issuesFromError(error: unknown): { fields: Record<string, string>; message: string } {
-  const body = (error as { data?: { message?: string; data?: { issues?: ServerIssue[] } } })?.data
-  const fields: Record<string, string> = {}
-  for (const issue of body?.data?.issues ?? []) fields[issue.path] ??= issue.message
-  return { fields, message: body?.message ?? (error instanceof Error ? error.message : 'Something went wrong') }
-}
+import { issuesFromError } from '../utils/serverErrors'
 
 /**
  * Form state checked by the same zod schema the server uses: `check()` fills per-field errors

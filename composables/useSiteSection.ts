@@ -1,8 +1,10 @@
 // One editable section of the site page (overview, months): its form, saving with the version
 // last read, and the 409 a stale version gets when someone else saved first.
 import type { SiteDto, SitePatch } from '~~/shared/schemas/site'
-import { draftFromSite, useSiteForm, type SiteForm } from './useSiteForm'
-import { isConflict, patchSite } from './useSites'
+import { isConflict } from '../utils/serverErrors'
+import { draftFromSite } from '../utils/siteDraft'
+import { patchSite } from './useSite'
+import { type SiteForm, useSiteForm } from './useSiteForm'
 
 /**
  * Form state for a section of `site`. `build` checks the section's fields into a PATCH; a save

@@ -11,7 +11,7 @@
 // Every other error is handled as before: during the first render by Nuxt's own handler (which shows
 // the error page), afterwards logged to the console, as Vue does when an app sets no handler.
 import type { ComponentPublicInstance } from 'vue'
-import { mapJustTornDown } from '~/composables/mapTeardown'
+import { mapJustTornDown } from '~/utils/mapTeardown'
 
 /** Names of the vue-leaflet layer components (LMarker, LIcon, LPolyline, LControlScale …; LMap has none). */
 const LEAFLET_COMPONENT = /^L[A-Z][A-Za-z]+$/

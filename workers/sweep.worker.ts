@@ -1,7 +1,7 @@
 // Web Worker of the sweep page: runs the engine's sweep one grid point at a time so the page can show
 // progress per point. Pure shared/engine code; the page picks the best safe point from the points.
 import { sweep } from '../shared/engine/sweep'
-import type { SweepWorkerMessage, SweepWorkerRequest } from '../composables/useSweep'
+import type { SweepWorkerMessage, SweepWorkerRequest } from '../utils/sweep'
 
 const post = (m: SweepWorkerMessage) => (self as unknown as { postMessage: (m: SweepWorkerMessage) => void }).postMessage(m)
 

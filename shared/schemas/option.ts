@@ -288,3 +288,34 @@ export interface CompareItem {
 export interface CompareDto {
   items: CompareItem[]
 }
+
+// ——— an organisation's options, grouped by site (the comparison's picker) ———
+
+/** Most sites one page of GET /api/orgs/[orgId]/options holds. */
+export const ORG_OPTIONS_MAX_SITES = 200
+
+/** Query of GET /api/orgs/[orgId]/options: pages of live sites, by name. */
+export const OrgOptionsQuerySchema = z.object({
+  page: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more')).default(1),
+  pageSize: fromDigits(
+    z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(ORG_OPTIONS_MAX_SITES, `must be ${ORG_OPTIONS_MAX_SITES} or less`),
+  ).default(ORG_OPTIONS_MAX_SITES),
+})
+export type OrgOptionsQuery = z.infer<typeof OrgOptionsQuerySchema>
+
+/** One live site of the organisation with its live options (oldest first). */
+export interface SiteOptions {
+  siteId: number
+  siteName: string
+  riverName: string
+  options: OptionDto[]
+}
+
+/** GET /api/orgs/[orgId]/options: one page of live sites by name, each with its live options. */
+export interface OrgOptionsDto {
+  page: number
+  pageSize: number
+  /** Live sites of the organisation in all. */
+  total: number
+  sites: SiteOptions[]
+}

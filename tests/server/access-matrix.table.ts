@@ -98,6 +98,7 @@ export const ACCESS_TABLE: Record<string, Row> = {
   'POST /api/orgs/:orgId/invitations': ORG_ADMIN,
   'GET /api/orgs/:orgId/summary-links': ORG_ADMIN,
   'GET /api/orgs/:orgId/portfolio': ORG_READERS,
+  'GET /api/orgs/:orgId/options': ORG_READERS,
   'GET /api/orgs/:orgId/sites': ORG_READERS,
   'POST /api/orgs/:orgId/sites': ORG_WRITERS,
   'GET /api/orgs/:orgId/sites/map': ORG_READERS,

@@ -237,6 +237,7 @@ const RECIPES: Record<string, Recipe> = {
   'GET /api/orgs/:orgId/invitations': {},
   'GET /api/orgs/:orgId/summary-links': {},
   'GET /api/orgs/:orgId/portfolio': {},
+  'GET /api/orgs/:orgId/options': {},
   'GET /api/orgs/:orgId/sites': {},
   'GET /api/orgs/:orgId/sites/map': {},
   'GET /api/sites/:id': {},

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { calendarTicks, dayToMs, downsampleMinMax, fdcSeries, formatFlow, msToDay, type XY } from '../../../composables/useChartData'
+import { calendarTicks, dayToMs, downsampleMinMax, fdcSeries, formatFlow, msToDay, type XY } from '../../../utils/chartData'
 
 describe('downsampleMinMax', () => {
   const century: XY[] = Array.from({ length: 36_525 }, (_, i) => ({ x: i, y: 2 + Math.sin(i / 30) }))

@@ -1,6 +1,6 @@
 import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
-import { csvCell, csvFileName, csvText } from '../../../composables/useCsvDownload'
+import { csvCell, csvFileName, csvText } from '../../../utils/csv'
 
 describe('csvText', () => {
   it('writes the header with units, one CRLF line per row, gaps as empty cells', () => {

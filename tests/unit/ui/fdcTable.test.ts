@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { blankRow, checkFdcRows, parseTypedNumber, rowErrorsFromIssues, rowsFromPoints, sortRows, type FdcRow } from '../../../composables/useFdcTable'
+import { blankRow, checkFdcRows, type FdcRow, fdcRowErrorsFromIssues, rowsFromPoints, sortRows } from '../../../utils/fdcTable'
+import { parseTypedNumber } from '../../../utils/numberTable'
 import { FdcPointsSchema } from '../../../shared/schemas/site'
 
 const rows = (...pairs: [string, string][]): FdcRow[] => pairs.map(([exceedance, flow], i) => ({ key: i + 1, exceedance, flow }))
@@ -87,7 +88,7 @@ describe('row helpers', () => {
   })
 
   it('maps server issues on fdcPoints.N.cell onto rows and the rest onto the table', () => {
-    const out = rowErrorsFromIssues({ 'fdcPoints.1.flow': 'flow must not rise', fdcPoints: 'an FDC needs at least 3 points', name: 'ignored', 'fdcPoints.9.flow': 'beyond' }, 3)
+    const out = fdcRowErrorsFromIssues({ 'fdcPoints.1.flow': 'flow must not rise', fdcPoints: 'an FDC needs at least 3 points', name: 'ignored', 'fdcPoints.9.flow': 'beyond' }, 3)
     expect(out.rowErrors).toEqual([{}, { flow: 'flow must not rise' }, {}])
     expect(out.tableError).toBe('an FDC needs at least 3 points')
   })

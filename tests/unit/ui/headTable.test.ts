@@ -1,15 +1,6 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import {
-  HEAD_TABLE_MAX_ROWS,
-  blankHeadRow,
-  checkHeadRows,
-  headRowErrorsFromIssues,
-  headRowsFrom,
-  headTableText,
-  sortHeadRows,
-  type HeadTableRow,
-} from '../../../composables/useHeadTable'
+import { blankHeadRow, checkHeadRows, HEAD_TABLE_MAX_ROWS, headRowErrorsFromIssues, headRowsFrom, type HeadTableRow, headTableText, sortHeadRows } from '../../../utils/headTable'
 import { HeadTableSchema } from '../../../shared/schemas/site'
 
 const rows = (...pairs: [string, string][]): HeadTableRow[] => pairs.map(([flow, head], i) => ({ key: i + 1, flow, head }))

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { ref } from 'vue'
-import { blankHeadRow } from '../../../composables/useHeadTable'
 import { useHeadTableDraft } from '../../../composables/useHeadTableDraft'
+import { blankHeadRow } from '../../../utils/headTable'
 
 describe('useHeadTableDraft', () => {
   it('starts from the stored table, clean and without messages', () => {

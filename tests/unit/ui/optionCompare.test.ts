@@ -1,7 +1,7 @@
 // The comparison table's rows (best value per row, differences) and its CSV rows.
 import { describe, expect, it } from 'vitest'
 import { OptionInputSchema, type AssessmentDto, type CompareItem } from '../../../shared/schemas/option'
-import { compareCsvRows, compareRows } from '../../../composables/useOptions'
+import { compareCsvRows, compareRows } from '../../../utils/compare'
 
 function item(id: number, units: number, figures: Partial<AssessmentDto> | null): CompareItem {
   const o = OptionInputSchema.parse({ name: `Option ${id}`, design: { units, throatDiameter_m: 0.5, outletDiameter_m: 1, throatDepth_m: 2, air: { pipeDiameter_m: 0.4, pipeLength_m: 8 } } })

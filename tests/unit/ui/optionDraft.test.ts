@@ -2,9 +2,7 @@
 import { describe, expect, it } from 'vitest'
 import { DEFAULTS, DIFFUSER_EFFICIENCY } from '../../../shared/engine/defaults'
 import { OptionInputSchema } from '../../../shared/schemas/option'
-import {
-  blankOptionDraft, bodyFromDraft, checkOptionDraft, draftFromOption, OPTION_FIELDS, OPTION_GROUPS, sameDraft, starterDraft,
-} from '../../../composables/useOptions'
+import { blankOptionDraft, bodyFromDraft, checkOptionDraft, draftFromOption, OPTION_FIELDS, OPTION_GROUPS, sameDraft, starterDraft } from '../../../utils/optionFields'
 
 describe('option field catalogue', () => {
   it('gives every field a unit, a known group and (unless required or blank-means) a default with a source', () => {

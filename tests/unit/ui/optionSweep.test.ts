@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest'
 import { sweep } from '../../../shared/engine/sweep'
 import { SweepGridSchema } from '../../../shared/schemas/assess'
-import { bestSafePoint, gridFromRanges, rangeValues, rangesAround, unitValues, type SweepRanges } from '../../../composables/useSweep'
+import { bestSafePoint, gridFromRanges, rangesAround, rangeValues, type SweepRanges, unitValues } from '../../../utils/sweep'
 import { draft, parse } from '../engine/fixtures'
 
 const ranges = (over: Partial<SweepRanges> = {}): SweepRanges => ({

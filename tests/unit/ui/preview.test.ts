@@ -7,11 +7,8 @@ import type { SiteRow } from '../../../db/schema'
 import { DEMO_OPTIONS, DEMO_SITES, demoDailyFlows } from '../../../db/demo-scenario'
 import { OptionInputSchema } from '../../../shared/schemas/option'
 import type { SiteInput } from '../../../shared/schemas/site'
-import {
-  assembleInput, computePreview, createPreviewRunner, previewSiteFrom, PREVIEW_DELAY_MS, PreviewInputError,
-  type PreviewSite, type PreviewState,
-} from '../../../composables/useLivePreview'
-import { draftFromOption, starterDraft, type OptionDraft } from '../../../composables/useOptions'
+import { draftFromOption, type OptionDraft, starterDraft } from '../../../utils/optionFields'
+import { assembleInput, computePreview, createPreviewRunner, PREVIEW_DELAY_MS, PreviewInputError, type PreviewSite, previewSiteFrom, type PreviewState } from '../../../utils/preview'
 import type { AssessResult } from '../../../shared/engine/assess'
 
 const demoSite = (name: string): SiteInput => DEMO_SITES.find((s) => s.site.name === name)!.site

@@ -1,19 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { ref } from 'vue'
-import {
-  addVertex,
-  boundsOf,
-  distanceMetres,
-  fromLineString,
-  moveVertex,
-  normalisePoint,
-  reachLengthMetres,
-  removeVertex,
-  toLineString,
-  undoLastVertex,
-  useReachEditor,
-  type ReachLineString,
-} from '../../../composables/useReachEditor'
+import { useReachEditor } from '../../../composables/useReachEditor'
+import { addVertex, boundsOf, distanceMetres, fromLineString, moveVertex, normalisePoint, reachLengthMetres, type ReachLineString, removeVertex, toLineString, undoLastVertex } from '../../../utils/reach'
 import { ReachSchema } from '../../../shared/schemas/site'
 
 const A = { lat: 54.5, lng: -2.6 }

@@ -1,10 +1,10 @@
-// Pure helpers of administration (composables/useOutbox.ts, composables/useInvitations.ts): the
+// Pure helpers of administration (utils/audit.ts, utils/invitations.ts): the
 // audit filter query, the before/after rows of an entry, and the words for a closed invitation.
 import { describe, expect, it } from 'vitest'
 import { AuditQuerySchema } from '../../../shared/schemas/admin'
 import { InvitationInputSchema } from '../../../shared/schemas/invitation'
-import { EMPTY_AUDIT_FILTERS, auditDetailRows, auditQuery } from '../../../composables/useOutbox'
-import { afterAcceptPath, closedInvitation } from '../../../composables/useInvitations'
+import { auditDetailRows, auditQuery, EMPTY_AUDIT_FILTERS } from '../../../utils/audit'
+import { afterAcceptPath, closedInvitation } from '../../../utils/invitations'
 
 describe('audit filter query', () => {
   it('leaves blank filters out and trims text', () => {

@@ -1,10 +1,10 @@
-// Pure helpers of the review comment thread (composables/useComments.ts): the body the form sends,
+// Pure helpers of the review comment thread (utils/comments.ts): the body the form sends,
 // the tags of what a comment points at, and the @mention parts set apart when shown, checked against
 // the server's own mention finder (server/domain/review.ts) so the two agree on what is a mention.
 import { describe, expect, it } from 'vitest'
 import { CommentInputSchema } from '../../../shared/schemas/review'
 import { findMentions } from '../../../server/domain/review'
-import { commentBody, commentTags, mentionBeingTyped, splitMentions } from '../../../composables/useComments'
+import { commentBody, commentTags, mentionBeingTyped, splitMentions } from '../../../utils/comments'
 
 describe('the comment body', () => {
   it('leaves blank selects out, so the schema sees only what was chosen', () => {

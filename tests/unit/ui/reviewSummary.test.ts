@@ -1,9 +1,10 @@
-// Pure helpers of the landowner summary and the summary links (composables/useSummaryLinks.ts):
+// Pure helpers of the landowner summary and the summary links (utils/summary.ts):
 // the plain-language sentences, the homes figure's rounding and the link's days left.
 import { describe, expect, it } from 'vitest'
 import { SummaryLinkInputSchema } from '../../../shared/schemas/summaryLink'
-import type { OxygenRow } from '../../../composables/useReview'
-import { daysLeft, formatDay, listInWords, monthInWords, riverInWords, roundHomes } from '../../../composables/useSummaryLinks'
+import { formatDay } from '../../../utils/format'
+import type { OxygenRow } from '../../../utils/review'
+import { daysLeft, listInWords, monthInWords, riverInWords, roundHomes } from '../../../utils/summary'
 
 const row = (name: string, without: number, withScheme: number, target = 7): OxygenRow => ({ month: 1, name, without, with: withScheme, target })
 

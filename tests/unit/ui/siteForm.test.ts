@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { SiteInputSchema, type SiteDto } from '../../../shared/schemas/site'
-import { blankSiteDraft, draftFromSite, issuesByPath, monthsFromDraft, overviewFromDraft, useSiteForm } from '../../../composables/useSiteForm'
+import { useSiteForm } from '../../../composables/useSiteForm'
+import { blankSiteDraft, draftFromSite, issuesByPath, monthsFromDraft, overviewFromDraft } from '../../../utils/siteDraft'
 
 function filledDraft() {
   const d = blankSiteDraft()

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { uploadOutcomeFromError } from '../../../composables/useHydrology'
-import { UploadError } from '../../../composables/useUpload'
+import { uploadOutcomeFromError } from '../../../utils/flowUpload'
+import { UploadError } from '../../../utils/upload'
 
 describe('uploadOutcomeFromError', () => {
   it('shows per-line errors from a 422', () => {

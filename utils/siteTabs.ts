@@ -1,5 +1,4 @@
 // The sections of the site page and which one the address asks for.
-
 /** A section of the site page. */
 export type SiteTab = 'overview' | 'hydrology' | 'months' | 'options' | 'review' | 'sharing' | 'attachments'
 

@@ -1,5 +1,4 @@
 // Pure helpers that shape hydrology data for the charts (no Chart.js here, so they unit-test in node).
-
 /** One point of a chart series; y null leaves a gap. */
 export interface XY {
   x: number

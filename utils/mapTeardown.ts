@@ -1,6 +1,4 @@
-// When a map frame was last torn down, for plugins/leafletTeardown.client.ts. Kept apart from
-// useLeafletReady.ts so the plugin, which every page loads, does not pull in that file's dynamic
-// imports of Leaflet (the browser would fetch Leaflet ahead on pages without a map).
+// When a Leaflet map was last torn down, so a map mounted right after (a page change) can wait for it.
 let lastTeardown = Number.NEGATIVE_INFINITY
 
 /** Notes that a map frame is being torn down now. */

@@ -1,7 +1,6 @@
 // Table editors of typed numbers (the FDC points, the head-vs-flow table), kept pure so they can be
 // unit-tested: rows are edited as text, each cell checked against a rule with its unit, rows sorted
-// by a column, and the server's per-row issues mapped back onto the cells. The FDC's own rules follow.
-
+// by a column, and the server's per-row issues mapped back onto the cells.
 /** One editable row of a table whose columns are `C`; the texts are what the user typed. */
 export type TableRow<C extends string> = { key: number } & Record<C, string>
 
@@ -31,6 +30,7 @@ export interface CellRule {
 }
 
 let nextKey = 1
+
 /** A fresh key for a new row. */
 export function newRowKey(): number {
   return nextKey++
@@ -93,14 +93,14 @@ export function cellError(value: number | null, rule: CellRule): string | undefi
 }
 
 /**
- * Server issues such as `fdcPoints.2.flow` mapped onto row errors for `columns`; anything else under
+ * Server issues such as `fdcPoints.2.flow` (prefix `fdcPoints`) mapped onto row errors for `columns`; anything else under
  * `prefix` (e.g. `fdcPoints` itself) comes back as the table message.
  */
-export function rowErrorsFromIssues<C extends string = FdcColumn>(
+export function rowErrorsFromIssues<C extends string>(
   fields: Record<string, string>,
   rowCount: number,
-  prefix = 'fdcPoints',
-  columns: readonly C[] = FDC_COLUMNS as unknown as readonly C[],
+  prefix: string,
+  columns: readonly C[],
 ): { rowErrors: TableRowErrors<C>[]; tableError: string } {
   const rowErrors: TableRowErrors<C>[] = Array.from({ length: rowCount }, () => ({}))
   let tableError = ''
@@ -112,94 +112,4 @@ export function rowErrorsFromIssues<C extends string = FdcColumn>(
     else tableError ||= message
   }
   return { rowErrors, tableError }
-}
-
-// ——— the entered flow-duration curve ———
-
-/** One FDC point as the API stores it: flow equalled or exceeded `exceedance` % of the time. */
-export interface FdcPointValue {
-  /** Exceedance, % of time, 0–100. */
-  exceedance: number
-  /** Flow, m³/s, 0 or more. */
-  flow: number
-}
-
-export const FDC_COLUMNS = ['exceedance', 'flow'] as const
-export type FdcColumn = (typeof FDC_COLUMNS)[number]
-/** One editable FDC row. */
-export type FdcRow = TableRow<FdcColumn>
-/** Messages for one FDC row's cells. */
-export type FdcRowError = TableRowErrors<FdcColumn>
-
-/** The outcome of checking the table. */
-export interface FdcCheck {
-  /** One entry per row, same order as the rows. */
-  rowErrors: FdcRowError[]
-  /** A message about the table as a whole (too few points), or ''. */
-  tableError: string
-  /** The points ready to send, or null while any error stands. */
-  points: FdcPointValue[] | null
-}
-
-/** Fewest points an FDC may have. */
-export const FDC_MIN_POINTS = 3
-
-const EXCEEDANCE_RULE: CellRule = { name: 'exceedance', unit: '%', min: 0, max: 100 }
-const FDC_FLOW_RULE: CellRule = { name: 'flow', unit: 'm³/s', min: 0 }
-
-/** Editable rows for stored points. */
-export function rowsFromPoints(points: readonly FdcPointValue[] | null | undefined): FdcRow[] {
-  return rowsFromValues(points, FDC_COLUMNS)
-}
-
-/** A blank FDC row. */
-export function blankRow(): FdcRow {
-  return blankRowOf(FDC_COLUMNS)
-}
-
-/** Rows in order of rising exceedance; rows whose exceedance is blank or not a number go last, in their order. */
-export function sortRows(rows: readonly FdcRow[]): FdcRow[] {
-  return sortRowsBy(rows, 'exceedance')
-}
-
-/**
- * Checks every row: exceedance 0–100 %, flow 0 or more m³/s, exceedance rising without repeats,
- * flow not rising as exceedance rises, and at least three points (or none, with `allowEmpty`:
- * saving an empty table removes the entered curve).
- */
-export function checkFdcRows(rows: readonly FdcRow[], options: { allowEmpty?: boolean } = {}): FdcCheck {
-  const parsed = rows.map((r) => ({ exceedance: parseTypedNumber(r.exceedance), flow: parseTypedNumber(r.flow) }))
-  const rowErrors: FdcRowError[] = parsed.map((p) => {
-    const e: FdcRowError = {}
-    const exceedance = cellError(p.exceedance, EXCEEDANCE_RULE)
-    const flow = cellError(p.flow, FDC_FLOW_RULE)
-    if (exceedance) e.exceedance = exceedance
-    if (flow) e.flow = flow
-    return e
-  })
-
-  // Order checks compare each row with the nearest earlier row whose cell is itself valid.
-  let prevExceedance: number | null = null
-  let prevFlow: number | null = null
-  parsed.forEach((p, i) => {
-    const e = rowErrors[i]!
-    if (!e.exceedance && p.exceedance !== null) {
-      if (prevExceedance !== null && p.exceedance <= prevExceedance) {
-        e.exceedance = p.exceedance === prevExceedance ? 'This exceedance is repeated' : 'Exceedance must rise down the table (sort the rows)'
-      } else prevExceedance = p.exceedance
-    }
-    if (!e.flow && p.flow !== null) {
-      if (prevFlow !== null && p.flow > prevFlow) e.flow = 'Flow must not rise as exceedance rises'
-      else prevFlow = p.flow
-    }
-  })
-
-  const tooFew = rows.length < FDC_MIN_POINTS && !(options.allowEmpty && rows.length === 0)
-  const tableError = tooFew ? `An FDC needs at least ${FDC_MIN_POINTS} points; this table has ${rows.length}.` : ''
-  const clean = !tableError && rowErrors.every((e) => !e.exceedance && !e.flow)
-  return {
-    rowErrors,
-    tableError,
-    points: clean ? parsed.map((p) => ({ exceedance: p.exceedance as number, flow: p.flow as number })) : null,
-  }
 }

@@ -1,21 +1,9 @@
-// Design options: the typed fetch wrappers over the option routes, and the option form's field
-// catalogue (label, unit, default and where the default comes from) with the draft ⇄ body mapping.
+// The option form's field catalogue (label, unit, default and where the default comes from) and the
+// draft the form holds, with the draft ⇄ body mapping checked by the server's own schema.
 // Shapes come from shared/schemas/option.ts, written once; defaults from shared/engine/defaults.ts.
 import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type ConstrictionType, type SourcedValue } from '~~/shared/engine/defaults'
 import { MONEY_DEFAULTS } from '~~/shared/engine/money'
-import { computed, reactive, ref, shallowRef, type Ref } from 'vue'
-import { issuesFromError } from './useSchemaForm'
-import {
-  OptionInputSchema,
-  type CompareDto,
-  type CompareItem,
-  type OptionDto,
-  type OptionInput,
-  type OptionListDto,
-  type OptionPatch,
-  type PortfolioDto,
-  type SweepSave,
-} from '~~/shared/schemas/option'
+import { OptionInputSchema, type OptionDto, type OptionInput } from '~~/shared/schemas/option'
 
 // ——— the field catalogue ———
 
@@ -28,6 +16,7 @@ export const OPTION_GROUPS = [
   { id: 'money', title: 'Costs and money', note: 'All money defaults are illustrative: replace them with the project\'s own figures.' },
   { id: 'settings', title: 'Engine settings', note: 'Safety limits, oxygen transfer and availability used by this option\'s assessments. The downstream oxygen target is the site\'s own.' },
 ] as const
+
 export type OptionGroupId = (typeof OPTION_GROUPS)[number]['id']
 
 /** A choice of a select field. */
@@ -62,9 +51,12 @@ const CONSTRICTIONS: readonly FieldChoice[] = [
   { value: 'short-nozzle', label: 'Short nozzle' },
   { value: 'sharp-plate', label: 'Sharp-edged plate' },
 ]
+
 const fixed = (d: SourcedValue) => () => d
+
 const byConstriction = (table: Readonly<Record<ConstrictionType, SourcedValue>>) => (draft: OptionDraft) =>
   table[(draft.values['design.constriction'] as ConstrictionType | undefined) ?? 'venturi'] ?? table.venturi
+
 const PERCENT_NOTE = 'a fraction: 0.95 means 95 %'
 
 /** Every field of the option form, in order within its group. */
@@ -213,220 +205,4 @@ export function starterDraft(name: string): OptionDraft {
     'design.air.pipeDiameter_m': 0.4, 'design.air.pipeLength_m': 8,
   })
   return d
-}
-
-// ——— fetch wrappers ———
-
-/** A site's live options, each with its newest assessment. */
-export function useSiteOptions(siteId: Ref<number>) {
-  return useFetch<OptionListDto>(() => `/api/sites/${siteId.value}/options`, { key: computed(() => `options-${siteId.value}`) })
-}
-
-/** One option. */
-export function useOption(id: Ref<number>) {
-  return useFetch<OptionDto>(() => `/api/options/${id.value}`, { key: computed(() => `option-${id.value}`) })
-}
-
-/** Creates an option at a site; answers the stored option. */
-export function createOption(siteId: number, input: OptionInput): Promise<OptionDto> {
-  return $fetch<OptionDto>(`/api/sites/${siteId}/options`, { method: 'POST', body: input })
-}
-
-/** Changes the fields given; `version` must be the one last read (a stale one answers 409). */
-export function patchOption(id: number, patch: OptionPatch): Promise<OptionDto> {
-  return $fetch<OptionDto>(`/api/options/${id}`, { method: 'PATCH', body: patch })
-}
-
-/** Deletes the option. */
-export function deleteOption(id: number): Promise<{ id: number; deletedAt: string }> {
-  return $fetch<{ id: number; deletedAt: string }>(`/api/options/${id}`, { method: 'DELETE' })
-}
-
-/** Saves one sweep point as a new option at the same site. */
-export function saveSweepPoint(optionId: number, body: SweepSave): Promise<OptionDto> {
-  return $fetch<OptionDto>(`/api/options/${optionId}/sweep/save`, { method: 'POST', body })
-}
-
-// ——— the editor's state ———
-
-/** HTTP status of a failed $fetch, or 0. */
-export function httpStatus(error: unknown): number {
-  const e = error as { statusCode?: unknown; status?: unknown; response?: { status?: unknown } } | null
-  const code = e?.statusCode ?? e?.status ?? e?.response?.status
-  return typeof code === 'number' ? code : 0
-}
-
-/**
- * The option form's state: the draft the fields show, per-field errors from the shared schema (or
- * the server's 4xx), saving a new option or a change with the version last read (409 → `conflict`).
- */
-export function useOptionEditor(initial: OptionDraft) {
-  const draft = reactive<OptionDraft>(structuredClone(initial))
-  const baseline = shallowRef<OptionDraft>(structuredClone(initial))
-  const errors = ref<Record<string, string>>({})
-  const formError = ref('')
-  const busy = ref(false)
-  const conflict = ref(false)
-  const saved = ref(false)
-  const dirty = computed(() => !sameDraft(draft, baseline.value))
-
-  function set(path: string, value: DraftValue) {
-    draft.values[path] = value
-    saved.value = false
-    if (errors.value[path]) {
-      const { [path]: _gone, ...rest } = errors.value
-      errors.value = rest
-    }
-  }
-  function setText(key: 'name' | 'notes', value: string) {
-    draft[key] = value
-    saved.value = false
-    if (key === 'name' && errors.value['name']) {
-      const { name: _gone, ...rest } = errors.value
-      errors.value = rest
-    }
-  }
-  function reset(next: OptionDraft) {
-    draft.name = next.name
-    draft.notes = next.notes
-    draft.values = { ...next.values }
-    baseline.value = structuredClone(next)
-    errors.value = {}
-    formError.value = ''
-    conflict.value = false
-  }
-  function check(): OptionInput | null {
-    const { input, errors: found } = checkOptionDraft(draft)
-    errors.value = found
-    formError.value = input ? '' : `Check the ${Object.keys(found).length === 1 ? 'marked field' : `${Object.keys(found).length} marked fields`}.`
-    return input
-  }
-  function fail(error: unknown) {
-    if (httpStatus(error) === 409) {
-      conflict.value = true
-      return
-    }
-    const { fields, message } = issuesFromError(error)
-    errors.value = fields
-    formError.value = Object.keys(fields).length ? `Check the marked fields: ${message}` : message
-  }
-  /** Checks, then sends; answers the stored option, or null when the check or the server refused. */
-  async function send(write: (input: OptionInput) => Promise<OptionDto>): Promise<OptionDto | null> {
-    saved.value = false
-    const input = check()
-    if (!input) return null
-    busy.value = true
-    try {
-      const stored = await write(input)
-      reset(draftFromOption(stored))
-      saved.value = true
-      return stored
-    } catch (error) {
-      fail(error)
-      return null
-    } finally {
-      busy.value = false
-    }
-  }
-  const saveNew = (siteId: number) => send((input) => createOption(siteId, input))
-  const saveChanges = (option: Pick<OptionDto, 'id' | 'version'>) =>
-    send((input) => patchOption(option.id, { ...input, version: option.version }))
-
-  return { draft, errors, formError, busy, conflict, saved, dirty, set, setText, reset, check, fail, saveNew, saveChanges }
-}
-
-/** The option form's state, as the form components take it. */
-export type OptionEditor = ReturnType<typeof useOptionEditor>
-
-// ——— comparison ———
-
-/** One row of the comparison table: a label with its unit, one cell per option, and which is best. */
-export interface CompareRow {
-  key: string
-  label: string
-  unit: string
-  section: 'design' | 'figures'
-  cells: (string | number | null)[]
-  /** Indexes of the best cells (ties all marked); empty when the row has no better or worse. */
-  best: number[]
-  /** True when the options do not all hold the same value. */
-  differs: boolean
-  /** Decimals to show numbers with. */
-  digits: number
-}
-
-const CONSTRICTION_LABEL: Record<string, string> = { 'venturi': 'venturi', 'short-nozzle': 'short nozzle', 'sharp-plate': 'sharp-edged plate' }
-const round = (x: number | null | undefined, d: number) => (x === null || x === undefined || !Number.isFinite(x) ? null : Math.round(x * 10 ** d) / 10 ** d)
-
-/** The comparison's rows: the design, then the newest assessment's headline figures, best per row marked. */
-export function compareRows(items: readonly CompareItem[]): CompareRow[] {
-  const row = (key: string, label: string, unit: string, section: CompareRow['section'], cells: (string | number | null)[], digits = 0, better?: 'high' | 'low'): CompareRow => {
-    const nums = cells.map((c) => (typeof c === 'number' ? c : null))
-    const present = nums.filter((n): n is number => n !== null)
-    const target = better && present.length >= 2 ? (better === 'high' ? Math.max(...present) : Math.min(...present)) : null
-    const best = target === null || present.every((n) => n === target) ? [] : nums.flatMap((n, i) => (n === target ? [i] : []))
-    return { key, label, unit, section, cells, best, differs: new Set(cells.map((c) => String(c))).size > 1, digits }
-  }
-  const a = items.map((i) => i.latestAssessment)
-  return [
-    row('site', 'Site', '', 'design', items.map((i) => `${i.site.name} (${i.site.riverName})`)),
-    row('head', 'Gross head', 'm', 'design', items.map((i) => i.site.grossHeadM), 2),
-    row('units', 'Units', 'units', 'design', items.map((i) => i.option.design.units)),
-    row('constriction', 'Constriction', '', 'design', items.map((i) => CONSTRICTION_LABEL[i.option.design.constriction] ?? i.option.design.constriction)),
-    row('throat', 'Throat diameter', 'm', 'design', items.map((i) => i.option.design.throatDiameter_m), 2),
-    row('outlet', 'Outlet diameter', 'm', 'design', items.map((i) => i.option.design.outletDiameter_m), 2),
-    row('depth', 'Throat submergence', 'm', 'design', items.map((i) => i.option.design.throatDepth_m), 2),
-    row('pipe', 'Air pipe diameter', 'm', 'design', items.map((i) => i.option.design.air.pipeDiameter_m), 2),
-    row('pipeLength', 'Air pipe length', 'm', 'design', items.map((i) => i.option.design.air.pipeLength_m), 1),
-    row('ratedEntered', 'Rated power per unit as entered', 'kW', 'design', items.map((i) => i.option.design.turbine.ratedPower_kW ?? 'sized to design'), 1),
-    row('energy', 'Annual energy', 'MWh/yr', 'figures', a.map((x) => round(x?.annualEnergyMWh, 1)), 1, 'high'),
-    row('cf', 'Capacity factor', '%', 'figures', a.map((x) => round(x ? x.capacityFactor * 100 : null, 1)), 1, 'high'),
-    row('rated', 'Rated power (all units)', 'kW', 'figures', a.map((x) => round(x?.ratedPowerKw, 1)), 1),
-    row('margin', 'Least cavitation margin', 'm', 'figures', a.map((x) => (x ? (x.minCavitationMarginM === null ? 'never runs' : round(x.minCavitationMarginM, 2)) : null)), 2, 'high'),
-    row('oxygen', 'Net O₂ gain, summer low flow', 'mg/L', 'figures', a.map((x) => round(x?.netOxygenGainSlfMgL, 2)), 2, 'high'),
-    row('lcoe', 'LCOE', 'currency/MWh', 'figures', a.map((x) => (x ? (x.lcoe === null ? 'no energy' : round(x.lcoe, 0)) : null)), 0, 'low'),
-    row('flags', 'Flags raised', 'flags', 'figures', a.map((x) => (x ? x.flagsRaised.length : null)), 0, 'low'),
-    row('engine', 'Engine version', '', 'figures', a.map((x) => (x ? `${x.engineVersion}${x.stale ? ' (older engine)' : ''}` : 'not assessed'))),
-  ]
-}
-
-/** The comparison as CSV rows: header of option names, then one row per figure with its unit. */
-export function compareCsvRows(items: readonly CompareItem[]): (string | number | null)[][] {
-  return [
-    ['Figure', 'Unit', ...items.map((i) => i.option.name)],
-    ...compareRows(items).map((r) => [r.label, r.unit || '-', ...r.cells]),
-  ]
-}
-
-/** The comparison of 2–6 options, in the order asked; null while fewer than 2 are picked. */
-export function useCompare(ids: Ref<number[]>) {
-  const fetcher = useRequestFetch()
-  return useAsyncData(
-    () => `compare-${ids.value.join(',')}`,
-    () => (ids.value.length >= 2 ? fetcher<CompareDto>('/api/compare', { query: { options: ids.value.join(',') } }) : Promise.resolve(null)),
-    { watch: [ids] },
-  )
-}
-
-/** One site of the organisation with its live options, for picking options to compare. */
-export interface SiteOptions {
-  siteId: number
-  siteName: string
-  riverName: string
-  options: OptionDto[]
-}
-
-/** Every live site of the organisation (up to 200) with its options. */
-export function useOrgOptions(orgId: Ref<number | null | undefined>) {
-  const fetcher = useRequestFetch()
-  return useAsyncData(
-    () => `org-options-${orgId.value}`,
-    async (): Promise<SiteOptions[]> => {
-      if (!orgId.value) return []
-      const p = await fetcher<PortfolioDto>(`/api/orgs/${orgId.value}/portfolio`, { query: { pageSize: 200 } })
-      const lists = await Promise.all(p.rows.map((r) => fetcher<OptionListDto>(`/api/sites/${r.siteId}/options`)))
-      return p.rows.map((r, i) => ({ siteId: r.siteId, siteName: r.name, riverName: r.riverName, options: lists[i]?.options ?? [] }))
-    },
-    { watch: [orgId] },
-  )
 }

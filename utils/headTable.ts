@@ -1,13 +1,16 @@
 // The head-vs-flow table of a site's weir: rows of river flow (m³/s) and gross head (m), edited as
-// text with the table helpers of useFdcTable.ts and checked as HeadTableSchema (shared/schemas/site.ts)
+// text with the table helpers of numberTable.ts and checked as HeadTableSchema (shared/schemas/site.ts)
 // will check them. Pure, so the unit tests can drive it.
 import { MAX_GROSS_HEAD_M, type HeadRow } from '~~/shared/schemas/site'
-import { blankRowOf, cellError, parseTypedNumber, rowErrorsFromIssues, rowsFromValues, rowsText, sortRowsBy, type CellRule, type TableRow, type TableRowErrors } from './useFdcTable'
+import { blankRowOf, cellError, type CellRule, parseTypedNumber, rowErrorsFromIssues, rowsFromValues, rowsText, sortRowsBy, type TableRow, type TableRowErrors } from './numberTable'
 
 export const HEAD_COLUMNS = ['flow', 'head'] as const
+
 export type HeadColumn = (typeof HEAD_COLUMNS)[number]
+
 /** One editable row of the head table. */
 export type HeadTableRow = TableRow<HeadColumn>
+
 /** Messages for one row's cells. */
 export type HeadRowError = TableRowErrors<HeadColumn>
 
@@ -15,6 +18,7 @@ export type HeadRowError = TableRowErrors<HeadColumn>
 export const HEAD_TABLE_MAX_ROWS = 50
 
 const FLOW_RULE: CellRule = { name: 'river flow', unit: 'm³/s', min: 0 }
+
 const HEAD_RULE: CellRule = { name: 'head', unit: 'm', min: 0, max: MAX_GROSS_HEAD_M }
 
 /** The outcome of checking the table. */

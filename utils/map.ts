@@ -1,9 +1,9 @@
-// Settings the map components share: the tile source from runtime config, the start view and
-// the colours of Gillwatt's own map symbols (the house palette, spelled out for Leaflet paths).
-import type { LatLng, ReachLineString } from './useReachEditor'
+// The maps' shared settings and shapes: where a map starts, its colours, what a map component exposes.
+import type { LatLng, ReachLineString } from './reach'
 
 /** Where a map with nothing on it starts, and at which zoom. */
 export const MAP_START = { center: [54.45, -2.6] as [number, number], zoom: 6 }
+
 /** Zoom used when fitting a single point. */
 export const MAP_POINT_ZOOM = 16
 
@@ -26,15 +26,6 @@ export interface MapHandle {
 /** The part of a Leaflet mouse event the maps read. */
 export interface MapPointerEvent {
   latlng: LatLng
-}
-
-/** The tile URL and credit from runtime config; `url` is '' when none is configured (no tile layer then). */
-export function useMapTiles() {
-  const config = useRuntimeConfig().public
-  return {
-    url: String(config.mapTilesUrl ?? '').trim(),
-    attribution: String(config.mapTilesAttribution ?? ''),
-  }
 }
 
 /** What the sites map needs to know of one site. */

@@ -1,6 +1,4 @@
-// CSV downloads of the tables on the site pages, made in the browser: papaparse writes the text
-// (header row with the units in each column name, e.g. `exceedance_pct,flow_m3s`), a Blob and a
-// temporary link hand it to the browser as a file.
+// CSV text built in the browser (quoted cells, a file name) and its download.
 import Papa from 'papaparse'
 
 /** One cell of a CSV row: null and non-finite numbers become empty cells. */
@@ -38,9 +36,4 @@ export function downloadCsv(fileName: string, columns: readonly string[], rows: 
   link.remove()
   // The browser has taken the file once the click is handled; free the memory after that.
   setTimeout(() => URL.revokeObjectURL(url), 1000)
-}
-
-/** The CSV download of tables, for components. */
-export function useCsvDownload() {
-  return { download: downloadCsv, fileName: csvFileName }
 }

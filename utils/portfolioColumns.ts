@@ -1,5 +1,6 @@
 // Columns of the portfolio's site table, typed on PortfolioRow (GET /api/orgs/[orgId]/portfolio).
 // The table takes a list of these, so a new headline figure needs no change to the page or table.
+import { formatUpTo } from './format'
 import type { PortfolioLatest, PortfolioRow, PortfolioSort } from '~~/shared/schemas/option'
 import { REVIEW_STATE_LABELS } from '~~/shared/schemas/review'
 
@@ -27,8 +28,7 @@ export interface PortfolioColumn {
 }
 
 /** Number with at most `digits` decimals, grouped, or a dash. */
-export const fixed = (v: number | null | undefined, digits: number) =>
-  v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: 0 })
+export const fixed = (v: number | null | undefined, digits: number) => formatUpTo(v, digits)
 
 /** A signed number ("+0.42", "−0.10", "0"). */
 export const signed = (v: number, digits: number) => (v > 0 ? `+${fixed(v, digits)}` : v < 0 ? `−${fixed(-v, digits)}` : '0')

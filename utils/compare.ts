@@ -1,0 +1,61 @@
+// The comparison table's rows (design, then headline figures, best per row marked) and its CSV.
+import { type CompareItem } from '~~/shared/schemas/option'
+
+/** One row of the comparison table: a label with its unit, one cell per option, and which is best. */
+export interface CompareRow {
+  key: string
+  label: string
+  unit: string
+  section: 'design' | 'figures'
+  cells: (string | number | null)[]
+  /** Indexes of the best cells (ties all marked); empty when the row has no better or worse. */
+  best: number[]
+  /** True when the options do not all hold the same value. */
+  differs: boolean
+  /** Decimals to show numbers with. */
+  digits: number
+}
+
+const CONSTRICTION_LABEL: Record<string, string> = { 'venturi': 'venturi', 'short-nozzle': 'short nozzle', 'sharp-plate': 'sharp-edged plate' }
+
+const round = (x: number | null | undefined, d: number) => (x === null || x === undefined || !Number.isFinite(x) ? null : Math.round(x * 10 ** d) / 10 ** d)
+
+/** The comparison's rows: the design, then the newest assessment's headline figures, best per row marked. */
+export function compareRows(items: readonly CompareItem[]): CompareRow[] {
+  const row = (key: string, label: string, unit: string, section: CompareRow['section'], cells: (string | number | null)[], digits = 0, better?: 'high' | 'low'): CompareRow => {
+    const nums = cells.map((c) => (typeof c === 'number' ? c : null))
+    const present = nums.filter((n): n is number => n !== null)
+    const target = better && present.length >= 2 ? (better === 'high' ? Math.max(...present) : Math.min(...present)) : null
+    const best = target === null || present.every((n) => n === target) ? [] : nums.flatMap((n, i) => (n === target ? [i] : []))
+    return { key, label, unit, section, cells, best, differs: new Set(cells.map((c) => String(c))).size > 1, digits }
+  }
+  const a = items.map((i) => i.latestAssessment)
+  return [
+    row('site', 'Site', '', 'design', items.map((i) => `${i.site.name} (${i.site.riverName})`)),
+    row('head', 'Gross head', 'm', 'design', items.map((i) => i.site.grossHeadM), 2),
+    row('units', 'Units', 'units', 'design', items.map((i) => i.option.design.units)),
+    row('constriction', 'Constriction', '', 'design', items.map((i) => CONSTRICTION_LABEL[i.option.design.constriction] ?? i.option.design.constriction)),
+    row('throat', 'Throat diameter', 'm', 'design', items.map((i) => i.option.design.throatDiameter_m), 2),
+    row('outlet', 'Outlet diameter', 'm', 'design', items.map((i) => i.option.design.outletDiameter_m), 2),
+    row('depth', 'Throat submergence', 'm', 'design', items.map((i) => i.option.design.throatDepth_m), 2),
+    row('pipe', 'Air pipe diameter', 'm', 'design', items.map((i) => i.option.design.air.pipeDiameter_m), 2),
+    row('pipeLength', 'Air pipe length', 'm', 'design', items.map((i) => i.option.design.air.pipeLength_m), 1),
+    row('ratedEntered', 'Rated power per unit as entered', 'kW', 'design', items.map((i) => i.option.design.turbine.ratedPower_kW ?? 'sized to design'), 1),
+    row('energy', 'Annual energy', 'MWh/yr', 'figures', a.map((x) => round(x?.annualEnergyMWh, 1)), 1, 'high'),
+    row('cf', 'Capacity factor', '%', 'figures', a.map((x) => round(x ? x.capacityFactor * 100 : null, 1)), 1, 'high'),
+    row('rated', 'Rated power (all units)', 'kW', 'figures', a.map((x) => round(x?.ratedPowerKw, 1)), 1),
+    row('margin', 'Least cavitation margin', 'm', 'figures', a.map((x) => (x ? (x.minCavitationMarginM === null ? 'never runs' : round(x.minCavitationMarginM, 2)) : null)), 2, 'high'),
+    row('oxygen', 'Net O₂ gain, summer low flow', 'mg/L', 'figures', a.map((x) => round(x?.netOxygenGainSlfMgL, 2)), 2, 'high'),
+    row('lcoe', 'LCOE', 'currency/MWh', 'figures', a.map((x) => (x ? (x.lcoe === null ? 'no energy' : round(x.lcoe, 0)) : null)), 0, 'low'),
+    row('flags', 'Flags raised', 'flags', 'figures', a.map((x) => (x ? x.flagsRaised.length : null)), 0, 'low'),
+    row('engine', 'Engine version', '', 'figures', a.map((x) => (x ? `${x.engineVersion}${x.stale ? ' (older engine)' : ''}` : 'not assessed'))),
+  ]
+}
+
+/** The comparison as CSV rows: header of option names, then one row per figure with its unit. */
+export function compareCsvRows(items: readonly CompareItem[]): (string | number | null)[][] {
+  return [
+    ['Figure', 'Unit', ...items.map((i) => i.option.name)],
+    ...compareRows(items).map((r) => [r.label, r.unit || '-', ...r.cells]),
+  ]
+}

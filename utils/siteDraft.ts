@@ -1,0 +1,143 @@
+// The site form's draft: a blank one, one from a stored site, the bodies it sends, and the schema's
+// issues by field path in plain words.
+import { MONTH_NAMES } from '~~/shared/utils/months'
+import { type OxygenUnit, type Reach, type SiteDto } from '~~/shared/schemas/site'
+import type { WaterQualityClass, WeirShapeClass } from '~~/shared/engine/oxygen'
+
+/** One month row as the months table edits it. */
+export interface MonthDraft {
+  waterTempC: number | null
+  oxygenValue: number | null
+  oxygenUnit: OxygenUnit
+}
+
+/** What the site form's inputs hold. */
+export interface SiteDraft {
+  name: string
+  riverName: string
+  lat: number | null
+  lng: number | null
+  reach: Reach | null
+  altitudeM: number | null
+  grossHeadM: number | null
+  crestWidthM: number | null
+  shape: WeirShapeClass
+  waterQuality: WaterQualityClass
+  reservedKind: 'fixed' | 'percentile'
+  reservedFlow: number | null
+  reservedExceedance: number | null
+  siteAreaKm2: number | null
+  gaugeAreaKm2: number | null
+  targetOxygenMgL: number | null
+  notes: string
+  months: MonthDraft[]
+}
+
+/** A plain deep copy (drafts are JSON; this also unwraps reactive proxies). */
+/** A deep copy of a plain draft (JSON values only). */
+export function cloneDraft<T>(value: T): T {
+  return JSON.parse(JSON.stringify(value)) as T
+}
+
+/** Starting month values for a new site: 10 °C and water at saturation (common practice, no source; replace with measurements). */
+export const STARTING_MONTH: MonthDraft = { waterTempC: 10, oxygenValue: 100, oxygenUnit: '%sat' }
+
+/** An empty draft for a new site. */
+export function blankSiteDraft(): SiteDraft {
+  return {
+    name: '',
+    riverName: '',
+    lat: null,
+    lng: null,
+    reach: null,
+    altitudeM: 0,
+    grossHeadM: null,
+    crestWidthM: null,
+    shape: 'sharp-crested-vertical-face',
+    waterQuality: 'clean',
+    reservedKind: 'percentile',
+    reservedFlow: null,
+    reservedExceedance: 95,
+    siteAreaKm2: null,
+    gaugeAreaKm2: null,
+    targetOxygenMgL: 6,
+    notes: '',
+    months: MONTH_NAMES.map(() => ({ ...STARTING_MONTH })),
+  }
+}
+
+/** A draft holding a stored site. */
+export function draftFromSite(site: SiteDto): SiteDraft {
+  return {
+    name: site.name,
+    riverName: site.riverName,
+    lat: site.location.lat,
+    lng: site.location.lng,
+    reach: site.reach,
+    altitudeM: site.altitudeM,
+    grossHeadM: site.weir.grossHeadM,
+    crestWidthM: site.weir.crestWidthM,
+    shape: site.weir.shape,
+    waterQuality: site.weir.waterQuality,
+    reservedKind: site.reservedFlow.kind,
+    reservedFlow: site.reservedFlow.kind === 'fixed' ? site.reservedFlow.flow : null,
+    reservedExceedance: site.reservedFlow.kind === 'percentile' ? site.reservedFlow.exceedance : 95,
+    siteAreaKm2: site.catchment?.siteAreaKm2 ?? null,
+    gaugeAreaKm2: site.catchment?.gaugeAreaKm2 ?? null,
+    targetOxygenMgL: site.targetOxygenMgL,
+    notes: site.notes,
+    months: site.months.map((m) => ({ waterTempC: m.waterTempC, oxygenValue: m.upstreamOxygen.value, oxygenUnit: m.upstreamOxygen.unit })),
+  }
+}
+
+/** The months as the API takes them (unchecked). */
+export function monthsFromDraft(months: readonly MonthDraft[]) {
+  return months.map((m) => ({ waterTempC: m.waterTempC, upstreamOxygen: { value: m.oxygenValue, unit: m.oxygenUnit } }))
+}
+
+/** The overview fields as the API takes them (unchecked: blanks stay null for the schema to report). */
+export function overviewFromDraft(d: SiteDraft) {
+  const bothAreasBlank = d.siteAreaKm2 === null && d.gaugeAreaKm2 === null
+  return {
+    name: d.name,
+    riverName: d.riverName,
+    location: d.lat === null && d.lng === null ? undefined : { lat: d.lat, lng: d.lng },
+    reach: d.reach,
+    altitudeM: d.altitudeM,
+    weir: { grossHeadM: d.grossHeadM, crestWidthM: d.crestWidthM, shape: d.shape, waterQuality: d.waterQuality },
+    reservedFlow: d.reservedKind === 'fixed' ? { kind: 'fixed' as const, flow: d.reservedFlow } : { kind: 'percentile' as const, exceedance: d.reservedExceedance },
+    catchment: bothAreasBlank ? null : { siteAreaKm2: d.siteAreaKm2, gaugeAreaKm2: d.gaugeAreaKm2 },
+    targetOxygenMgL: d.targetOxygenMgL,
+    notes: d.notes,
+  }
+}
+
+/** Clearer words for a few schema messages that read oddly on a form. */
+export function friendly(path: string, message: string): string {
+  if (path === 'location' || path === 'location.lat' || path === 'location.lng') {
+    if (/expected (object|number)/i.test(message) || message === 'must be a number') return 'Place the site on the map, or enter its latitude and longitude'
+  }
+  if (/^Invalid input/.test(message)) return 'is required'
+  return message
+}
+
+/** The value at `path` inside `value`, or undefined. */
+function valueAt(value: unknown, path: readonly PropertyKey[]): unknown {
+  let v = value
+  for (const key of path) v = v !== null && typeof v === 'object' ? (v as Record<PropertyKey, unknown>)[key] : undefined
+  return v
+}
+
+/**
+ * Per-field messages from a zod result's issues, keyed by dotted path (first message wins). Given
+ * the checked `input`, a blank field (null) reads "is required" rather than "must be a number".
+ */
+export function issuesByPath(issues: readonly { path: readonly PropertyKey[]; message: string }[], input?: unknown): Record<string, string> {
+  const out: Record<string, string> = {}
+  for (const issue of issues) {
+    const path = issue.path.map(String).join('.')
+    const blank = input !== undefined && issue.path.length > 0 && valueAt(input, issue.path) === null
+    out[path] ??= friendly(path, blank && issue.message === 'must be a number' ? 'is required' : issue.message)
+  }
+  return out
+}
