@@ -3,7 +3,7 @@ import { computed, reactive, ref, shallowRef } from 'vue'
 import { checkOptionDraft, draftFromOption, type DraftValue, type OptionDraft, sameDraft } from '../utils/optionFields'
 import { httpStatus, issuesFromError } from '../utils/serverErrors'
 import { createOption, patchOption } from './useOption'
-import { type OptionDto, type OptionInput } from '~~/shared/schemas/option'
+import type { OptionDto, OptionInput } from '~~/shared/schemas/option'
 
 /**
  * The option form's state: the draft the fields show, per-field errors from the shared schema (or

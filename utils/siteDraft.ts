@@ -1,7 +1,7 @@
 // The site form's draft: a blank one, one from a stored site, the bodies it sends, and the schema's
 // issues by field path in plain words.
 import { MONTH_NAMES } from '~~/shared/utils/months'
-import { type OxygenUnit, type Reach, type SiteDto } from '~~/shared/schemas/site'
+import type { OxygenUnit, Reach, SiteDto } from '~~/shared/schemas/site'
 import type { WaterQualityClass, WeirShapeClass } from '~~/shared/engine/oxygen'
 
 /** One month row as the months table edits it. */

@@ -13,7 +13,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 /** Roles that may change sites, options and assessments. */
 export const EDITOR_ROLES: readonly Role[] = ['admin', 'engineer']
 /** Every role of an organisation: all of them may read. */
-export const READER_ROLES: readonly Role[] = ROLES
+export const READER_ROLES: readonly Role[] = [...ROLES]
 
 /** True when the role may manage members, roles and the audit trail. */
 export const canAdminister = (role: Role | null | undefined): boolean => role === 'admin'
