@@ -10,6 +10,7 @@ import { invitationPath } from '../shared/schemas/invitation'
 import { ROLE_LABELS } from '../shared/utils/roles'
 import type { Database } from './schema'
 import { DEMO_ACCOUNTS, DEMO_INVITATION, DEMO_REVIEW, DEMO_SUMMARY_LINK, DEMO_SUMMARY_TOKEN } from './demo-scenario'
+import { monthName } from '../shared/utils/months'
 
 // The review part of the demo scenario (db/demo-scenario.ts): Hollin Mill weir submitted with its
 // two-unit assessment, a comment thread, a decision with conditions, the e-mails those produced, a
@@ -77,7 +78,7 @@ export async function seedReviewDemo(trx: Transaction<Database>, orgId: number, 
       created++
       await trx.insertInto('audit_log').values({ org_id: orgId, user_id: author.id, action: 'comment.added', target_type: 'site', target_id: site.id, detail: JSON.stringify({ before: null, after: { commentId: row.id, month, flagId, mentions } }), created_at: createdAt }).execute()
       if (mentions.length) {
-        const pointsAt = [month ? new Date(Date.UTC(2026, month - 1, 1)).toLocaleDateString('en-GB', { month: 'long', timeZone: 'UTC' }) : null, flagId ? `the ${flagId} flag` : null].filter(Boolean).join(', ') || null
+        const pointsAt = [month ? monthName(month) : null, flagId ? `the ${flagId} flag` : null].filter(Boolean).join(', ') || null
         await mail(other.email, commentMentionMail({ siteName: site.name, authorName: author.name, body: c.body, pointsAt, link }), 'comment-mention', createdAt)
       }
     }

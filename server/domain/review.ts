@@ -2,6 +2,7 @@ import type { AssessResult, FlagId } from '../../shared/engine/assess'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '../../shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '../../shared/schemas/review'
 import type { ReservedFlow } from '../../shared/schemas/site'
+import { monthName } from '../../shared/utils/months'
 
 // The review state machine and the other pure parts of the review: who is mentioned in a comment,
 // and the reviewer's brief from a stored assessment result. No I/O here (unit-tested in
@@ -76,13 +77,12 @@ export function findMentions(body: string, people: readonly Mentionable[]): Ment
   return found
 }
 
-const MONTH_NAMES = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'] as const
 
 /** Plain words for what a comment points at, for the mention e-mail; null when nothing. */
 export function commentPointsAt(c: { assessmentId?: number | null; month?: number | null; flagId?: FlagId | null }): string | null {
   const parts: string[] = []
   if (c.assessmentId) parts.push(`assessment ${c.assessmentId}`)
-  if (c.month) parts.push(MONTH_NAMES[c.month - 1]!)
+  if (c.month) parts.push(monthName(c.month))
   if (c.flagId) parts.push(`the ${c.flagId} flag`)
   return parts.length ? parts.join(', ') : null
 }

@@ -13,10 +13,10 @@ import { unitTotalDissolvedGas } from './schemeOxygen'
 import { buildFlags, NET_LOSS_TOLERANCE_mgL, type Running } from './flags'
 import type { AssessResult, FlagId, MethodsComparison, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { ENGINE_VERSION } from './version'
+import { MONTH_SHORT } from '../utils/months'
 
 export type { AssessResult, AssessSummary, Flag, FlagId, MethodsComparison, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 
-const MONTH_NAMES = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'] as const
 const PER_FLOW_EXCEEDANCES = [1, 5, 10, 20, 30, 40, 50, 60, 70, 80, 90, 95, 99] as const
 const SUMMARY_GRID = 200
 
@@ -136,7 +136,7 @@ export function assess(input: AssessInput): AssessResult {
     if (fs.unitsRunning > 0 && fs.oxygen.unitTdg > st.tdgLimit) flags.push('gas-supersaturation')
     if (fs.unitsRunning > 0 && fs.cavitationMargin_m < st.minCavitationMargin_m) flags.push('cavitation')
     return {
-      month: m + 1, name: MONTH_NAMES[m] ?? String(m + 1), temperature_C: c.tC, flow_m3s: flowInfo.flow, flowBasis: flowInfo.basis,
+      month: m + 1, name: MONTH_SHORT[m] ?? String(m + 1), temperature_C: c.tC, flow_m3s: flowInfo.flow, flowBasis: flowInfo.basis,
       upstreamOxygen_mgL: c.upstreamO2_mgL, downstreamWithout_mgL: fs.oxygen.withoutScheme_mgL, downstreamWith_mgL: fs.oxygen.withScheme_mgL,
       downstreamFieldTransfer_mgL: fs.oxygen.withSchemeFieldTransfer_mgL, downstreamBubbleContact_mgL: fs.oxygen.withSchemeBubbleContact_mgL,
       netGain_mgL: fs.oxygen.netGain_mgL, target_mgL: st.oxygenTarget_mgL, unitTotalDissolvedGas: fs.oxygen.unitTdg,
