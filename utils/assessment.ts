@@ -1,6 +1,6 @@
 // How a stored assessment is shown: its headline figures, flag titles and method names.
 import { MONTH_SHORT } from '~~/shared/utils/months'
-import type { AssessResult, AssessSummary, FlagId } from '~~/shared/engine/assess'
+import type { AssessResult, AssessSummary, FlagId } from '~~/shared/engine/results'
 import { formatNumber } from './format'
 
 /** One headline figure. */

@@ -1,5 +1,5 @@
 // Series, colours and ticks of an assessment's charts (no Chart.js here, so they unit-test in node).
-import type { MonthRow, PerFlowRow } from '~~/shared/engine/assess'
+import type { MonthRow, PerFlowRow } from '~~/shared/engine/results'
 import type { SensitivityResult } from '~~/shared/engine/sensitivity'
 
 // ——— chart series ———

@@ -5,7 +5,8 @@
 // 80,000-day object costs the request thread far more than the text); stored-option routes post the
 // input they built from the database; the hydrology tab posts a site's stored days. Failures come back as values: an Error loses its class and
 // fields across the thread boundary.
-import { assess, type AssessResult } from '../shared/engine/assess'
+import { assess } from '../shared/engine/assess'
+import type { AssessResult } from '../shared/engine/results'
 import { EngineInputError } from '../shared/engine/errors'
 import { fdcFromRecord, fdcStats, monthlyFdcs, reservedFlow, type DailyFlow, type ReservedFlowSetting } from '../shared/engine/hydrology'
 import { sensitivity, type SensitivityResult } from '../shared/engine/sensitivity'

@@ -1,6 +1,6 @@
 // CSV tables of a stored assessment, units in every header. Pure (papaparse only), so it needs no Nitro.
 import Papa from 'papaparse'
-import type { AssessResult, MonthRow, PerFlowRow } from '../../shared/engine/assess'
+import type { AssessResult, MonthRow, PerFlowRow } from '../../shared/engine/results'
 import type { AssessmentTable } from '../../shared/schemas/option'
 
 type Column<R> = [header: string, value: (row: R) => string | number | null]

@@ -4,7 +4,7 @@
 // routes, the seed (db/seed.ts) and the benchmarks call these.
 import type { Kysely } from 'kysely'
 import type { AssessmentsTable, Database, OptionRow, SiteRow } from '../../db/schema'
-import type { AssessResult } from '../../shared/engine/assess'
+import type { AssessResult } from '../../shared/engine/results'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../shared/schemas/assess'
 import type { AssessmentCreate, OptionDesign, OptionSettings } from '../../shared/schemas/option'
 import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../../shared/schemas/site'

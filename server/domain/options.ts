@@ -2,7 +2,7 @@
 // assessment, comparing several, and stored assessments as the API shows them.
 import { sql, type ExpressionBuilder, type Kysely } from 'kysely'
 import type { AssessmentRow, Database, OptionRow, SiteRow } from '../../db/schema'
-import type { AssessResult, FlagId } from '../../shared/engine/assess'
+import type { AssessResult, FlagId } from '../../shared/engine/results'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 import type { AssessInput } from '../../shared/schemas/assess'
 import type {

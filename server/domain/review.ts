@@ -1,4 +1,4 @@
-import type { AssessResult, FlagId } from '../../shared/engine/assess'
+import type { AssessResult, FlagId } from '../../shared/engine/results'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '../../shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '../../shared/schemas/review'
 import type { ReservedFlow } from '../../shared/schemas/site'

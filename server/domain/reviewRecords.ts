@@ -1,6 +1,6 @@
 import { sql, type Kysely } from 'kysely'
 import type { Database, ReviewEventRow, SiteRow } from '../../db/schema'
-import type { AssessResult, FlagId } from '../../shared/engine/assess'
+import type { AssessResult, FlagId } from '../../shared/engine/results'
 import {
   REVIEW_DECIDE_ROLES,
   REVIEW_STATE_LABELS,

@@ -1,6 +1,6 @@
 import { sql, type Kysely } from 'kysely'
 import type { Database, SiteRow, SummaryLinkRow } from '../../db/schema'
-import type { AssessResult } from '../../shared/engine/assess'
+import type { AssessResult } from '../../shared/engine/results'
 import type { OptionDesign } from '../../shared/schemas/option'
 import { REVIEW_STATE_LABELS, type ReviewState } from '../../shared/schemas/review'
 import type { Reach } from '../../shared/schemas/site'

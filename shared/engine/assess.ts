@@ -15,8 +15,6 @@ import type { AssessResult, FlagId, MethodsComparison, MonthRow, PerFlowRow, Sum
 import { ENGINE_VERSION } from './version'
 import { MONTH_SHORT } from '../utils/months'
 
-export type { AssessResult, AssessSummary, Flag, FlagId, MethodsComparison, MonthRow, PerFlowRow, SummerLowFlow } from './results'
-
 const PER_FLOW_EXCEEDANCES = [1, 5, 10, 20, 30, 40, 50, 60, 70, 80, 90, 95, 99] as const
 const SUMMARY_GRID = 200
 

@@ -1,6 +1,7 @@
 // Design sweep: throat diameter × number of units × submergence, and the best option that keeps every safety flag clear.
 import type { AssessInput, SweepGrid } from '../schemas/assess'
-import { assess, type FlagId } from './assess'
+import { assess } from './assess'
+import type { FlagId } from './results'
 import { EngineInputError } from './errors'
 
 /** One point of a sweep. */

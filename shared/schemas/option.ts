@@ -3,7 +3,7 @@
 // server/api/sites/[id]/options, server/api/orgs/[orgId]/portfolio, server/api/compare) and the forms.
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
-import type { AssessResult, FlagId } from '../engine/assess'
+import type { AssessResult, FlagId } from '../engine/results'
 import type { SweepResult } from '../engine/sweep'
 import {
   OptionInputSchema as EngineOptionSchema,

@@ -3,7 +3,7 @@
 // routes (server/api/sites/[id]/review/**, server/api/sites/[id]/comments*) and the review forms.
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
-import type { FlagId } from '../engine/assess'
+import type { FlagId } from '../engine/results'
 import { IdSchema, fromDigits } from './common'
 import type { ReservedFlow } from './site'
 import type { Role } from '../utils/roles'

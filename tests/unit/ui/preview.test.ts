@@ -9,7 +9,7 @@ import { OptionInputSchema } from '../../../shared/schemas/option'
 import type { SiteInput } from '../../../shared/schemas/site'
 import { draftFromOption, type OptionDraft, starterDraft } from '../../../utils/optionFields'
 import { assembleInput, computePreview, createPreviewRunner, PREVIEW_DELAY_MS, PreviewInputError, type PreviewSite, previewSiteFrom, type PreviewState } from '../../../utils/preview'
-import type { AssessResult } from '../../../shared/engine/assess'
+import type { AssessResult } from '../../../shared/engine/results'
 
 const demoSite = (name: string): SiteInput => DEMO_SITES.find((s) => s.site.name === name)!.site
 

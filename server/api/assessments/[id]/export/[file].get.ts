@@ -1,5 +1,5 @@
 import { assessmentCsv } from '../../../../domain/assessmentCsv'
-import type { AssessResult } from '../../../../../shared/engine/assess'
+import type { AssessResult } from '../../../../../shared/engine/results'
 import { AssessmentExportParamsSchema } from '../../../../../shared/schemas/option'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
