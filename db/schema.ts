@@ -1,3 +1,4 @@
+// Longer than most files: the one Database interface, a table per interface, as Kysely wants it.
 import type { ColumnType, Generated, Insertable, Selectable } from 'kysely'
 import type { Role } from '../shared/utils/roles'
 

@@ -21,6 +21,7 @@
 //   header name may be 200 characters at most, and the first 1,000 bad lines are listed (all are
 //   counted). A file of more than 160,000 lines, or a header of more than 100 columns, is refused
 //   unparsed.
+// Longer than most files: one parser with its date, number, column and per-line error rules, which share state.
 import Papa from 'papaparse'
 
 export type CsvDateFormat = 'iso' | 'day-first'

@@ -1,6 +1,7 @@
 // Flow records: a site's gauged daily flows (flow_days) and their summary row (flow_records):
 // storing an upload (replace or append, checked whole first), removing it, and reading it back as
 // the API shows it, scaled to the site by the record's catchment-area ratio.
+// Longer than most files: replace and append share the checks, the scaling and the statistics.
 import { CompiledQuery, type Kysely, type Transaction } from 'kysely'
 import Papa from 'papaparse'
 import type { Database, FlowRecordRow, SiteRow } from '../../db/schema'

@@ -1,3 +1,4 @@
+// Longer than most files: submitting, deciding and commenting share one site lock, one event log and one mailer.
 import { sql, type Kysely } from 'kysely'
 import type { Database, ReviewEventRow, SiteRow } from '../../db/schema'
 import type { AssessResult, FlagId } from '../../shared/engine/results'

@@ -2,6 +2,7 @@
 // comparison. Shared by the server routes (server/api/options, server/api/assessments,
 // server/api/sites/[id]/options, server/api/orgs/[orgId]/portfolio, server/api/compare) and the forms.
 // Keep the exported names stable: the UI imports them.
+// Longer than most files: options, assessments, sweep, portfolio and compare share their DTOs here.
 import { z } from 'zod'
 import type { AssessResult, FlagId } from '../engine/results'
 import type { SweepResult } from '../engine/sweep'

@@ -1,6 +1,7 @@
 // Sites, their reach, weir, months and hydrology inputs; the flow-record upload and attachments.
 // Shared by the server routes (server/api/orgs/[orgId]/sites, server/api/sites, server/api/attachments)
 // and the site forms. Keep the exported names stable: the UI imports them.
+// Longer than most files (a split into site, list, flow-record and attachment files is planned): the site's schemas.
 import { z } from 'zod'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
 import { MAX_FLOW_M3S, areaRatioProblem } from './assess'

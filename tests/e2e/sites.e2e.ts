@@ -5,6 +5,7 @@
 //   GW_BASE_URL=http://localhost:3200 node --import tsx tests/e2e/sites.e2e.ts
 // Drives Debian's chromium through playwright-core, saves screenshots to tests/e2e/screenshots/ and
 // exits non-zero on the first failed check or on any console error, page error or failed request.
+// Longer than most files: one journey through every site screen, in the order a person takes them.
 import assert from 'node:assert/strict'
 import { readFileSync } from 'node:fs'
 import type { Browser, Page } from 'playwright-core'

@@ -1,3 +1,4 @@
+// Longer than most files: one recipe per route, so every route of the API is called by every kind of caller.
 import { readdirSync, readFileSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'

@@ -1,3 +1,4 @@
+// Longer than most files: every rule of the flow-record upload, with a hostile-input property at the end.
 import fc from 'fast-check'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Client, type UploadFile } from './client'

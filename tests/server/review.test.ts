@@ -1,3 +1,4 @@
+// Longer than most files: the review's whole state machine, its refusals and its e-mails, case by case.
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Client, GOOD_PASSWORD, uniqueEmail } from './client'
 import { lastOutboxId, makePeople, outboxSince, siteWithAssessment, tokenFromMail, type Person, type TeamRole } from './review-helpers'

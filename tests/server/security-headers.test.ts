@@ -1,3 +1,4 @@
+// Longer than most files: every header, cookie flag and start-up switch of the security layer, each on its own.
 import { request as httpRequest } from 'node:http'
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import { startBuiltServer, type BuiltServer } from '../../scripts/builtServer.mjs'

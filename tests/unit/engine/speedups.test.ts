@@ -6,6 +6,7 @@
 // before the shortcuts), to the last bit (toStrictEqual compares numbers with Object.is). These are
 // identity checks against the engine's own formulas, so no outside source is named: the formulas
 // themselves are checked, with their sources, in the other engine tests.
+// Longer than most files: each shortcut of the inner loop is checked against a fresh composition.
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import {
