@@ -2,7 +2,8 @@
 // site (as stored) and the draft option, debounced, keeping the last good figures when the draft is
 // not valid. The engine is imported lazily so pages without a preview do not ship it.
 import type { AssessResult } from '~~/shared/engine/results'
-import type { FlowRecordDto, SiteDto } from '~~/shared/schemas/site'
+import type { SiteDto } from '~~/shared/schemas/site'
+import type { FlowRecordDto } from '~~/shared/schemas/flowRecord'
 import type { OptionDraft } from '../utils/optionFields'
 import { computePreview, createPreviewRunner, PREVIEW_DELAY_MS, PreviewInputError, type PreviewSite, previewSiteFrom, type PreviewState } from '../utils/preview'
 

@@ -13,7 +13,7 @@ import { sensitivity, type SensitivityResult } from '../shared/engine/sensitivit
 import { sweep, withDesign, type SweepResult } from '../shared/engine/sweep'
 import { AssessInputSchema, type AssessInput, type SweepGrid } from '../shared/schemas/assess'
 import { SensitivityRequestSchema, SweepRequestSchema } from '../shared/schemas/engineRequests'
-import type { HydrologyDto } from '../shared/schemas/site'
+import type { HydrologyDto } from '../shared/schemas/flowRecord'
 import { fdcChartPoints } from '../shared/utils/fdcChart'
 import { InputError, validator } from '../server/utils/validate'
 

@@ -6,16 +6,8 @@ import { CompiledQuery, type Kysely, type Transaction } from 'kysely'
 import Papa from 'papaparse'
 import type { Database, FlowRecordRow, SiteRow } from '../../db/schema'
 import { fdcFromRecord, fdcStats, scaleByAreaRatio, type DailyFlow } from '../../shared/engine/hydrology'
-import {
-  FLOW_CSV_EXTENSIONS,
-  FLOW_CSV_TYPES,
-  MAX_FLOW_DAYS,
-  type Catchment,
-  type FlowRecordForm,
-  type FlowRecordSummary,
-  type FlowUploadErrorData,
-  type FlowUploadResult,
-} from '../../shared/schemas/site'
+import type { Catchment } from '../../shared/schemas/site'
+import { FLOW_CSV_EXTENSIONS, FLOW_CSV_TYPES, MAX_FLOW_DAYS, type FlowRecordForm, type FlowRecordSummary, type FlowUploadErrorData, type FlowUploadResult } from '../../shared/schemas/flowRecord'
 import { DomainError, notFound } from './errors'
 import { daySpan, decodeCsvBytes, parseFlowCsv, type ParsedDay } from './flowCsv'
 

@@ -3,25 +3,9 @@
 // over a Kysely handle (a transaction works too); routes, the seed and the benchmarks call them.
 import { sql, type ExpressionBuilder, type Kysely } from 'kysely'
 import type { AttachmentRow, Database, SiteRow } from '../../db/schema'
-import type {
-  AttachmentDto,
-  AttachmentType,
-  Catchment,
-  FdcPointInput,
-  HeadRow,
-  HydrologySource,
-  Month,
-  Reach,
-  ReservedFlow,
-  SiteDto,
-  SiteInput,
-  SiteListDto,
-  SiteListQuery,
-  SiteMapPoint,
-  SitePatch,
-  SiteSort,
-  Weir,
-} from '../../shared/schemas/site'
+import type { Catchment, FdcPointInput, HeadRow, HydrologySource, Month, Reach, ReservedFlow, SiteDto, SiteInput, SitePatch, Weir } from '../../shared/schemas/site'
+import type { SiteListDto, SiteListQuery, SiteMapPoint, SiteSort } from '../../shared/schemas/siteList'
+import type { AttachmentDto, AttachmentType } from '../../shared/schemas/attachment'
 import { conflict } from './errors'
 import { loadFlowRecord } from './flowRecords'
 

@@ -1,4 +1,4 @@
-import type { AttachmentType } from '../../shared/schemas/site'
+import type { AttachmentType } from '../../shared/schemas/attachment'
 
 const startsWith = (bytes: Uint8Array, sig: readonly number[], at = 0) => sig.every((b, i) => bytes[at + i] === b)
 const ascii = (s: string) => [...s].map((c) => c.charCodeAt(0))

@@ -1,11 +1,13 @@
-// Sites, their reach, weir, months and hydrology inputs; the flow-record upload and attachments.
+// Sites: their reach, weir, months and hydrology inputs, the bodies that create and change them, and
+// the site as the routes return it. The list and map queries are in siteList.ts, the flow record in
+// flowRecord.ts, attachments in attachment.ts.
 // Shared by the server routes (server/api/orgs/[orgId]/sites, server/api/sites, server/api/attachments)
 // and the site forms. Keep the exported names stable: the UI imports them.
-// Longer than most files (a split into site, list, flow-record and attachment files is planned): the site's schemas.
 import { z } from 'zod'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
 import { MAX_FLOW_M3S, areaRatioProblem } from './assess'
-import { IdSchema, NameSchema, fromDigits } from './common'
+import { IdSchema, NameSchema } from './common'
+import type { FlowRecordSummary } from './flowRecord'
 
 const num = z.number({ error: 'must be a number' })
 const nonNegative = num.min(0, 'must be 0 or more')
@@ -32,18 +34,6 @@ export type OxygenUnit = (typeof OXYGEN_UNITS)[number]
 
 /** Largest gross head a site may have, m. */
 export const MAX_GROSS_HEAD_M = 20
-/** Largest flow-record CSV accepted, bytes (10 MB). */
-export const MAX_FLOW_CSV_BYTES = 10 * 1024 * 1024
-/** Most days one site's flow record may hold (about 219 years). */
-export const MAX_FLOW_DAYS = 80_000
-/** Largest attachment accepted, bytes (20 MB). */
-export const MAX_ATTACHMENT_BYTES = 20 * 1024 * 1024
-/** Attachment types accepted, recognised by their first bytes, not by the name or the declared type. */
-export const ATTACHMENT_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const
-export type AttachmentType = (typeof ATTACHMENT_TYPES)[number]
-/** Declared types and file endings a flow-record CSV may come with (either one will do). */
-export const FLOW_CSV_TYPES = ['text/csv', 'text/plain', 'application/vnd.ms-excel'] as const
-export const FLOW_CSV_EXTENSIONS = ['.csv', '.txt'] as const
 
 // ——— parts of a site ———
 
@@ -209,27 +199,6 @@ export const SitePatchSchema = z.object(siteFields).partial().extend({
 })
 export type SitePatch = z.infer<typeof SitePatchSchema>
 
-/** Columns the site list may be sorted by (allow-list). */
-export const SITE_SORTS = ['name', 'riverName', 'grossHeadM', 'createdAt', 'updatedAt'] as const
-export type SiteSort = (typeof SITE_SORTS)[number]
-
-/** Query of GET /api/orgs/[orgId]/sites. `deleted=only` lists the soft-deleted sites (admins only). */
-export const SiteListQuerySchema = z.object({
-  page: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more')).default(1),
-  pageSize: fromDigits(z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(200, 'must be 200 or less')).default(50),
-  sort: z.enum(SITE_SORTS, { error: `must be one of ${SITE_SORTS.join(', ')}` }).default('name'),
-  dir: z.enum(['asc', 'desc'], { error: "must be 'asc' or 'desc'" }).default('asc'),
-  /** Text to find in the site or river name (case-insensitive). */
-  q: z.string().trim().max(120, 'is too long').optional(),
-  /** Exact river name (case-insensitive). */
-  river: z.string().trim().max(120, 'is too long').optional(),
-  deleted: z.enum(['only'], { error: "must be 'only'" }).optional(),
-})
-export type SiteListQuery = z.infer<typeof SiteListQuerySchema>
-
-/** Query of GET /api/orgs/[orgId]/sites/map: the same filters, no paging. */
-export const SiteMapQuerySchema = SiteListQuerySchema.pick({ q: true, river: true })
-
 export const SiteParamsSchema = z.object({ id: IdSchema })
 
 // ——— what the routes return ———
@@ -242,40 +211,6 @@ export type Month = z.infer<typeof MonthSchema>
 export type Catchment = z.infer<typeof CatchmentSchema>
 export type FdcPointInput = z.infer<typeof FdcPointSchema>
 export type HydrologySource = 'record' | 'points' | 'none'
-
-/** Q95, Q50, Q10 and mean, m³/s. */
-export interface FlowStats {
-  q95: number
-  q50: number
-  q10: number
-  mean: number
-}
-
-/** The stored daily flow record of a site, as summarised by the routes. Flows are site flows (scaled). */
-export interface FlowRecordSummary {
-  fileName: string
-  uploadedAt: string
-  uploadedBy: { id: number; name: string } | null
-  dateColumn: string
-  flowColumn: string
-  /** Column read for quality flags, when the file had one. */
-  flagColumn: string | null
-  dateFormat: 'iso' | 'day-first'
-  /** Rows stored, one a day, gaps included. */
-  days: number
-  /** Days stored without a flow (blank, `-`, `NA`, flagged…). */
-  gapDays: number
-  /** Calendar days between the first and last day with no row at all. */
-  missingDays: number
-  firstDay: string
-  lastDay: string
-  /** (last − first + 1 days) / 365.25, to 2 decimals. */
-  years: number
-  /** Area-ratio scaling applied to the gauged flows, or null when stored as given. */
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number; factor: number } | null
-  /** From the site flows' FDC; null when no day has a flow. */
-  stats: FlowStats | null
-}
 
 /** GET /api/sites/[id]. */
 export interface SiteDto {
@@ -304,149 +239,4 @@ export interface SiteDto {
   /** Which hydrology the engine will use. */
   hydrologySource: HydrologySource
   flowRecord: FlowRecordSummary | null
-}
-
-/** One row of GET /api/orgs/[orgId]/sites. */
-export interface SiteListItem {
-  id: number
-  name: string
-  riverName: string
-  location: { lat: number; lng: number }
-  altitudeM: number
-  grossHeadM: number
-  hydrologySource: HydrologySource
-  /** Mean flow of the stored record, m³/s, else null. */
-  recordMeanFlow: number | null
-  version: number
-  createdAt: string
-  updatedAt: string
-  deletedAt: string | null
-}
-
-export interface SiteListDto {
-  page: number
-  pageSize: number
-  total: number
-  sort: SiteSort
-  dir: 'asc' | 'desc'
-  sites: SiteListItem[]
-}
-
-/** One marker of GET /api/orgs/[orgId]/sites/map (every live site, no paging). */
-export interface SiteMapPoint {
-  id: number
-  name: string
-  riverName: string
-  lat: number
-  lng: number
-  grossHeadM: number
-  hydrologySource: HydrologySource
-}
-
-// ——— flow-record upload ———
-
-export const FLOW_UPLOAD_MODES = ['replace', 'append'] as const
-export const DATE_FORMATS = ['auto', 'iso', 'day-first'] as const
-export type DateFormat = (typeof DATE_FORMATS)[number]
-
-const optionalArea = z
-  .string()
-  .trim()
-  .optional()
-  .transform((s) => (s === undefined || s === '' ? undefined : Number(s)))
-  .pipe(z.number({ error: 'must be a number' }).positive('must be more than 0').max(1_000_000, 'is too large').optional())
-
-/**
- * Text fields of the multipart POST /api/sites/[id]/flow-record (besides `file`).
- * `scale`: 'auto' scales by siteAreaKm2/gaugeAreaKm2 when both are given, else by the site's
- * catchment when it has one; 'none' stores the flows as given. Append mode keeps the stored record's scaling.
- */
-export const FlowRecordFormSchema = z
-  .object({
-    dateColumn: z.string().trim().max(200).optional().transform((s) => s || undefined),
-    flowColumn: z.string().trim().max(200).optional().transform((s) => s || undefined),
-    mode: z.enum(FLOW_UPLOAD_MODES, { error: "must be 'replace' or 'append'" }).default('replace'),
-    dateFormat: z.enum(DATE_FORMATS, { error: "must be 'auto', 'iso' or 'day-first'" }).default('auto'),
-    scale: z.enum(['auto', 'none'], { error: "must be 'auto' or 'none'" }).default('auto'),
-    siteAreaKm2: optionalArea,
-    gaugeAreaKm2: optionalArea,
-  })
-  .superRefine((f, ctx) => {
-    if ((f.siteAreaKm2 === undefined) !== (f.gaugeAreaKm2 === undefined)) {
-      ctx.addIssue({ code: 'custom', path: [f.siteAreaKm2 === undefined ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: 'give both catchment areas, or neither' })
-    }
-    const problem = f.siteAreaKm2 !== undefined && f.gaugeAreaKm2 !== undefined ? areaRatioProblem(f.siteAreaKm2, f.gaugeAreaKm2) : null
-    if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: problem.message })
-  })
-export type FlowRecordForm = z.infer<typeof FlowRecordFormSchema>
-
-/** One bad line of an upload: `line` is the line number in the file (1 = the first line). */
-export interface FlowCsvLineError {
-  line: number
-  reason: string
-}
-
-/** `data` of a 422 from the upload: every bad line, or the header when the columns must be chosen. */
-export interface FlowUploadErrorData {
-  /** The first 1,000 bad lines. */
-  errors: FlowCsvLineError[]
-  /** How many lines are bad in all (absent when the header is the problem). */
-  errorCount?: number
-  needsColumns?: boolean
-  header?: string[]
-}
-
-/** Body of a successful POST /api/sites/[id]/flow-record. */
-export interface FlowUploadResult {
-  mode: 'replace' | 'append'
-  /** Days read from this file. */
-  daysInFile: number
-  /** Of which stored as gaps (blank, `-`, `NA`, flagged…). */
-  gapsInFile: number
-  /** Of which gaps because a value or its flag marked it suspect. */
-  flaggedInFile: number
-  record: FlowRecordSummary
-}
-
-/** Query of GET /api/sites/[id]/flow-record: optional day range, inclusive. */
-export const FlowRecordQuerySchema = z
-  .object({
-    from: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional(),
-    to: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional(),
-  })
-  .refine((q) => !q.from || !q.to || q.from <= q.to, { path: ['to'], message: 'must not be before from' })
-
-/** GET /api/sites/[id]/flow-record. */
-export interface FlowRecordDto {
-  record: FlowRecordSummary
-  /** Site flows (after any scaling), m³/s; null for a gap. */
-  days: { date: string; flow: number | null }[]
-}
-
-/** GET /api/sites/[id]/hydrology. */
-export interface HydrologyDto {
-  source: HydrologySource
-  /** Up to 200 points of the curve in use, by rising exceedance, for charting. */
-  points: { exceedance: number; flow: number }[]
-  stats: FlowStats | null
-  /** January first; stats null for a month with no data (or when the source is points or none). */
-  monthly: { month: number; days: number; stats: FlowStats | null }[]
-  reservedFlow: { setting: ReservedFlow; flow: number | null }
-  /** Area-ratio scaling applied, or null. */
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number; factor: number } | null
-  /** Days with flow (record) or number of entered points. */
-  count: number
-}
-
-// ——— attachments ———
-
-/** One attachment of a site. Download from `/api/attachments/[id]`. */
-export interface AttachmentDto {
-  id: number
-  siteId: number
-  originalName: string
-  contentType: AttachmentType
-  sizeBytes: number
-  uploadedBy: { id: number; name: string } | null
-  createdAt: string
 }

@@ -70,7 +70,8 @@ await runJourney('account', async (browser) => {
   await shot(laptop, 'a03-two-sessions')
   await laptop.click('[data-testid=end-other-sessions]')
   await laptop.waitForFunction(() => /One other browser was signed out/.test(document.querySelector('[data-testid=account-sessions]')?.textContent ?? ''))
-  assert.equal(await laptop.locator('[data-testid=account-sessions] tbody tr').count(), 1)
+  // The list is read again after the message shows: wait for it to hold this browser only.
+  await laptop.waitForFunction(() => document.querySelectorAll('[data-testid=account-sessions] tbody tr').length === 1)
   // The phone's cookie is worth nothing now: the next page load is the sign-in.
   await phone.goto(`${BASE}/account`)
   await phone.waitForSelector('[data-testid=sign-in-form]')

@@ -7,7 +7,7 @@ import type { Mailer, MailMessage } from '../../../server/domain/mail/outbox'
 import { loadPortfolio } from '../../../server/domain/portfolio'
 import { decideReview, submitReview } from '../../../server/domain/reviewRecords'
 import { createSite, listSites, siteMapPoints, updateSite } from '../../../server/domain/sites'
-import { SiteListQuerySchema } from '../../../shared/schemas/site'
+import { SiteListQuerySchema } from '../../../shared/schemas/siteList'
 import { PortfolioQuerySchema } from '../../../shared/schemas/option'
 
 // Domain operations run against an in-memory SQLite database with the migrations and the demo

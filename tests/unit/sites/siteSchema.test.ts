@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { SiteInputSchema, SiteListQuerySchema, SitePatchSchema } from '../../../shared/schemas/site'
+import { SiteInputSchema, SitePatchSchema } from '../../../shared/schemas/site'
+import { SiteListQuerySchema } from '../../../shared/schemas/siteList'
 import { validator } from '../../../server/utils/validate'
 
 const months = Array.from({ length: 12 }, () => ({ waterTempC: 10, upstreamOxygen: { value: 9, unit: 'mg/L' } }))

@@ -1,5 +1,6 @@
 import { loadSiteDays, requireFlowRecord } from '../../../domain/flowRecords'
-import { FlowRecordQuerySchema, SiteParamsSchema, type FlowRecordDto } from '../../../../shared/schemas/site'
+import { SiteParamsSchema } from '../../../../shared/schemas/site'
+import { FlowRecordQuerySchema, type FlowRecordDto } from '../../../../shared/schemas/flowRecord'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 
 // The stored daily flow record: its summary and the days (site flows after any scaling), optionally

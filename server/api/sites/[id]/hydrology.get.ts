@@ -1,6 +1,7 @@
 import { loadFlowRecord, loadSiteDays } from '../../../domain/flowRecords'
 import { fdcFromPoints, fdcStats, reservedFlow, scaleFdcByAreaRatio } from '../../../../shared/engine/hydrology'
-import { SiteParamsSchema, type Catchment, type FdcPointInput, type HydrologyDto, type ReservedFlow } from '../../../../shared/schemas/site'
+import { SiteParamsSchema, type Catchment, type FdcPointInput, type ReservedFlow } from '../../../../shared/schemas/site'
+import type { HydrologyDto } from '../../../../shared/schemas/flowRecord'
 import { fdcChartPoints } from '../../../../shared/utils/fdcChart'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 

@@ -1,6 +1,6 @@
 import { listSites } from '../../../../domain/sites'
 import { OrgParamsSchema } from '../../../../../shared/schemas/common'
-import { SiteListQuerySchema, type SiteListDto } from '../../../../../shared/schemas/site'
+import { SiteListQuerySchema, type SiteListDto } from '../../../../../shared/schemas/siteList'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
 // One page of an organisation's sites, sorted by an allow-listed column, filtered by text and river;

@@ -1,5 +1,6 @@
 import { attachmentDto } from '../../../../domain/sites'
-import { SiteParamsSchema, type AttachmentDto } from '../../../../../shared/schemas/site'
+import { SiteParamsSchema } from '../../../../../shared/schemas/site'
+import type { AttachmentDto } from '../../../../../shared/schemas/attachment'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
 // The site's attachments, newest first, for every role of its organisation.

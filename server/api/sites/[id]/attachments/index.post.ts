@@ -1,6 +1,7 @@
 import { randomBytes } from 'node:crypto'
 import { attachmentDto } from '../../../../domain/sites'
-import { ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, SiteParamsSchema, type AttachmentDto } from '../../../../../shared/schemas/site'
+import { SiteParamsSchema } from '../../../../../shared/schemas/site'
+import { ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, type AttachmentDto } from '../../../../../shared/schemas/attachment'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 
 // Engineers and admins attach a photo or drawing (JPEG, PNG, WebP or PDF, told by its first bytes;
