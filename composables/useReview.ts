@@ -1,6 +1,7 @@
 // The review of a site: typed fetch wrappers over server/api/sites/[id]/review/** (how it is shown is
 // in utils/review.ts). Shapes come from shared/schemas/review.ts, written once.
-import type { AssessmentListDto, OptionListDto } from '~~/shared/schemas/option'
+import type { OptionListDto } from '~~/shared/schemas/option'
+import type { AssessmentListDto } from '~~/shared/schemas/assessment'
 import type { ReviewBriefDto, ReviewChangeDto, ReviewDecisionInput, ReviewDto, ReviewSubmitInput } from '~~/shared/schemas/review'
 import { assessmentChoices } from '../utils/review'
 

@@ -2,7 +2,7 @@
 // name, and the oxygen by month from the brief or the summary.
 import { monthName } from '~~/shared/utils/months'
 import { formatDay, formatNumber } from './format'
-import type { AssessmentListDto } from '~~/shared/schemas/option'
+import type { AssessmentListDto } from '~~/shared/schemas/assessment'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '~~/shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '~~/shared/schemas/review'
 import type { PublicSummaryDto } from '~~/shared/schemas/summaryLink'

@@ -6,7 +6,7 @@
 // GET /api/me as the floor under them all.
 import { performance } from 'node:perf_hooks'
 import { openDatabase } from '../../db/connection'
-import type { PortfolioDto } from '../../shared/schemas/option'
+import type { PortfolioDto } from '../../shared/schemas/portfolio'
 import { type BenchFigure, median, percentile } from './harness'
 import { fillPortfolio } from './portfolio'
 import { signUpSession, startBenchServer } from './server'

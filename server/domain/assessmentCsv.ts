@@ -1,7 +1,7 @@
 // CSV tables of a stored assessment, units in every header. Pure (papaparse only), so it needs no Nitro.
 import Papa from 'papaparse'
 import type { AssessResult, MonthRow, PerFlowRow } from '../../shared/engine/results'
-import type { AssessmentTable } from '../../shared/schemas/option'
+import type { AssessmentTable } from '../../shared/schemas/assessment'
 
 type Column<R> = [header: string, value: (row: R) => string | number | null]
 

@@ -5,19 +5,9 @@ import type { AssessmentRow, Database, OptionRow, SiteRow } from '../../db/schem
 import type { AssessResult, FlagId } from '../../shared/engine/results'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 import type { AssessInput } from '../../shared/schemas/assess'
-import type {
-  AssessmentDetailDto,
-  AssessmentDto,
-  AssessmentListDto,
-  AssessmentListQuery,
-  CompareDto,
-  OptionDesign,
-  OptionDto,
-  OptionInput,
-  OptionPatch,
-  OptionSettings,
-  OrgOptionsDto,
-} from '../../shared/schemas/option'
+import type { OptionDesign, OptionDto, OptionInput, OptionPatch, OptionSettings } from '../../shared/schemas/option'
+import type { AssessmentDetailDto, AssessmentDto, AssessmentListDto, AssessmentListQuery } from '../../shared/schemas/assessment'
+import type { CompareDto, OrgOptionsDto } from '../../shared/schemas/compare'
 import { notFound } from './errors'
 import { staleVersionError } from './sites'
 

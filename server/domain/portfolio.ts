@@ -7,7 +7,7 @@ import Papa from 'papaparse'
 import type { Database } from '../../db/schema'
 import type { FlagId } from '../../shared/engine/results'
 import { ENGINE_VERSION } from '../../shared/engine/version'
-import { PORTFOLIO_MAP_MAX, type PortfolioDto, type PortfolioQuery, type PortfolioRow, type PortfolioSort } from '../../shared/schemas/option'
+import { PORTFOLIO_MAP_MAX, type PortfolioDto, type PortfolioQuery, type PortfolioRow, type PortfolioSort } from '../../shared/schemas/portfolio'
 import { REVIEW_STATES, type ReviewState } from '../../shared/schemas/review'
 import { siteTextFilter } from './sites'
 

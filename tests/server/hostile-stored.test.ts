@@ -1,6 +1,7 @@
 import fc from 'fast-check'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { AssessmentCreateSchema, OptionInputSchema, OptionPatchSchema, OptionSweepSchema, SweepSaveSchema } from '../../shared/schemas/option'
+import { OptionInputSchema, OptionPatchSchema, OptionSweepSchema, SweepSaveSchema } from '../../shared/schemas/option'
+import { AssessmentCreateSchema } from '../../shared/schemas/assessment'
 import { SiteInputSchema, SitePatchSchema } from '../../shared/schemas/site'
 import { bodiesFor, expectFieldRefusal, expectSafe, hostileValue, orgRows, refusedBodies, show } from './hostile-arbitraries'
 import { createAssessment, createOption, optionBody } from './options-helpers'

@@ -8,7 +8,7 @@ import { loadPortfolio } from '../../../server/domain/portfolio'
 import { decideReview, submitReview } from '../../../server/domain/reviewRecords'
 import { createSite, listSites, siteMapPoints, updateSite } from '../../../server/domain/sites'
 import { SiteListQuerySchema } from '../../../shared/schemas/siteList'
-import { PortfolioQuerySchema } from '../../../shared/schemas/option'
+import { PortfolioQuerySchema } from '../../../shared/schemas/portfolio'
 
 // Domain operations run against an in-memory SQLite database with the migrations and the demo
 // scenario, with no server: the site text filter every list shares, the optimistic version check,

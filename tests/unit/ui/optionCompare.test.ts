@@ -1,6 +1,8 @@
 // The comparison table's rows (best value per row, differences) and its CSV rows.
 import { describe, expect, it } from 'vitest'
-import { OptionInputSchema, type AssessmentDto, type CompareItem } from '../../../shared/schemas/option'
+import { OptionInputSchema } from '../../../shared/schemas/option'
+import type { AssessmentDto } from '../../../shared/schemas/assessment'
+import type { CompareItem } from '../../../shared/schemas/compare'
 import { compareCsvRows, compareRows } from '../../../utils/compare'
 
 function item(id: number, units: number, figures: Partial<AssessmentDto> | null): CompareItem {

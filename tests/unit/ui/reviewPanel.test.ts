@@ -1,7 +1,7 @@
 // Pure helpers of the review panel (utils/review.ts): which assessments the submit form
 // offers and in what order, and the oxygen rows the brief's table and chart draw.
 import { describe, expect, it } from 'vitest'
-import type { AssessmentDto, AssessmentListDto } from '../../../shared/schemas/option'
+import type { AssessmentDto, AssessmentListDto } from '../../../shared/schemas/assessment'
 import { ReviewDecisionSchema, ReviewSubmitSchema, type ReviewBriefDto } from '../../../shared/schemas/review'
 import { assessmentChoices, defaultChoice, monthsBelowTarget, oxygenRowsFromBrief, oxygenRowsFromSummary, reviewStateLabel } from '../../../utils/review'
 

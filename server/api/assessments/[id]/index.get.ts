@@ -1,5 +1,5 @@
 import { loadAssessmentDetail } from '../../../domain/options'
-import { AssessmentParamsSchema } from '../../../../shared/schemas/option'
+import { AssessmentParamsSchema } from '../../../../shared/schemas/assessment'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 
 // One stored assessment: its exact input and whole result as stored, never recomputed, with `stale`

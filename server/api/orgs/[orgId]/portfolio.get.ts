@@ -1,6 +1,6 @@
 import { allPortfolioRows, loadPortfolio, portfolioCsv } from '../../../domain/portfolio'
 import { OrgParamsSchema } from '../../../../shared/schemas/common'
-import { PortfolioQuerySchema } from '../../../../shared/schemas/option'
+import { PortfolioQuerySchema } from '../../../../shared/schemas/portfolio'
 import { READER_ROLES } from '../../../../shared/utils/roles'
 
 // The organisation's live sites with the headline figures of each one's latest assessment and its

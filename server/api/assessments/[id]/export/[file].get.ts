@@ -1,6 +1,6 @@
 import { assessmentCsv } from '../../../../domain/assessmentCsv'
 import type { AssessResult } from '../../../../../shared/engine/results'
-import { AssessmentExportParamsSchema } from '../../../../../shared/schemas/option'
+import { AssessmentExportParamsSchema } from '../../../../../shared/schemas/assessment'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
 // GET /api/assessments/[id]/export/perFlow.csv | months.csv | summary.csv: one table of the stored

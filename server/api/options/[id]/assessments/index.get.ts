@@ -1,5 +1,6 @@
 import { listAssessments } from '../../../../domain/options'
-import { AssessmentListQuerySchema, OptionParamsSchema, type AssessmentListDto } from '../../../../../shared/schemas/option'
+import { OptionParamsSchema } from '../../../../../shared/schemas/option'
+import { AssessmentListQuerySchema, type AssessmentListDto } from '../../../../../shared/schemas/assessment'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
 // The stored assessments of an option, newest first, without their tables; every role reads.

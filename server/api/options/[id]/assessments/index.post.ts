@@ -1,6 +1,7 @@
 import { assessmentInputFor, rerunBasis, storeAssessment } from '../../../../domain/assessments'
 import { loadAssessmentDetail } from '../../../../domain/options'
-import { AssessmentCreateSchema, OptionParamsSchema } from '../../../../../shared/schemas/option'
+import { OptionParamsSchema } from '../../../../../shared/schemas/option'
+import { AssessmentCreateSchema } from '../../../../../shared/schemas/assessment'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 
 // Engineers and admins run the engine on the server for an option at its site and store the run: the
