@@ -154,7 +154,7 @@ export interface OptionsTable {
   org_id: number
   name: string
   notes: ColumnType<string, string | undefined, string>
-  /** JSON: the engine's option (shared/schemas/assess.ts OptionInputSchema), defaults filled in. */
+  /** JSON: the engine's option (shared/schemas/assess.ts EngineOptionSchema), defaults filled in. */
   design: string
   /** JSON: the engine settings (SettingsInputSchema), defaults filled in. */
   settings: string

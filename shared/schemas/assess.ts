@@ -42,7 +42,7 @@ export const MonthInputSchema = z.object({
 })
 
 /** One entered FDC point, exceedance in % of time. */
-export const FdcPointSchema = z.object({
+export const EngineFdcPointSchema = z.object({
   exceedance: num.min(0).max(100, 'must be 100 % or less'),
   flow,
 })
@@ -57,7 +57,7 @@ export const DailyFlowSchema = z.object({
 export const HydrologyInputSchema = z.discriminatedUnion('kind', [
   z.object({
     kind: z.literal('fdc'),
-    points: z.array(FdcPointSchema).min(3, 'an FDC needs at least 3 points').max(500),
+    points: z.array(EngineFdcPointSchema).min(3, 'an FDC needs at least 3 points').max(500),
   }).superRefine((h, ctx) => {
     h.points.forEach((p, i) => {
       const prev = h.points[i - 1]
@@ -87,7 +87,7 @@ export const ReservedFlowInputSchema = z.discriminatedUnion('kind', [
 ])
 
 /** The site: head, altitude, water and its months. */
-export const SiteInputSchema = z.object({
+export const EngineSiteSchema = z.object({
   altitude_m: num.min(-100).max(5000, 'must be 5000 m or less').default(0),
   /** Gross head at the weir (head pool to tail pool) at ordinary flows, m. */
   grossHead_m: nonNegative.max(30, 'must be 30 m or less'),
@@ -126,7 +126,7 @@ export const CostInputSchema = z.object({
 })
 
 /** One design option. */
-export const OptionInputSchema = z.object({
+export const EngineOptionSchema = z.object({
   units: num.int('must be a whole number').min(1, 'needs at least 1 unit').max(50),
   constriction: z.enum(['venturi', 'short-nozzle', 'sharp-plate']).default('venturi'),
   throatDiameter_m: positive.max(10),
@@ -174,11 +174,11 @@ export const SettingsInputSchema = z.object({
 
 /** Everything one assessment needs. */
 export const AssessInputSchema = z.object({
-  site: SiteInputSchema,
+  site: EngineSiteSchema,
   hydrology: HydrologyInputSchema,
   gaugeScaling: GaugeScalingSchema.nullable().default(null),
   reservedFlow: ReservedFlowInputSchema.default({ kind: 'percentile', exceedance: 95 }),
-  option: OptionInputSchema,
+  option: EngineOptionSchema,
   settings: SettingsInputSchema.prefault({}),
 })
 

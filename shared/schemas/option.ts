@@ -4,7 +4,7 @@
 import { z } from 'zod'
 import type { SweepResult } from '../engine/sweep'
 import {
-  OptionInputSchema as EngineOptionSchema,
+  EngineOptionSchema,
   SettingsInputSchema,
   SweepGridSchema,
 } from './assess'
