@@ -83,19 +83,22 @@ export function expectSafe(res: Reply, label: string): void {
 }
 
 /**
- * True when h3 refuses a JSON body itself, before any route sees it: it reads bodies with destr in
- * strict mode, which refuses a `__proto__` or `constructor` key anywhere (prototype pollution) and a
- * bare number of more than 16 digits (node_modules/destr). server/middleware/01.json-body.ts then
- * answers with a message naming the body.
+ * True when the body reader refuses a JSON text itself, before its schema sees it
+ * (server/utils/body.ts parseJsonBody): text that is not JSON, or a `__proto__`, `constructor` or
+ * `prototype` key anywhere (prototype pollution). It answers with a message naming the body.
  */
-export function h3RefusesJson(text: string): boolean {
-  if (['true', 'false', 'null'].includes(text.trim())) return false
-  return !/^\s*["[{]|^\s*-?\d{1,16}(\.\d{1,17})?([Ee][+-]?\d+)?\s*$/.test(text) || /"(?:__proto__|constructor)"\s*:/.test(text)
+export function bodyReaderRefuses(text: string): boolean {
+  try {
+    JSON.parse(text)
+  } catch {
+    return true
+  }
+  return /"(?:__proto__|constructor|prototype)"\s*:/.test(text)
 }
 
 /**
  * A refused input: 400 whose message starts with the field it names (`assessmentId: …`); for a body
- * h3 refuses before the route (see h3RefusesJson) the field named is the body itself.
+ * the body reader refuses (see bodyReaderRefuses) the field named is the body itself.
  */
 export function expectFieldRefusal(res: Reply, label: string, body?: unknown): void {
   expectSafe(res, label)
@@ -106,7 +109,7 @@ export function expectFieldRefusal(res: Reply, label: string, body?: unknown): v
     return
   }
   expect(res.status, `${label} → ${JSON.stringify(res.body)?.slice(0, 400)}`).toBe(400)
-  if (body !== undefined && h3RefusesJson(JSON.stringify(body))) expect(res.body.message, label).toMatch(/^body: is not valid JSON/)
+  if (body !== undefined && bodyReaderRefuses(JSON.stringify(body))) expect(res.body.message, label).toMatch(/^body: is not valid JSON/)
   else expect(res.body.message, label).toMatch(/^[\w.-]+: \S/)
 }
 
