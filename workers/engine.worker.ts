@@ -16,6 +16,7 @@ import { SensitivityRequestSchema, SweepRequestSchema } from '../shared/schemas/
 import type { HydrologyDto } from '../shared/schemas/flowRecord'
 import { fdcChartPoints } from '../shared/utils/fdcChart'
 import { InputError, validator } from '../server/utils/validate'
+import { parseSafeJson } from '../shared/utils/safeJson'
 
 /**
  * One piece of engine work. `body` is a request body as received (undefined when there was none);
@@ -59,18 +60,12 @@ export type EngineOutcome<T = unknown> =
   | { ok: false; status: 400 | 422; statusMessage: string; message: string; issues: FieldIssue[] }
   | { ok: false; status: 500; message: string }
 
-/** Keys refused anywhere in a JSON body, as server/utils/body.ts refuses them: they could reach an object's prototype when copied. */
-const UNSAFE_KEYS = new Set(['__proto__', 'constructor', 'prototype'])
-
 class BrokenJson extends Error {}
 
 function parseBody(text: string | undefined): unknown {
   if (text === undefined) return undefined
   try {
-    return JSON.parse(text, (key, value: unknown) => {
-      if (UNSAFE_KEYS.has(key)) throw new Error('unsafe key')
-      return value
-    })
+    return parseSafeJson(text)
   } catch {
     throw new BrokenJson('body: is not valid JSON, or holds a key such as "__proto__" or "constructor" that is refused')
   }

@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
 import type { ZodType } from 'zod'
+import { parseSafeJson } from '../../shared/utils/safeJson'
 
 // Request bodies, read with a limit counted on the bytes actually received. Every route that takes a
 // body names its limit where it reads it (one of BODY_LIMITS), so a body is only read after the
@@ -155,16 +156,10 @@ export async function readJsonText(event: H3Event, limit: number): Promise<strin
   return text.trim() ? text : undefined
 }
 
-/** Keys refused anywhere in a JSON body: they could reach an object's prototype when copied. */
-const UNSAFE_KEYS = new Set(['__proto__', 'constructor', 'prototype'])
-
 /** Parses JSON text, refusing prototype keys; 400 naming the body when it cannot be read. */
 export function parseJsonBody(text: string): unknown {
   try {
-    return JSON.parse(text, (key, value: unknown) => {
-      if (UNSAFE_KEYS.has(key)) throw new Error('unsafe key')
-      return value
-    })
+    return parseSafeJson(text)
   } catch {
     throw createError({
       statusCode: 400,
