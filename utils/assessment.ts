@@ -40,9 +40,10 @@ export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headlin
 export const FLAG_TITLES: Record<FlagId, string> = {
   'cavitation': 'Cavitation at the throat',
   'gas-supersaturation': 'Gas supersaturation',
-  'oxygen-below-target': 'Oxygen below the target',
-  'net-oxygen-loss': 'Net oxygen loss',
-  'head-limited-never-runs': 'Units never run',
+  'scheme-below-target': 'Scheme keeps the river below target',
+  'net-oxygen-loss': 'Oxygen cost to the river',
+  'oxygen-below-target': 'River below the oxygen target',
+  'never-runs': 'Units never run',
 }
 
 /** Plain names of the oxygen methods. */

@@ -13,6 +13,7 @@ export const OPTION_GROUPS = [
   { id: 'losses', title: 'Constriction and losses', note: 'The kind of constriction and the losses on the water path.' },
   { id: 'air', title: 'Air pipe and air pump', note: 'The pipe that carries air down to each throat, and how well the throat pumps it.' },
   { id: 'turbine', title: 'Turbine and generator', note: 'The air turbine on the bank and its generator, per unit.' },
+  { id: 'operation', title: 'How the units are run', note: 'The head pool is always held near its level: a unit opens only when the river can feed it there, and only while it draws air and makes power. Choose whether the river comes first, and any months the units must stay shut (a consent may require it).' },
   { id: 'money', title: 'Costs and money', note: 'All money defaults are illustrative: replace them with the project\'s own figures.' },
   { id: 'settings', title: 'Engine settings', note: 'Safety limits, oxygen transfer and availability used by this option\'s assessments. The downstream oxygen target is the site\'s own.' },
 ] as const
@@ -32,7 +33,8 @@ export interface OptionField {
   /** Unit shown beside the value; '–' for a pure number. */
   unit: string
   group: OptionGroupId
-  kind: 'number' | 'select'
+  /** `months`: a set of calendar months, held in the draft as text such as "6,7,8,9". */
+  kind: 'number' | 'select' | 'months'
   /** Whole numbers only. */
   integer?: boolean
   /** The default in force for this draft (some depend on the constriction type); null when the field has none. */
@@ -65,18 +67,12 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'design.throatDiameter_m', label: 'Throat diameter', unit: 'm', group: 'geometry', kind: 'number' },
   { path: 'design.outletDiameter_m', label: 'Outlet diameter', unit: 'm', group: 'geometry', kind: 'number', hint: 'at least the throat diameter' },
   { path: 'design.throatDepth_m', label: 'Throat submergence', unit: 'm', group: 'geometry', kind: 'number', hint: 'depth of the throat centreline below the tail-pool surface' },
-  {
-    path: 'design.staging', label: 'Staging', unit: '–', group: 'geometry', kind: 'select',
-    choices: [{ value: 'sequential', label: 'Units start one after another' }, { value: 'shared', label: 'Flow shared by all units' }],
-    hint: 'how units share a low flow',
-  },
   { path: 'design.constriction', label: 'Constriction type', unit: '–', group: 'losses', kind: 'select', choices: CONSTRICTIONS },
   { path: 'design.inletLoss', label: 'Inlet loss coefficient k_in', unit: '–', group: 'losses', kind: 'number', defaultOf: fixed(DEFAULTS.inletLoss), hint: 'on the throat velocity head' },
   { path: 'design.diffuserEfficiency', label: 'Diffuser efficiency η_d', unit: 'fraction', group: 'losses', kind: 'number', defaultOf: byConstriction(DIFFUSER_EFFICIENCY), hint: 'share of the ideal pressure recovery' },
   { path: 'design.flowCoefficient', label: 'Flow coefficient C', unit: '–', group: 'losses', kind: 'number', defaultOf: byConstriction(FLOW_COEFFICIENT) },
   { path: 'design.diffuserLength_m', label: 'Diffuser length', unit: 'm', group: 'losses', kind: 'number', blankMeans: 'a cone of the diffuser half-angle set below' },
   { path: 'settings.diffuserHalfAngle_deg', label: 'Diffuser half-angle', unit: '°', group: 'losses', kind: 'number', defaultOf: fixed(DEFAULTS.diffuserHalfAngle), hint: 'used when no diffuser length is given' },
-  { path: 'design.minUnitFlowFraction', label: 'Minimum unit flow', unit: 'fraction', group: 'losses', kind: 'number', defaultOf: fixed(DEFAULTS.minUnitFlowFraction), hint: 'of unit capacity; below it a unit stops' },
   { path: 'design.air.pipeDiameter_m', label: 'Air pipe diameter', unit: 'm', group: 'air', kind: 'number' },
   { path: 'design.air.pipeLength_m', label: 'Air pipe length', unit: 'm', group: 'air', kind: 'number' },
   { path: 'design.air.pipeLossK', label: 'Air pipe fittings loss K', unit: '–', group: 'air', kind: 'number', defaultOf: fixed(DEFAULTS.airPipeLossK) },
@@ -87,6 +83,13 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'design.turbine.generatorEfficiency', label: 'Generator efficiency', unit: 'fraction', group: 'turbine', kind: 'number', defaultOf: fixed(DEFAULTS.generatorEfficiency) },
   { path: 'design.turbine.ratedPower_kW', label: 'Rated electrical power per unit', unit: 'kW', group: 'turbine', kind: 'number', blankMeans: 'sized to the design point' },
   { path: 'design.turbine.cutInFraction', label: 'Turbine cut-in', unit: 'fraction', group: 'turbine', kind: 'number', defaultOf: fixed(DEFAULTS.turbineCutInFraction), hint: 'of the rating' },
+  {
+    path: 'design.operation.mode', label: 'Operating mode', unit: '–', group: 'operation', kind: 'select',
+    choices: [{ value: 'energy-first', label: 'Energy first: every unit that can run does' }, { value: 'river-first', label: 'River first: never at the river\'s oxygen cost' }],
+    hint: 'river first shuts a unit wherever running it would cost the river more oxygen than the acceptable loss, or lower it while the river is below its target',
+  },
+  { path: 'design.operation.allowedDrawdown_m', label: 'Allowed head-pool drawdown', unit: 'm', group: 'operation', kind: 'number', defaultOf: fixed(DEFAULTS.allowedDrawdown), hint: 'how far below its ordinary level the head pool may fall while units run' },
+  { path: 'design.operation.closedMonths', label: 'Closed months', unit: '–', group: 'operation', kind: 'months', blankMeans: 'no closed month', hint: 'every unit stays shut in these months' },
   { path: 'design.costs.fixedCost', label: 'Fixed cost', unit: 'currency', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.fixedCost), hint: 'connection, design, consents' },
   { path: 'design.costs.costPerKw', label: 'Cost per kW of rating', unit: 'currency/kW', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.costPerKw) },
   { path: 'design.costs.civilsPerUnit', label: 'Civil works per unit', unit: 'currency/unit', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.civilsPerUnit) },
@@ -97,6 +100,7 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'settings.gridFactor', label: 'Grid emission factor', unit: 't CO₂/MWh', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.gridFactor) },
   { path: 'settings.availability', label: 'Availability', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.availability), hint: PERCENT_NOTE },
   { path: 'settings.minCavitationMargin_m', label: 'Least cavitation margin', unit: 'm', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.minCavitationMargin) },
+  { path: 'settings.acceptableOxygenLoss_mgL', label: 'Acceptable net oxygen loss', unit: 'mg/L', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.acceptableOxygenLoss), hint: 'a loss beyond this is a river caution; the regulator\'s figure replaces it' },
   { path: 'settings.tdgLimit', label: 'Total dissolved gas limit', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.tdgLimit), hint: 'of saturation: 1.10 means 110 %' },
   {
     path: 'settings.oxygenMethod', label: 'Oxygen method for the summary', unit: '–', group: 'settings', kind: 'select',
@@ -116,7 +120,7 @@ export const OPTION_FIELDS: readonly OptionField[] = [
 
 /** Select fields with the value a blank draft starts at (the schema's default). */
 const SELECT_DEFAULTS: Record<string, string> = {
-  'design.staging': 'sequential',
+  'design.operation.mode': 'energy-first',
   'design.constriction': 'venturi',
   'settings.oxygenMethod': 'field-transfer',
 }
@@ -149,7 +153,7 @@ function setPath(obj: Record<string, unknown>, keys: string[], value: unknown) {
 /** An empty draft: every field blank (defaults apply), selects at their schema default. */
 export function blankOptionDraft(name = ''): OptionDraft {
   const values: Record<string, DraftValue> = {}
-  for (const f of OPTION_FIELDS) values[f.path] = f.kind === 'select' ? (SELECT_DEFAULTS[f.path] ?? null) : null
+  for (const f of OPTION_FIELDS) values[f.path] = f.kind === 'select' ? (SELECT_DEFAULTS[f.path] ?? null) : f.kind === 'months' ? '' : null
   return { name, notes: '', values }
 }
 
@@ -161,6 +165,7 @@ export function draftFromOption(o: Pick<OptionDto, 'name' | 'notes' | 'design' |
   for (const f of OPTION_FIELDS) {
     const v = getPath(source[f.path.split('.')[0] as 'design' | 'settings'], f.path)
     if (typeof v === 'number' || typeof v === 'string') draft.values[f.path] = v
+    else if (f.kind === 'months' && Array.isArray(v)) draft.values[f.path] = monthsText(v as number[])
   }
   return draft
 }
@@ -173,6 +178,10 @@ export function bodyFromDraft(draft: OptionDraft): Record<string, unknown> {
   const body: Record<string, unknown> = { name: draft.name, notes: draft.notes, design: { air: {} }, settings: {} }
   for (const f of OPTION_FIELDS) {
     const v = draft.values[f.path]
+    if (f.kind === 'months') {
+      setPath(body, f.path.split('.'), monthsOfText(typeof v === 'string' ? v : ''))
+      continue
+    }
     if (v === null || v === undefined || v === '') {
       if (f.path === 'design.turbine.ratedPower_kW') setPath(body, f.path.split('.'), null)
       continue
@@ -180,6 +189,16 @@ export function bodyFromDraft(draft: OptionDraft): Record<string, unknown> {
     setPath(body, f.path.split('.'), v)
   }
   return body
+}
+
+/** A set of months as the draft holds it: sorted month numbers joined by commas ("6,7,8,9"), '' for none. */
+export function monthsText(months: readonly number[]): string {
+  return [...new Set(months)].sort((a, b) => a - b).join(',')
+}
+
+/** The month numbers of a draft's text (anything that is not a whole number is kept for the schema to refuse). */
+export function monthsOfText(text: string): number[] {
+  return text.split(',').map((t) => t.trim()).filter((t) => t !== '').map(Number)
 }
 
 /** Errors of a draft by field path, checked by the server's own schema; null errors when it passes. */

@@ -75,17 +75,6 @@ export function rangesAround(d: { throatDiameter_m: number; units: number; throa
   }
 }
 
-/** Most annual energy among the points with every safety flag clear (ties: more net oxygen), as shared/engine/sweep.ts picks it. */
-export function bestSafePoint(points: readonly SweepPoint[]): SweepPoint | null {
-  return points
-    .filter((p) => p.safe && p.annualEnergy_MWh > 0)
-    .reduce<SweepPoint | null>((b, p) => {
-      if (b === null || p.annualEnergy_MWh > b.annualEnergy_MWh) return p
-      if (p.annualEnergy_MWh === b.annualEnergy_MWh && p.netOxygenGainSummerLowFlow_mgL > b.netOxygenGainSummerLowFlow_mgL) return p
-      return b
-    }, null)
-}
-
 /** Messages between the page and workers/sweep.worker.ts. */
 export type SweepWorkerRequest = { input: AssessInput; grid: SweepGrid }
 

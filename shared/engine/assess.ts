@@ -2,16 +2,17 @@
 // shape is in results.ts, the flags and their plain-language reasons in flags.ts.
 import type { AssessInput } from '../schemas/assess'
 import { defaultsUsed } from './defaultsUsed'
-import { annualEnergyFromFdc, annualEnergyFromRecord, DAYS_IN_MONTH, tabulatedPower, type AnnualEnergy, type PowerAt, type PowerSample } from './energy'
+import type { AnnualEnergy } from './energy'
 import {
   exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, monthOfDay, reservedFlow,
-  scaleFdcByAreaRatio, scaleRecordByAreaRatio, type DailyFlow, type Fdc,
+  scaleFdcByAreaRatio, scaleRecordByAreaRatio,
 } from './hydrology'
 import { moneySummary } from './money'
-import { buildScheme, flowState, powerSample, powerState, type Conditions, type FlowState, type PowerState, type Scheme } from './scheme'
-import { unitTotalDissolvedGas } from './schemeOxygen'
-import { buildFlags, NET_LOSS_TOLERANCE_mgL, type Running } from './flags'
-import type { AssessResult, FlagId, MethodsComparison, MonthRow, PerFlowRow, SummerLowFlow } from './results'
+import { buildScheme, flowState, powerState, type Conditions, type FlowState, type Scheme } from './scheme'
+import { buildFlags } from './flags'
+import type { AssessResult, MethodsComparison, ModeFigures, MonthRow, PerFlowRow, SummerLowFlow } from './results'
+import { recoveredFraction, throatAreaRatio } from './venturi'
+import { judgeYear, monthCurves, yearEnergy, type MonthCurve, type SiteHydrology, type YearJudgement } from './year'
 import { ENGINE_VERSION } from './version'
 import { MONTH_SHORT } from '../utils/months'
 
@@ -19,12 +20,6 @@ const PER_FLOW_EXCEEDANCES = [1, 5, 10, 20, 30, 40, 50, 60, 70, 80, 90, 95, 99] 
 const SUMMARY_GRID = 200
 
 const mean = (xs: readonly number[]): number => (xs.length ? xs.reduce((s, x) => s + x, 0) / xs.length : 0)
-
-/** The site's hydrology after gauge scaling: its FDC and, for a record, its days. */
-interface SiteHydrology {
-  fdc: Fdc
-  days: DailyFlow[] | null
-}
 
 function siteHydrology(input: AssessInput): SiteHydrology {
   const sc = input.gaugeScaling
@@ -36,7 +31,9 @@ function siteHydrology(input: AssessInput): SiteHydrology {
   return { fdc: sc ? scaleFdcByAreaRatio(fdc, sc.siteArea_km2, sc.gaugeArea_km2) : fdc, days: null }
 }
 
-function monthFlows(input: AssessInput, h: SiteHydrology): Array<{ flow: number, basis: MonthRow['flowBasis'] }> {
+/** The month table's flow for each month: the record's mean for the month, else the median of the month's curve. */
+function monthFlows(h: SiteHydrology, curves: readonly MonthCurve[]): Array<{ flow: number, basis: MonthRow['flowBasis'] }> {
+  const q50 = flowAtExceedance(h.fdc, 50)
   if (h.days) {
     const sum = new Array<number>(12).fill(0)
     const n = new Array<number>(12).fill(0)
@@ -46,43 +43,27 @@ function monthFlows(input: AssessInput, h: SiteHydrology): Array<{ flow: number,
       sum[m] = (sum[m] ?? 0) + d.flow
       n[m] = (n[m] ?? 0) + 1
     })
-    const q50 = flowAtExceedance(h.fdc, 50)
     return sum.map((s, m) => ((n[m] ?? 0) > 0 ? { flow: s / (n[m] ?? 1), basis: 'record-mean' as const } : { flow: q50, basis: 'annual-q50' as const }))
   }
-  const q50 = flowAtExceedance(h.fdc, 50)
-  const sc = input.gaugeScaling
-  const ratio = sc ? sc.siteArea_km2 / sc.gaugeArea_km2 : 1
-  return input.site.months.map((m) => (m.flow_m3s !== undefined ? { flow: m.flow_m3s * ratio, basis: 'entered' as const } : { flow: q50, basis: 'annual-q50' as const }))
+  return curves.map((c) => (c.basis === 'seasonal-profile' ? { flow: flowAtExceedance(c.curve, 50), basis: 'profile-median' as const } : { flow: q50, basis: 'annual-q50' as const }))
 }
 
-/** Mean annual conditions: the mean of the twelve months' temperature and upstream oxygen. */
+/** Mean annual conditions: the mean of the twelve months' temperature and upstream oxygen (month 0: never a closed month). */
 function annualConditions(input: AssessInput): Conditions {
   return {
+    month: 0,
     tC: mean(input.site.months.map((m) => m.temperature_C)),
     upstreamO2_mgL: mean(input.site.months.map((m) => m.upstreamOxygen_mgL)),
   }
 }
 
 function monthConditions(input: AssessInput): Conditions[] {
-  return input.site.months.map((m) => ({ tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
-}
-
-function energyOf(input: AssessInput, h: SiteHydrology, s: Scheme, annual: Conditions, months: Conditions[]): AnnualEnergy {
-  const stateAt = (flow: number, month: number): PowerSample => powerSample(s, flow, month === 0 ? annual : (months[month - 1] ?? annual))
-  const exact: PowerAt = (flow, month) => stateAt(flow, month).power
-  // A long record has a distinct flow almost every day: tabulate power over its range instead.
-  // The FDC's flows fall as exceedance rises: the first is the highest, the last positive the lowest.
-  const flows = h.fdc.flow
-  let last = flows.length - 1
-  while (last > 0 && !((flows[last] ?? 0) > 0)) last--
-  const opts = { ratingW: s.ratedPerUnit_W * input.option.units, availability: input.settings.availability }
-  if (!h.days) return annualEnergyFromFdc(h.fdc, exact, opts)
-  return annualEnergyFromRecord(h.days, tabulatedPower(stateAt, flows[last] ?? 0, flows[0] ?? 0), { ...opts, memoise: false })
+  return input.site.months.map((m, k) => ({ month: k + 1, tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
 }
 
 function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
   return {
-    exceedance, riverFlow_m3s: f.riverFlow_m3s, regime: f.regime, unitsRunning: f.unitsRunning, unitFlow_m3s: f.unitFlow_m3s,
+    exceedance, riverFlow_m3s: f.riverFlow_m3s, regime: f.regime, shutReason: f.shutReason, unitsRunning: f.unitsRunning, unitFlow_m3s: f.unitFlow_m3s,
     spill_m3s: f.spill_m3s, reservedFlow_m3s: f.reserved_m3s, grossHead_m: f.grossHead_m, workingHead_m: f.workingHead_m,
     throatVelocity_ms: f.throatVelocity_ms, suctionHead_m: f.suction_m, cavitationMargin_m: f.cavitationMargin_m,
     cavitationIndex: f.cavitationIndex, airFlow_m3s: f.airFlow_m3s, electricalPower_kW: f.electricalPower_W / 1000,
@@ -90,6 +71,37 @@ function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
     downstreamOxygenWith_mgL: f.oxygen.withScheme_mgL, netOxygenGain_mgL: f.oxygen.netGain_mgL,
     unitTotalDissolvedGas: f.oxygen.unitTdg,
   }
+}
+
+/** One operating mode run over the year: its scheme, energy, whole-year judgement and the month table's states. */
+interface YearRun {
+  s: Scheme
+  energy: AnnualEnergy
+  year: YearJudgement
+  monthStates: FlowState[]
+}
+
+function runYear(input: AssessInput, reserved: number, annual: Conditions, monthCond: Conditions[], h: SiteHydrology, curves: MonthCurve[], flows: Array<{ flow: number }>): YearRun {
+  const s = buildScheme(input, reserved, annual)
+  const energy = yearEnergy(input, h, s, monthCond, curves)
+  const year = judgeYear(s, monthCond, curves)
+  const monthStates = flows.map((f, m) => flowState(s, f.flow, monthCond[m] ?? annual))
+  return { s, energy, year, monthStates }
+}
+
+function modeFigures(r: YearRun): ModeFigures {
+  return {
+    annualEnergy_MWh: r.energy.annualEnergyMWh,
+    worstMonthNetGain_mgL: Math.min(...r.monthStates.map((f) => f.oxygen.netGain_mgL)),
+    worstNetGain_mgL: r.year.tallies['net-oxygen-loss'].worst?.value ?? 0,
+    meanNetGain_mgL: r.year.meanNetGain_mgL,
+  }
+}
+
+/** The same input run the other way (energy first ↔ river first). */
+function otherMode(input: AssessInput): AssessInput {
+  const mode = input.option.operation.mode === 'energy-first' ? 'river-first' : 'energy-first'
+  return { ...input, option: { ...input.option, operation: { ...input.option.operation, mode } } }
 }
 
 /** The warmest three months; of those, the one with the lowest month flow (summer low flow). */
@@ -102,44 +114,50 @@ function pickSummerLowFlow(rows: ReadonlyArray<{ month: number, temperature_C: n
   }
 }
 
-/** Assess one option at one site: per-flow table across the FDC, month table, annual energy, oxygen by both methods, flags, money. */
-export function assess(input: AssessInput): AssessResult {
+/** What an assessment works out beyond the option's own figures. */
+export interface AssessOptions {
+  /**
+   * Also run the other operating mode for the side-by-side comparison (default true). A sweep or a
+   * sensitivity run, which read only the option's own figures, pass false and get the option's
+   * own mode in both columns.
+   */
+  compareModes?: boolean
+}
+
+/** Assess one option at one site under its operating rule: per-flow table, month table, the year judged flow by flow, energy, both oxygen methods, both operating modes, flags, money. */
+export function assess(input: AssessInput, options: AssessOptions = {}): AssessResult {
   const st = input.settings
+  const o = input.option
   const h = siteHydrology(input)
   const reserved = reservedFlow(input.reservedFlow, h.fdc)
   const annual = annualConditions(input)
   const monthCond = monthConditions(input)
-  const s = buildScheme(input, reserved, annual)
-  const energy = energyOf(input, h, s, annual, monthCond)
-  const ratingW = s.ratedPerUnit_W * input.option.units
+  const curves = monthCurves(input, h)
+  const flows = monthFlows(h, curves)
+  const main = runYear(input, reserved, annual, monthCond, h, curves, flows)
+  const other = options.compareModes === false ? main : runYear(otherMode(input), reserved, annual, monthCond, h, curves, flows)
+  const { s, energy, year, monthStates } = main
+  const ratingW = s.ratedPerUnit_W * o.units
+  const closed = new Set(o.operation.closedMonths)
 
   const perFlow = PER_FLOW_EXCEEDANCES.map((p) => perFlowRow(p, flowState(s, flowAtExceedance(h.fdc, p), annual)))
-  const gridFlows = exceedanceGrid(SUMMARY_GRID).map((p) => flowAtExceedance(h.fdc, p))
-  // The summary grids need the power side everywhere but, of the oxygen side, only the total
-  // dissolved gas where units run (see unitTotalDissolvedGas).
-  const grid = gridFlows.map((q) => powerState(s, q, annual))
-  const warmest = monthCond.reduce((a, b) => (b.tC > a.tC ? b : a), monthCond[0] ?? annual)
-  const warmGrid = gridFlows.map((q) => powerState(s, q, warmest))
+  const grid = exceedanceGrid(SUMMARY_GRID).map((p) => powerState(s, flowAtExceedance(h.fdc, p), annual))
 
-  const flows = monthFlows(input, h)
-  const monthStates = flows.map((f, m) => flowState(s, f.flow, monthCond[m] ?? annual))
   const months: MonthRow[] = monthStates.map((fs, m) => {
     const c = monthCond[m] ?? annual
     const flowInfo = flows[m] ?? { flow: 0, basis: 'annual-q50' as const }
-    const recorded = energy.energyByMonthMWh[m]
-    const e = recorded ?? (fs.electricalPower_W * (DAYS_IN_MONTH[m] ?? 30) * 24 * st.availability) / 1e6
-    const flags: FlagId[] = []
-    if (fs.oxygen.withScheme_mgL < st.oxygenTarget_mgL) flags.push('oxygen-below-target')
-    if (fs.oxygen.netGain_mgL < -NET_LOSS_TOLERANCE_mgL) flags.push('net-oxygen-loss')
-    if (fs.unitsRunning > 0 && fs.oxygen.unitTdg > st.tdgLimit) flags.push('gas-supersaturation')
-    if (fs.unitsRunning > 0 && fs.cavitationMargin_m < st.minCavitationMargin_m) flags.push('cavitation')
+    const ym = year.months[m] ?? { runningShare: 0, lossShare: 0, worstNetGain_mgL: 0, flags: [] }
+    const curveBasis = curves[m]?.basis ?? 'annual-curve'
     return {
       month: m + 1, name: MONTH_SHORT[m] ?? String(m + 1), temperature_C: c.tC, flow_m3s: flowInfo.flow, flowBasis: flowInfo.basis,
+      curveBasis, closed: closed.has(m + 1),
       upstreamOxygen_mgL: c.upstreamO2_mgL, downstreamWithout_mgL: fs.oxygen.withoutScheme_mgL, downstreamWith_mgL: fs.oxygen.withScheme_mgL,
       downstreamFieldTransfer_mgL: fs.oxygen.withSchemeFieldTransfer_mgL, downstreamBubbleContact_mgL: fs.oxygen.withSchemeBubbleContact_mgL,
       netGain_mgL: fs.oxygen.netGain_mgL, target_mgL: st.oxygenTarget_mgL, unitTotalDissolvedGas: fs.oxygen.unitTdg,
-      cavitationMargin_m: fs.unitsRunning > 0 ? fs.cavitationMargin_m : null, flags, energy_MWh: e,
-      energyBasis: recorded === null || recorded === undefined ? 'month-flow' : 'record',
+      cavitationMargin_m: fs.unitsRunning > 0 ? fs.cavitationMargin_m : null, flags: ym.flags,
+      runningShare: ym.runningShare, lossShare: ym.lossShare, worstNetGain_mgL: ym.worstNetGain_mgL,
+      energy_MWh: energy.energyByMonthMWh[m] ?? 0,
+      energyBasis: h.days ? 'record' : curveBasis === 'seasonal-profile' ? 'month-curve' : 'annual-curve',
     }
   })
 
@@ -147,22 +165,14 @@ export function assess(input: AssessInput): AssessResult {
   // The summer low flow is one of the month rows (its flow and conditions), so its state is that row's.
   const slfState = monthStates[slf.month - 1] ?? flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
 
-  const runningStates: Running[] = [
-    ...warmGrid.filter((g) => g.unitsRunning > 0).map((g) => ({ state: g, tdg: unitTotalDissolvedGas(s, g, warmest) })),
-    ...grid.filter((g) => g.unitsRunning > 0).map((g) => ({ state: g, tdg: unitTotalDissolvedGas(s, g, annual) })),
-    ...monthStates.filter((g) => g.unitsRunning > 0).map((g) => ({ state: g, tdg: g.oxygen.unitTdg })),
-  ]
-  const worst = runningStates.reduce<PowerState | null>((w, g) => (w === null || g.state.cavitationMargin_m < w.cavitationMargin_m ? g.state : w), null)
-  const tdgWorst = runningStates.reduce<Running | null>((w, g) => (w === null || g.tdg > w.tdg ? g : w), null)
-  const maxTdg = tdgWorst ? tdgWorst.tdg : 0
-  const sigmas = runningStates.map((g) => g.state.cavitationIndex).filter((x): x is number => x !== null)
-
   const money = moneySummary({
-    ...input.option.costs, ratingW, units: input.option.units, annualEnergyMWh: energy.annualEnergyMWh,
+    ...o.costs, ratingW, units: o.units, annualEnergyMWh: energy.annualEnergyMWh,
     opexFraction: st.opexFraction, discountRate: st.discountRate, lifeYears: st.lifeYears, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
   })
 
-  const flags = buildFlags({ s, worst, tdgWorst, maxTdg, months, slfGain: slfState.oxygen.netGain_mgL, slf, energy, grid })
+  const flags = buildFlags({ s, year, energy, grid })
+  const worstCav = year.worstCavitation
+  const worstTdg = year.worstTdg
 
   const ft = slfState.oxygen
   const methods: MethodsComparison = {
@@ -174,6 +184,9 @@ export function assess(input: AssessInput): AssessResult {
     },
   }
 
+  const energyFirst = o.operation.mode === 'energy-first' ? main : other
+  const riverFirst = o.operation.mode === 'energy-first' ? other : main
+  const g = s.geometry
   return {
     summary: {
       annualEnergy_MWh: energy.annualEnergyMWh,
@@ -181,12 +194,15 @@ export function assess(input: AssessInput): AssessResult {
       fullLoadHours: energy.fullLoadHours,
       ratedPower_kW: ratingW / 1000,
       ratingSizedToDesign: s.ratingSizedToDesign,
-      meanAirFlow_m3s: mean(grid.map((g) => g.airFlow_m3s)),
-      peakAirFlow_m3s: Math.max(0, ...grid.map((g) => g.airFlow_m3s)),
-      minCavitationMargin_m: worst ? worst.cavitationMargin_m : null,
-      minCavitationIndex: sigmas.length ? Math.min(...sigmas) : null,
-      maxUnitTotalDissolvedGas: maxTdg,
+      meanAirFlow_m3s: year.meanAirFlow_m3s,
+      peakAirFlow_m3s: year.peakAirFlow_m3s,
+      minCavitationMargin_m: worstCav ? worstCav.cavitationMargin_m : null,
+      minCavitationIndex: year.minCavitationIndex,
+      maxUnitTotalDissolvedGas: worstTdg ? worstTdg.oxygen.unitTdg : 0,
       netOxygenGainSummerLowFlow_mgL: slfState.oxygen.netGain_mgL,
+      meanNetOxygenGain_mgL: year.meanNetGain_mgL,
+      worstNetOxygenGain_mgL: year.tallies['net-oxygen-loss'].worst?.value ?? 0,
+      recoveredFraction: recoveredFraction(g.inletLoss, g.diffuserEfficiency, throatAreaRatio(g)),
       summerLowFlow: slf,
       lcoe: money.lcoe,
       flags,
@@ -194,6 +210,12 @@ export function assess(input: AssessInput): AssessResult {
     perFlow,
     months,
     methods,
+    operation: {
+      mode: o.operation.mode, allowedDrawdown_m: o.operation.allowedDrawdown_m, closedMonths: [...o.operation.closedMonths].sort((a, b) => a - b),
+      runningShare: year.runningShare, modesCompared: other !== main, energyFirst: modeFigures(energyFirst), riverFirst: modeFigures(riverFirst),
+      energyGivenUpForRiver_MWh: energyFirst.energy.annualEnergyMWh - riverFirst.energy.annualEnergyMWh,
+      basis: year.basis,
+    },
     hydrology: {
       ...fdcStats(h.fdc), reservedFlow_m3s: reserved, basis: h.days ? 'record' : 'fdc',
       daysWithData: h.days ? h.fdc.count : null,

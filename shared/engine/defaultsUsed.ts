@@ -23,7 +23,7 @@ export function defaultsUsed(input: AssessInput): DefaultUsed[] {
   check('option.diffuserEfficiency', o.diffuserEfficiency, DIFFUSER_EFFICIENCY[o.constriction])
   check('option.flowCoefficient', o.flowCoefficient, FLOW_COEFFICIENT[o.constriction])
   if (o.diffuserLength_m === undefined) check('settings.diffuserHalfAngle_deg', st.diffuserHalfAngle_deg, DEFAULTS.diffuserHalfAngle)
-  check('option.minUnitFlowFraction', o.minUnitFlowFraction, DEFAULTS.minUnitFlowFraction)
+  check('option.operation.allowedDrawdown_m', o.operation.allowedDrawdown_m, DEFAULTS.allowedDrawdown)
   check('option.air.pipeLossK', o.air.pipeLossK, DEFAULTS.airPipeLossK)
   check('option.air.frictionFactor', o.air.frictionFactor, DEFAULTS.airPipeFrictionFactor)
   check('option.air.jetPumpEfficiency', o.air.jetPumpEfficiency, DEFAULTS.jetPumpEfficiency)
@@ -48,6 +48,7 @@ export function defaultsUsed(input: AssessInput): DefaultUsed[] {
     ['beta', st.beta, DEFAULTS.beta],
     ['theta', st.theta, DEFAULTS.theta],
     ['oxygenTarget_mgL', st.oxygenTarget_mgL, DEFAULTS.oxygenTarget],
+    ['acceptableOxygenLoss_mgL', st.acceptableOxygenLoss_mgL, DEFAULTS.acceptableOxygenLoss],
     ['tdgLimit', st.tdgLimit, DEFAULTS.tdgLimit],
     ['upstreamNitrogenSaturation', st.upstreamNitrogenSaturation, DEFAULTS.upstreamNitrogenSaturation],
     ['bubbleDiameter_m', st.bubbleDiameter_m, DEFAULTS.bubbleDiameter],

@@ -1,95 +1,91 @@
-// The flags an assessment raises or clears, each with its reason in plain words either way.
+// The flags an assessment raises or clears, judged over the whole year (year.ts), each with its share
+// of time, its worst value and when, and its reason in plain words either way.
 import type { AnnualEnergy } from './energy'
-import type { MonthRow, Flag, SummerLowFlow } from './results'
+import type { Flag, FlagId, FlagLevel, FlagWorst } from './results'
 import type { PowerState, Scheme } from './scheme'
+import type { YearJudgement } from './year'
 
 /** A net oxygen change smaller than this, mg/L, counts as none (rounding, not a loss). */
 export const NET_LOSS_TOLERANCE_mgL = 0.01
 
 const fmt = (x: number, digits = 2): string => x.toFixed(digits)
+const pct = (share: number): string => (share > 0 && share < 0.005 ? 'under 1 %' : `${(share * 100).toFixed(0)} %`)
+const when = (w: FlagWorst): string => `${fmt(w.flow_m3s)} m³/s in ${w.monthName} (a flow exceeded ${w.exceedance.toFixed(1)} % of that month)`
 
 /** Why the units make no energy, in plain words. */
 function neverRunsReason(s: Scheme, grid: PowerState[]): string {
   const running = grid.filter((g) => g.unitsRunning > 0)
+  const o = s.input.option
   if (!(s.input.site.grossHead_m > 0) && s.input.site.headTable.every((p) => !(p.head_m > 0))) return 'The site has no head, so no water can be driven through the units.'
-  if (running.length === 0) return `The river never carries more than the reserved flow (${fmt(s.reserved_m3s, 3)} m³/s) plus the minimum flow a unit needs, so the units never start.`
-  if (running.every((g) => g.suction_m <= 0)) {
-    const best = Math.max(...running.map((g) => g.suction_m + s.input.option.throatDepth_m))
-    return `The throat is ${fmt(s.input.option.throatDepth_m)} m below the tail pool but the diffuser recovers at most ${fmt(best)} m of head, so the throat never drops below atmospheric pressure and draws no air. Raise the throat or use a better diffuser.`
+  if (running.length > 0) return 'Air flows, but the units make no energy over the year.'
+  const reasons = new Set(grid.map((g) => g.shutReason))
+  if (o.operation.closedMonths.length === 12) return 'Every month is closed by the operating rule, so the units never run.'
+  if (reasons.has('no-suction')) {
+    return `The throat is ${fmt(o.throatDepth_m)} m below the tail pool and the diffuser does not recover enough head to pull it below atmospheric pressure, so the units would draw no air and stay shut. Raise the throat or use a better diffuser.`
   }
-  if (running.every((g) => g.electricalPower_W === 0)) return 'Air flows, but the turbine never reaches its cut-in power, so no electricity is made.'
-  return 'The units make no energy over the flow-duration curve.'
+  if (reasons.has('below-cut-in')) return 'Air would flow, but the turbine never reaches its cut-in power, so the units stay shut.'
+  if (reasons.has('river-first')) return 'Running the units would always cost the river more oxygen than is acceptable, so river-first operation keeps them shut.'
+  return `The river never carries enough water beyond the reserved flow (${fmt(s.reserved_m3s, 3)} m³/s) to feed one unit at the head-pool level, so the units never start.`
 }
 
-/** A state where units run, with the total dissolved gas of their discharge. */
-export interface Running {
-  state: PowerState
-  tdg: number
-}
-
+/** What buildFlags needs. */
 export interface FlagContext {
   s: Scheme
-  worst: PowerState | null
-  tdgWorst: Running | null
-  maxTdg: number
-  months: MonthRow[]
-  slfGain: number
-  slf: SummerLowFlow
+  year: YearJudgement
   energy: AnnualEnergy
+  /** Power states at the year's mean conditions over the annual curve, for the never-runs reason. */
   grid: PowerState[]
 }
 
+function flag(id: FlagId, level: FlagLevel, raised: boolean, shareOfTime: number | null, worst: FlagWorst | null, reason: string): Flag {
+  return { id, raised, level, safety: level === 'safety', shareOfTime, worst, reason }
+}
+
+/** The six flags, from the whole-year judgement. */
 export function buildFlags(c: FlagContext): Flag[] {
   const st = c.s.input.settings
-  const thr = st.minCavitationMargin_m
+  const y = c.year
+  const t = y.tallies
+  const never = !(c.energy.annualEnergyMWh > 0)
   const flags: Flag[] = []
 
-  if (c.worst === null) {
-    flags.push({ id: 'cavitation', raised: false, safety: true, reason: 'The units never run, so the throat never sees suction.' })
-  } else {
-    const w = c.worst
-    const raised = w.cavitationMargin_m < thr
-    flags.push({
-      id: 'cavitation', raised, safety: true,
-      reason: raised
-        ? `At ${fmt(w.riverFlow_m3s)} m³/s river flow the throat would hold ${fmt(w.suction_m)} m of suction with the air valve shut, leaving only ${fmt(w.cavitationMargin_m)} m before the water boils (keep at least ${fmt(thr)} m, common practice). The throat can cavitate: set it deeper or lower the head it works on.`
-        : `The smallest cavitation margin is ${fmt(w.cavitationMargin_m)} m (at ${fmt(w.riverFlow_m3s)} m³/s), above the ${fmt(thr)} m kept as a minimum.`,
-    })
-  }
+  const cav = t['cavitation']
+  const thr = st.minCavitationMargin_m
+  flags.push(flag('cavitation', 'safety', cav.share > 0, cav.worst ? cav.share : null, cav.worst,
+    cav.worst === null
+      ? 'The units never run, so the throat never sees suction.'
+      : cav.share > 0
+        ? `For ${pct(cav.share)} of the year the throat would hold so much suction with the air valve shut that fewer than ${fmt(thr)} m (common practice) are left before the water boils; worst ${fmt(cav.worst.value)} m at ${when(cav.worst)}. The throat can cavitate: set it deeper or lower the head it works on.`
+        : `The smallest cavitation margin is ${fmt(cav.worst.value)} m (at ${when(cav.worst)}), above the ${fmt(thr)} m kept as a minimum.`))
 
-  const tdgRaised = c.maxTdg > st.tdgLimit
-  flags.push({
-    id: 'gas-supersaturation', raised: tdgRaised, safety: true,
-    reason: c.tdgWorst === null
+  const tdg = t['gas-supersaturation']
+  flags.push(flag('gas-supersaturation', 'safety', tdg.share > 0, tdg.worst ? tdg.share : null, tdg.worst,
+    tdg.worst === null
       ? 'The units never run, so they add no dissolved gas.'
-      : tdgRaised
-        ? `Water leaving the units could carry ${fmt(c.maxTdg * 100, 0)} % total dissolved gas (at ${fmt(c.tdgWorst.state.riverFlow_m3s)} m³/s), above the ${fmt(st.tdgLimit * 100, 0)} % limit. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
-        : `Water leaving the units carries at most ${fmt(c.maxTdg * 100, 0)} % total dissolved gas, within the ${fmt(st.tdgLimit * 100, 0)} % limit.`,
-  })
+      : tdg.share > 0
+        ? `For ${pct(tdg.share)} of the year water leaving the units carries more than ${fmt(st.tdgLimit * 100, 0)} % total dissolved gas; worst ${fmt(tdg.worst.value, 0)} % at ${when(tdg.worst)}. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
+        : `Water leaving the units carries at most ${fmt(tdg.worst.value, 0)} % total dissolved gas (at ${when(tdg.worst)}), within the ${fmt(st.tdgLimit * 100, 0)} % limit.`))
 
-  const below = c.months.filter((m) => m.flags.includes('oxygen-below-target'))
-  flags.push({
-    id: 'oxygen-below-target', raised: below.length > 0, safety: false,
-    reason: below.length > 0
-      ? `Below the weir the river stays under the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target in ${below.map((m) => m.name).join(', ')}, even with the scheme.`
-      : `Below the weir the river meets the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target in every month.`,
-  })
+  const pushed = t['scheme-below-target']
+  flags.push(flag('scheme-below-target', 'safety', pushed.share > 0, pushed.share, pushed.worst,
+    pushed.share > 0 && pushed.worst
+      ? `For ${pct(pushed.share)} of the year the scheme pushes or keeps the river below the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target by taking oxygen it would otherwise get at the weir; lowest ${fmt(pushed.worst.value)} mg/L at ${when(pushed.worst)}. Run the units river first, close the months concerned, or change the design.`
+      : `The scheme never pushes or keeps the river below the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target.`))
 
-  const losing = c.months.filter((m) => m.flags.includes('net-oxygen-loss'))
-  const slfLoss = c.slfGain < -NET_LOSS_TOLERANCE_mgL
-  const lossRaised = losing.length > 0 || slfLoss
-  const worstLoss = Math.min(c.slfGain, ...c.months.map((m) => m.netGain_mgL))
-  flags.push({
-    id: 'net-oxygen-loss', raised: lossRaised, safety: true,
-    reason: lossRaised
-      ? `With the scheme the river would carry less oxygen than without it (down to ${fmt(worstLoss)} mg/L${losing.length ? ` in ${losing.map((m) => m.name).join(', ')}` : ' at summer low flow'}): water taken through the units misses the aeration it gets falling over the weir, and the units do not give it back.`
-      : `The scheme never leaves the river with less oxygen than the weir alone gives (summer low flow: ${c.slfGain >= 0 ? '+' : ''}${fmt(c.slfGain)} mg/L).`,
-  })
+  const loss = t['net-oxygen-loss']
+  const acceptable = st.acceptableOxygenLoss_mgL
+  flags.push(flag('net-oxygen-loss', 'river', loss.share > 0, loss.share, loss.worst,
+    loss.share > 0 && loss.worst
+      ? `For ${pct(loss.share)} of the year the river below the weir carries more than ${fmt(acceptable)} mg/L less oxygen with the scheme than without it (worst ${fmt(loss.worst.value)} mg/L at ${when(loss.worst)}): water taken through the units misses the aeration it gets falling over the weir, and the units do not give it all back.`
+      : `The scheme never costs the river more than the acceptable ${fmt(acceptable)} mg/L of oxygen${loss.worst ? ` (worst change ${loss.worst.value >= 0 ? '+' : ''}${fmt(loss.worst.value)} mg/L, at ${when(loss.worst)})` : ''}.`))
 
-  const never = !(c.energy.annualEnergyMWh > 0)
-  flags.push({
-    id: 'head-limited-never-runs', raised: never, safety: false,
-    reason: never ? neverRunsReason(c.s, c.grid) : `The units make ${fmt(c.energy.annualEnergyMWh, 1)} MWh in an average year.`,
-  })
+  const below = t['oxygen-below-target']
+  flags.push(flag('oxygen-below-target', 'note', below.share > 0, below.share, below.worst,
+    below.share > 0 && below.worst
+      ? `For ${pct(below.share)} of the year the river below the weir is under the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target, scheme or not; lowest ${fmt(below.worst.value)} mg/L at ${when(below.worst)}.`
+      : `Below the weir the river meets the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target all year${below.worst ? ` (lowest ${fmt(below.worst.value)} mg/L, at ${when(below.worst)})` : ''}.`))
+
+  flags.push(flag('never-runs', 'note', never, null, null,
+    never ? neverRunsReason(c.s, c.grid) : `The units run ${pct(y.runningShare)} of the year and make ${fmt(c.energy.annualEnergyMWh, 1)} MWh in an average year.`))
   return flags
 }

@@ -6,14 +6,37 @@ import type { FdcStats } from './hydrology'
 import type { FlowState } from './scheme'
 
 /** Names of the flags an assessment raises. */
-export type FlagId = 'cavitation' | 'gas-supersaturation' | 'oxygen-below-target' | 'net-oxygen-loss' | 'head-limited-never-runs'
+export type FlagId = 'cavitation' | 'gas-supersaturation' | 'scheme-below-target' | 'net-oxygen-loss' | 'oxygen-below-target' | 'never-runs'
+
+/**
+ * How serious a raised flag is: `safety` is harm to people, plant or fish (red); `river` is a cost to
+ * the river's oxygen the regulator will weigh (amber); `note` is for information.
+ */
+export type FlagLevel = 'safety' | 'river' | 'note'
+
+/** The worst value a flag met over the year, and when. */
+export interface FlagWorst {
+  value: number
+  unit: string
+  /** Calendar month 1–12. */
+  month: number
+  monthName: string
+  flow_m3s: number
+  /** % of the month's time that flow is equalled or exceeded. */
+  exceedance: number
+}
 
 /** One flag, raised or clear, with a plain-language reason either way. */
 export interface Flag {
   id: FlagId
   raised: boolean
-  /** True for flags about harm (to people, plant or fish); the sweep keeps these clear. */
+  level: FlagLevel
+  /** True for `safety` flags; the sweep keeps these clear. */
   safety: boolean
+  /** Share of the year (0–1) the flag is raised; null for a flag about the whole scheme. */
+  shareOfTime: number | null
+  /** Worst value over the year and when; null where it does not apply (units never run). */
+  worst: FlagWorst | null
   reason: string
 }
 
@@ -23,6 +46,8 @@ export interface PerFlowRow {
   exceedance: number
   riverFlow_m3s: number
   regime: FlowState['regime']
+  /** Why units the water could feed stay shut here (null when all it can feed run). */
+  shutReason: FlowState['shutReason']
   unitsRunning: number
   unitFlow_m3s: number
   spill_m3s: number
@@ -48,7 +73,12 @@ export interface MonthRow {
   name: string
   temperature_C: number
   flow_m3s: number
-  flowBasis: 'record-mean' | 'entered' | 'annual-q50'
+  /** The month's flow: the record's mean for the month, the median of the curve scaled by the seasonal profile, or the annual median (no profile). */
+  flowBasis: 'record-mean' | 'profile-median' | 'annual-q50'
+  /** Where the month's curve comes from (its days, the seasonal profile, or the annual curve). */
+  curveBasis: 'record' | 'seasonal-profile' | 'annual-curve'
+  /** True when the option's operating rule shuts every unit this month. */
+  closed: boolean
   upstreamOxygen_mgL: number
   downstreamWithout_mgL: number
   downstreamWith_mgL: number
@@ -58,9 +88,45 @@ export interface MonthRow {
   target_mgL: number
   unitTotalDissolvedGas: number
   cavitationMargin_m: number | null
+  /** Flags raised at any flow of the month's curve. */
   flags: FlagId[]
+  /** Share of the month at least one unit runs. */
+  runningShare: number
+  /** Share of the month with a net oxygen loss beyond the acceptable one. */
+  lossShare: number
+  /** Worst net oxygen change over the month's curve, mg/L. */
+  worstNetGain_mgL: number
   energy_MWh: number
-  energyBasis: 'record' | 'month-flow'
+  /** `record`: the month's days; `month-curve`: the month's scaled curve; `annual-curve`: the annual curve at this month's conditions (no seasonal profile). */
+  energyBasis: 'record' | 'month-curve' | 'annual-curve'
+}
+
+/** Energy and oxygen of one operating mode, for the side-by-side comparison. */
+export interface ModeFigures {
+  annualEnergy_MWh: number
+  /** Lowest month-table net oxygen change, mg/L. */
+  worstMonthNetGain_mgL: number
+  /** Worst net oxygen change at any flow of the year, mg/L. */
+  worstNetGain_mgL: number
+  /** Time-weighted mean net oxygen change over the year, mg/L. */
+  meanNetGain_mgL: number
+}
+
+/** How the units are run, and what each mode gives. */
+export interface OperatingSummary {
+  mode: 'energy-first' | 'river-first'
+  allowedDrawdown_m: number
+  closedMonths: number[]
+  /** Share of the year at least one unit runs. */
+  runningShare: number
+  /** False when only the option's own mode was run (a sweep point): both columns then hold its figures. */
+  modesCompared: boolean
+  energyFirst: ModeFigures
+  riverFirst: ModeFigures
+  /** Energy first minus river first, MWh/yr: the energy given up for the river (≥ 0 in practice). */
+  energyGivenUpForRiver_MWh: number
+  /** How the year was judged, in words. */
+  basis: string
 }
 
 /** The condition the summary's oxygen figure is taken at. */
@@ -86,6 +152,12 @@ export interface AssessSummary {
   minCavitationIndex: number | null
   maxUnitTotalDissolvedGas: number
   netOxygenGainSummerLowFlow_mgL: number
+  /** Time-weighted mean net oxygen change over the year, mg/L. */
+  meanNetOxygenGain_mgL: number
+  /** Worst net oxygen change at any flow of the year, mg/L. */
+  worstNetOxygenGain_mgL: number
+  /** Fraction of the throat differential the diffuser recovers, η_d(1 − r²)/(1 + k_in − r²). */
+  recoveredFraction: number
   summerLowFlow: SummerLowFlow
   lcoe: number | null
   flags: Flag[]
@@ -104,6 +176,7 @@ export interface AssessResult {
   perFlow: PerFlowRow[]
   months: MonthRow[]
   methods: MethodsComparison
+  operation: OperatingSummary
   hydrology: FdcStats & { reservedFlow_m3s: number, basis: 'fdc' | 'record', daysWithData: number | null }
   money: MoneySummary
   defaultsUsed: DefaultUsed[]

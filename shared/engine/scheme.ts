@@ -4,12 +4,16 @@ import type { AssessInput } from '../schemas/assess'
 import { isaPressure } from './atmosphere'
 import type { TurbineState } from './airPath'
 import { diffuserLength } from './oxygen'
-import { evaluate, unitPoint, waterAt } from './schemeKernel'
+import { NET_LOSS_TOLERANCE_mgL } from './flags'
+import type { Regime, ShutReason } from './operation'
+import { evaluate, unitPoint, waterAt, type RiverCheck } from './schemeKernel'
 import { oxygenState } from './schemeOxygen'
-import { constrictionDefaults, unitCapacity, type Regime, type UnitGeometry } from './venturi'
+import { constrictionDefaults, unitCapacity, type UnitGeometry } from './venturi'
 
-/** Water conditions at one moment: temperature and upstream oxygen. */
+/** Water conditions at one moment: calendar month, temperature and upstream oxygen. */
 export interface Conditions {
+  /** Calendar month 1–12, or 0 for the year's mean conditions (never a closed month). */
+  month: number
   tC: number
   upstreamO2_mgL: number
 }
@@ -31,6 +35,8 @@ export interface PowerState {
   riverFlow_m3s: number
   grossHead_m: number
   regime: Regime
+  /** Why units the water could feed stay shut (null when all it can feed run). */
+  shutReason: ShutReason | null
   unitsRunning: number
   unitFlow_m3s: number
   spill_m3s: number
@@ -96,12 +102,38 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
   return { ...partial, ratedPerUnit_W: p.air.availableElectricalPower_W }
 }
 
-/** Split, hydraulics and air path of all units at one river flow. */
+/**
+ * River-first mode: a unit stays shut where running it would lower downstream oxygen by more than the
+ * acceptable loss, or lower it while the river is below its target (ENGINE.md §8). Null in
+ * energy-first mode.
+ */
+function riverCheckOf(s: Scheme, c: Conditions): RiverCheck | null {
+  if (s.input.option.operation.mode !== 'river-first') return null
+  const st = s.input.settings
+  return (cand, p, river, H) => {
+    const n = cand.units
+    const ps: PowerState = {
+      riverFlow_m3s: river, grossHead_m: H, regime: cand.regime, shutReason: null, unitsRunning: n,
+      unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: Math.min(river, s.reserved_m3s),
+      workingHead_m: p.workingHead_m, throatVelocity_ms: p.throatVelocity_ms, suction_m: p.suction_m,
+      cavitationMargin_m: p.cavitationMargin_m, cavitationIndex: p.cavitationIndex,
+      airFlow_m3s: n * p.air.airFlow_m3s, airMassFlowPerUnit_kgs: p.air.airMassFlow_kgs,
+      electricalPower_W: n * p.air.electricalPower_W, hydraulicPower_W: n * p.air.hydraulicPower_W,
+      waterToWire: p.air.waterToWire, turbineState: p.air.state,
+    }
+    const ox = oxygenState(s, ps, c)
+    if (ox.netGain_mgL < -st.acceptableOxygenLoss_mgL) return 'river-first'
+    if (ox.withScheme_mgL < st.oxygenTarget_mgL && ox.netGain_mgL < -NET_LOSS_TOLERANCE_mgL) return 'river-first'
+    return null
+  }
+}
+
+/** Split, hydraulics and air path of all units at one river flow, under the option's operating rule. */
 export function powerState(s: Scheme, flow_m3s: number, c: Conditions): PowerState {
-  const { river, H, split, point: p, w } = evaluate(s, flow_m3s, c)
+  const { river, H, split, point: p, w } = evaluate(s, flow_m3s, c, riverCheckOf(s, c))
   const n = split.unitsRunning
   return {
-    riverFlow_m3s: river, grossHead_m: H, regime: split.regime, unitsRunning: n,
+    riverFlow_m3s: river, grossHead_m: H, regime: split.regime, shutReason: split.shutReason, unitsRunning: n,
     unitFlow_m3s: split.unitFlow_m3s, spill_m3s: split.spill_m3s, reserved_m3s: split.reserved_m3s,
     workingHead_m: n > 0 ? p.workingHead_m : 0,
     throatVelocity_ms: p.throatVelocity_ms,
@@ -117,14 +149,15 @@ export function powerState(s: Scheme, flow_m3s: number, c: Conditions): PowerSta
   }
 }
 
-/** Turbine states in a fixed order, so each has a number in a power sample's state code. */
+/** Turbine states and regimes in a fixed order, so each has a number in a power sample's state code. */
 const TURBINE_STATES = ['stopped', 'no-suction', 'below-cut-in', 'running', 'at-rating'] as const
+const REGIMES: readonly Regime[] = ['stopped', 'spilling', 'taking-all']
 
-/** Electrical power of all units at one river flow, W, with a whole-number code of the operating state (units running × 8 + turbine state): powerState's figure without building the whole state. */
+/** Electrical power of all units at one river flow, W, with a whole-number code of the operating state (units running, regime, turbine state): powerState's figure without building the whole state. */
 export function powerSample(s: Scheme, flow_m3s: number, c: Conditions): { power: number, state: number } {
-  const { split, point: p } = evaluate(s, flow_m3s, c)
+  const { split, point: p } = evaluate(s, flow_m3s, c, riverCheckOf(s, c))
   const n = split.unitsRunning
-  return { power: n * p.air.electricalPower_W, state: n * 8 + TURBINE_STATES.indexOf(n > 0 ? p.air.state : 'stopped') }
+  return { power: n * p.air.electricalPower_W, state: (n * 3 + REGIMES.indexOf(split.regime)) * 8 + TURBINE_STATES.indexOf(n > 0 ? p.air.state : 'stopped') }
 }
 
 /** Full state at one river flow: power side and oxygen side. */

@@ -1,9 +1,10 @@
 // The inner loop of an assessment, kept apart from the scheme it serves (scheme.ts): per-scheme and
 // per-temperature constants worked out once, and scratch records written in place.
 import { airPathSetting, airPointInto, blankAirPoint, type AirOperatingPoint, type AirPathSetting } from './airPath'
+import { operate, type Candidate, type FlowSplit, type LevelControlInput, type ShutReason, type UnitCurve } from './operation'
 import {
-  cavitationIndex, cavitationMargin, headAtFlow, headForUnitFlow, splitFlow, suctionHead,
-  throatVelocity, unitCapacity, vapourSuctionLimit, type FlowSplit, type HeadPoint, type SplitInput,
+  cavitationIndex, cavitationMargin, headAtFlow, headForUnitFlow, suctionHead,
+  throatVelocity, unitCapacity, vapourSuctionLimit, type HeadPoint,
 } from './venturi'
 import { vapourPressure, waterDensity } from './water'
 import type { Conditions, Scheme } from './scheme'
@@ -17,7 +18,7 @@ import type { Conditions, Scheme } from './scheme'
 // (tests/unit/engine/speedups.test.ts checks this against a fresh composition).
 
 /** Hydraulics and air path of one running unit at one unit flow and gross head. */
-interface UnitPoint {
+export interface UnitPoint {
   workingHead_m: number
   throatVelocity_ms: number
   suction_m: number
@@ -27,7 +28,7 @@ interface UnitPoint {
 }
 
 /** What every flow at one water temperature shares, and the last unit point computed there. */
-interface WaterAt {
+export interface WaterAt {
   tC: number
   p_v: number
   rho: number
@@ -58,7 +59,10 @@ interface Kernel {
   capHead: number
   cap: number
   hasCap: boolean
-  split: SplitInput
+  level: LevelControlInput
+  curve: UnitCurve
+  /** Calendar months (1–12) in which the units are shut. */
+  closed: ReadonlySet<number>
   temps: WaterAt[]
   lastTemp: WaterAt | null
   /** Filled by evaluate once a flow has been asked (null before). */
@@ -73,11 +77,16 @@ function kernelOf(s: Scheme): Kernel {
   const o = s.input.option
   // Array sort is stable, so sorting once gives the very order headAtFlow's per-call sort gives.
   const heads = [...s.input.site.headTable].sort((a, b) => a.flow_m3s - b.flow_m3s)
-  k = {
+  const g = s.geometry
+  const kk: Kernel = {
     heads, capHead: 0, cap: 0, hasCap: false,
-    split: { riverFlow_m3s: 0, reservedFlow_m3s: s.reserved_m3s, units: o.units, capacity_m3s: 0, minUnitFlowFraction: o.minUnitFlowFraction, staging: o.staging },
+    level: { riverFlow_m3s: 0, reservedFlow_m3s: s.reserved_m3s, grossHead_m: 0, units: o.units, allowedDrawdown_m: o.operation.allowedDrawdown_m },
+    // The full-head capacity is asked once per flow and again by level control: answer it from the kernel's cache.
+    curve: { capacityAt: (h) => (kk.hasCap && Object.is(kk.capHead, h) ? kk.cap : unitCapacity(h, g)), headFor: (q) => headForUnitFlow(q, g) },
+    closed: new Set(o.operation.closedMonths),
     temps: [], lastTemp: null, at: null,
   }
+  k = kk
   kernels.set(s, k)
   return k
 }
@@ -140,8 +149,22 @@ export function unitPoint(w: WaterAt, unitFlow: number, grossHead: number, s: Sc
   return pt
 }
 
+/**
+ * Whether a candidate may run, from its unit point: it must draw air (suction above 0) and make power
+ * above the turbine's cut-in; in river-first mode it must also not cost the river oxygen (`riverCheck`).
+ */
+function unitVerdict(p: UnitPoint): ShutReason | null {
+  if (!(p.suction_m > 0) || !(p.air.airFlow_m3s > 0)) return 'no-suction'
+  if (p.air.state !== 'running' && p.air.state !== 'at-rating') return 'below-cut-in'
+  if (!(p.air.electricalPower_W > 0)) return 'below-cut-in'
+  return null
+}
+
+/** A river check for river-first mode: why running `c` (its unit point `p`) would cost the river, or null. */
+export type RiverCheck = (c: Candidate, p: UnitPoint, river: number, H: number, w: WaterAt) => ShutReason | null
+
 /** Split and unit point at one river flow, written into the kernel's scratch record (read it before the next call). */
-export function evaluate(s: Scheme, flow_m3s: number, c: Conditions): Evaluation {
+export function evaluate(s: Scheme, flow_m3s: number, c: Conditions, riverCheck: RiverCheck | null = null): Evaluation {
   const k = kernelOf(s)
   const river = Math.max(0, flow_m3s)
   const H = headAtFlow(k.heads, river, s.input.site.grossHead_m)
@@ -150,10 +173,13 @@ export function evaluate(s: Scheme, flow_m3s: number, c: Conditions): Evaluation
     k.capHead = H
     k.hasCap = true
   }
-  k.split.riverFlow_m3s = river
-  k.split.capacity_m3s = k.cap
-  const split = splitFlow(k.split)
+  k.level.riverFlow_m3s = river
+  k.level.grossHead_m = H
   const w = ratedWaterAt(s, k, c.tC)
+  const split = operate(k.level, k.curve, k.closed.has(c.month), (cand) => {
+    const p = unitPoint(w, cand.unitFlow_m3s, H, s)
+    return unitVerdict(p) ?? (riverCheck ? riverCheck(cand, p, river, H, w) : null)
+  })
   const point = unitPoint(w, split.unitFlow_m3s, H, s)
   const at = k.at
   if (at === null) return (k.at = { river, H, split, w, point })

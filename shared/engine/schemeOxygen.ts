@@ -20,16 +20,51 @@ function mixWithWeir(unitsQ: number, unitC: number, weirQ: number, weirC: number
   return mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirC }], fallback)
 }
 
+/** The units' side of the last oxygen state of a scheme, reused while its inputs repeat. */
+interface UnitSide {
+  tC: number
+  upstream: number
+  unitFlow: number
+  airMass: number
+  air: number
+  units: number
+  ft: TransferResult
+  bc: TransferResult
+  tdg: number
+}
+
+// Across a month's flows the units often run in the same state (every unit at full capacity while the
+// rest spills), so their transfer and dissolved gas repeat: the last one is kept per scheme. The
+// figures are those of computing afresh (tests/unit/engine/speedups.test.ts checks the state).
+const lastUnitSide = new WeakMap<Scheme, UnitSide>()
+
+function unitSide(s: Scheme, ps: PowerState, c: Conditions, cs: number): UnitSide {
+  const last = lastUnitSide.get(s)
+  const air = ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0
+  const running = ps.unitsRunning > 0 ? 1 : 0
+  if (last && Object.is(last.tC, c.tC) && Object.is(last.upstream, c.upstreamO2_mgL) && Object.is(last.unitFlow, ps.unitFlow_m3s)
+    && Object.is(last.airMass, ps.airMassFlowPerUnit_kgs) && Object.is(last.air, air) && last.units === running) return last
+  const ft = unitFieldTransfer(s, ps, c)
+  const bc = unitBubbleContact(s, ps, c, ft)
+  const side: UnitSide = {
+    tC: c.tC, upstream: c.upstreamO2_mgL, unitFlow: ps.unitFlow_m3s, airMass: ps.airMassFlowPerUnit_kgs, air, units: running,
+    ft, bc, tdg: tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? bc : ft),
+  }
+  lastUnitSide.set(s, side)
+  return side
+}
+
 /** Oxygen below the scheme at one power state: units, weir streams, mix, net gain, total dissolved gas. */
 export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
   const site = s.input.site
   const cs = oxygenSaturation(c.tC, s.p_atm, site.salinity_gkg)
   const a = WATER_QUALITY_A[site.waterQuality].value
   const b = WEIR_SHAPE_B[site.weirShape].value
-  const without = ps.riverFlow_m3s > 0 ? overWeir(cs, c, a, b, ps.grossHead_m) : c.upstreamO2_mgL
-  const weirStream = overWeir(cs, c, a, b, ps.regime === 'flow-limited' ? ps.workingHead_m : ps.grossHead_m)
-  const ft = unitFieldTransfer(s, ps, c)
-  const bc = unitBubbleContact(s, ps, c, ft)
+  // Level control holds the head pool, so the reserved flow and the spill fall the full gross head:
+  // the water over the weir is aerated as all of it is without the scheme.
+  const weirStream = overWeir(cs, c, a, b, ps.grossHead_m)
+  const without = ps.riverFlow_m3s > 0 ? weirStream : c.upstreamO2_mgL
+  const { ft, bc, tdg } = unitSide(s, ps, c, cs)
   const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
   const weirQ = ps.reserved_m3s + ps.spill_m3s
   const withFt = mixWithWeir(unitsQ, ft.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
@@ -40,7 +75,7 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
     saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, weirStream_mgL: weirStream,
     unitFieldTransfer_mgL: ft.cOut_mgL, unitBubbleContact_mgL: bc.cOut_mgL,
     withSchemeFieldTransfer_mgL: withFt, withSchemeBubbleContact_mgL: withBc, withScheme_mgL: withScheme,
-    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0, unitTdg: tdgOf(s, ps, c, cs, useBc ? bc : ft),
+    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0, unitTdg: tdg,
   }
 }
 

@@ -1,6 +1,8 @@
-// Sensitivity: each key input moved by ±20 % → change in annual energy and net oxygen gain (tornado chart).
+// Sensitivity: each key input moved by ±20 % → change in annual energy and the year's mean net oxygen
+// change (tornado chart).
 import type { AssessInput } from '../schemas/assess'
 import { assess } from './assess'
+import { withDesign } from './sweep'
 
 /** Names of the inputs the sensitivity moves. */
 export type SensitivityKey =
@@ -24,7 +26,7 @@ export interface SensitivityItem {
   high: SensitivityEnd
   /** |high − low| of annual energy, MWh/yr. */
   energySwing_MWh: number
-  /** |high − low| of net oxygen gain at summer low flow, mg/L. */
+  /** |high − low| of the year's time-weighted mean net oxygen change, mg/L. */
   oxygenSwing_mgL: number
 }
 
@@ -65,7 +67,8 @@ const LEVERS: Lever[] = [
   },
   {
     key: 'throatDiameter', label: 'Throat diameter (outlet in proportion)', unit: 'm', get: (i) => i.option.throatDiameter_m,
-    set: (i, v) => ({ ...i, option: { ...i.option, throatDiameter_m: v, outletDiameter_m: i.option.outletDiameter_m * (v / i.option.throatDiameter_m) } }),
+    // The whole unit is scaled: outlet and an entered diffuser length in proportion, as the sweep does.
+    set: (i, v) => withDesign(i, v, i.option.units, i.option.throatDepth_m),
   },
   { key: 'throatDepth', label: 'Throat submergence', unit: 'm', get: (i) => i.option.throatDepth_m, set: (i, v) => ({ ...i, option: { ...i.option, throatDepth_m: v } }) },
   { key: 'jetPumpEfficiency', label: 'Water-jet pump efficiency', unit: '-', max: 1, get: (i) => i.option.air.jetPumpEfficiency, set: (i, v) => ({ ...i, option: { ...i.option, air: { ...i.option.air, jetPumpEfficiency: v } } }) },
@@ -77,11 +80,11 @@ const LEVERS: Lever[] = [
 /** Move each key input by ±fraction (default 20 %), holding the rest, and report annual energy and net oxygen gain at each end (one-at-a-time sensitivity). */
 export function sensitivity(input: AssessInput, fraction = 0.2): SensitivityResult {
   const f = Math.min(Math.max(fraction, 0), 0.9)
-  const baseRun = assess(input).summary
-  const base = { annualEnergy_MWh: baseRun.annualEnergy_MWh, netOxygenGain_mgL: baseRun.netOxygenGainSummerLowFlow_mgL }
+  const baseRun = assess(input, { compareModes: false }).summary
+  const base = { annualEnergy_MWh: baseRun.annualEnergy_MWh, netOxygenGain_mgL: baseRun.meanNetOxygenGain_mgL }
   const end = (lever: Lever, v: number): SensitivityEnd => {
-    const r = assess(lever.set(input, v)).summary
-    return { value: v, annualEnergy_MWh: r.annualEnergy_MWh, netOxygenGain_mgL: r.netOxygenGainSummerLowFlow_mgL }
+    const r = assess(lever.set(input, v), { compareModes: false }).summary
+    return { value: v, annualEnergy_MWh: r.annualEnergy_MWh, netOxygenGain_mgL: r.meanNetOxygenGain_mgL }
   }
   const items = LEVERS.filter((l) => l.get(input) > 0).map((l): SensitivityItem => {
     const v = l.get(input)

@@ -151,61 +151,6 @@ export function headAtFlow(table: ReadonlyArray<HeadPoint>, flow_m3s: number, fa
   return Math.max(0, last.head_m)
 }
 
-/** How units are switched on as flow rises. */
-export type Staging = 'sequential' | 'shared'
-
-/** Operating regime of the units at one river flow. */
-export type Regime = 'stopped' | 'flow-limited' | 'head-limited'
-
-/** How a river flow is split between reserved flow, the units and the spill. */
-export interface FlowSplit {
-  regime: Regime
-  unitsRunning: number
-  /** Flow through each running unit, m³/s. */
-  unitFlow_m3s: number
-  /** Flow over the weir beyond the reserved flow, m³/s. */
-  spill_m3s: number
-  /** Reserved flow actually passed (≤ river flow), m³/s. */
-  reserved_m3s: number
-}
-
-/** Inputs of splitFlow. */
-export interface SplitInput {
-  riverFlow_m3s: number
-  reservedFlow_m3s: number
-  units: number
-  /** Unit capacity at the gross head, m³/s. */
-  capacity_m3s: number
-  minUnitFlowFraction: number
-  staging: Staging
-}
-
-/** Flow-limited vs head-limited split: reserved flow first; units pass what is left up to N·Q_cap; below the minimum unit flow units stop. */
-export function splitFlow(s: SplitInput): FlowSplit {
-  const river = Math.max(0, s.riverFlow_m3s)
-  const reserved = Math.min(river, Math.max(0, s.reservedFlow_m3s))
-  const avail = river - reserved
-  const N = Math.max(0, Math.floor(s.units))
-  const cap = Math.max(0, s.capacity_m3s)
-  const qMin = Math.max(0, s.minUnitFlowFraction) * cap
-  const stopped: FlowSplit = { regime: 'stopped', unitsRunning: 0, unitFlow_m3s: 0, spill_m3s: avail, reserved_m3s: reserved }
-  if (N === 0 || !(cap > 0) || !(avail > 0)) return stopped
-  if (avail >= N * cap) {
-    return { regime: 'head-limited', unitsRunning: N, unitFlow_m3s: cap, spill_m3s: avail - N * cap, reserved_m3s: reserved }
-  }
-  let n = s.staging === 'sequential' ? Math.min(N, Math.ceil(avail / cap)) : N
-  if (s.staging === 'shared') {
-    while (n > 0 && avail / n < qMin) n--
-  } else if (avail / n < qMin) {
-    n--
-  }
-  if (n <= 0) return stopped
-  if (n * cap <= avail) {
-    return { regime: 'head-limited', unitsRunning: n, unitFlow_m3s: cap, spill_m3s: avail - n * cap, reserved_m3s: reserved }
-  }
-  return { regime: 'flow-limited', unitsRunning: n, unitFlow_m3s: avail / n, spill_m3s: 0, reserved_m3s: reserved }
-}
-
 /** Hydraulic state of one running unit. */
 export interface UnitHydraulics {
   workingHead_m: number

@@ -125,6 +125,16 @@ export const CostInputSchema = z.object({
   civilsPerUnit: amount.default(MONEY_DEFAULTS.civilsPerUnit.value),
 })
 
+/** How the units are run (ENGINE.md §8): the mode, the head pool's allowed drawdown, closed months. */
+export const OperationInputSchema = z.object({
+  mode: z.enum(['energy-first', 'river-first']).default('energy-first'),
+  allowedDrawdown_m: nonNegative.max(5, 'must be 5 m or less').default(d('allowedDrawdown')),
+  closedMonths: z.array(num.int('must be a whole month number').min(1, 'must be a month 1–12').max(12, 'must be a month 1–12'))
+    .max(12, 'lists at most 12 months')
+    .refine((ms) => new Set(ms).size === ms.length, 'lists a month twice')
+    .default([]),
+})
+
 /** One design option. */
 export const EngineOptionSchema = z.object({
   units: num.int('must be a whole number').min(1, 'needs at least 1 unit').max(50),
@@ -140,8 +150,7 @@ export const EngineOptionSchema = z.object({
   flowCoefficient: num.positive().max(1, 'must be 1 or less').optional(),
   /** Defaults to a cone of the default half-angle when left out. */
   diffuserLength_m: positive.max(200).optional(),
-  minUnitFlowFraction: fraction.default(d('minUnitFlowFraction')),
-  staging: z.enum(['sequential', 'shared']).default('sequential'),
+  operation: OperationInputSchema.prefault({}),
   air: AirInputSchema,
   turbine: TurbineInputSchema.prefault({}),
   costs: CostInputSchema.prefault({}),
@@ -156,6 +165,8 @@ export const SettingsInputSchema = z.object({
   beta: fraction.default(d('beta')),
   theta: num.min(1).max(1.1).default(d('theta')),
   oxygenTarget_mgL: nonNegative.max(20).default(d('oxygenTarget')),
+  /** A net oxygen loss beyond this is a river caution, and river-first mode shuts units to avoid it. */
+  acceptableOxygenLoss_mgL: nonNegative.max(5, 'must be 5 mg/L or less').default(d('acceptableOxygenLoss')),
   tdgLimit: num.min(1).max(2).default(d('tdgLimit')),
   upstreamNitrogenSaturation: nonNegative.max(2).default(d('upstreamNitrogenSaturation')),
   bubbleDiameter_m: positive.max(0.05).default(d('bubbleDiameter')),

@@ -36,7 +36,7 @@ export const COMMENT_ROLES = ['admin', 'engineer', 'reviewer'] as const satisfie
 export const siteReviewPath = (siteId: number) => `/sites/${siteId}?tab=review`
 
 /** The flag ids a comment may point at (the engine's flags). */
-export const FLAG_IDS = ['cavitation', 'gas-supersaturation', 'oxygen-below-target', 'net-oxygen-loss', 'head-limited-never-runs'] as const satisfies readonly FlagId[]
+export const FLAG_IDS = ['cavitation', 'gas-supersaturation', 'scheme-below-target', 'net-oxygen-loss', 'oxygen-below-target', 'never-runs'] as const satisfies readonly FlagId[]
 
 export const REVIEW_NOTE_MAX = 4000
 export const REVIEW_REASON_MAX = 4000

@@ -21,11 +21,11 @@ function tenYears(): { date: string; flow: number | null }[] {
 
 describe('tabulated power on a long record', () => {
   const input = parse(draft())
-  const scheme = buildScheme(input, 0.9, { tC: 10, upstreamO2_mgL: 10 })
-  const months = TEMPS.map((t, i) => ({ tC: t, upstreamO2_mgL: UPSTREAM_O2[i]! }))
+  const scheme = buildScheme(input, 0.9, { month: 0, tC: 10, upstreamO2_mgL: 10 })
+  const months = TEMPS.map((t, i) => ({ month: i + 1, tC: t, upstreamO2_mgL: UPSTREAM_O2[i]! }))
   const sample = (q: number, m: number) => {
     const p = powerState(scheme, q, months[m - 1]!)
-    return { power: p.electricalPower_W, state: p.unitsRunning * 8 + ['stopped', 'no-suction', 'below-cut-in', 'running', 'at-rating'].indexOf(p.turbineState) }
+    return { power: p.electricalPower_W, state: (p.unitsRunning * 3 + ['stopped', 'spilling', 'taking-all'].indexOf(p.regime)) * 8 + ['stopped', 'no-suction', 'below-cut-in', 'running', 'at-rating'].indexOf(p.turbineState) }
   }
   const exact: PowerAt = (q, m) => sample(q, m).power
   const days = tenYears()

@@ -1,7 +1,8 @@
+import { operate } from '../../../shared/engine/operation'
 import { describe, expect, it } from 'vitest'
 import {
   cavitationIndex, cavitationMargin, constrictionDefaults, headAtFlow, headForUnitFlow, lossFactor,
-  orificePermanentLossFraction, permanentLossFraction, recoveredFraction, splitFlow, suctionHead,
+  orificePermanentLossFraction, permanentLossFraction, recoveredFraction, suctionHead,
   throatAreaRatio, throatVelocity, unitCapacity, unitHydraulics, unitLossFactor, venturiLossWithinIso,
   vapourSuctionLimit, type UnitGeometry,
 } from '../../../shared/engine/venturi'
@@ -36,28 +37,31 @@ describe('loss factor and capacity', () => {
   })
 })
 
-describe('flow split: regimes worked by hand', () => {
-  it('flow-limited: 2.0 m³/s river, 0.5 reserved, one unit of 2.599 m³/s at 2 m', () => {
-    const cap = unitCapacity(2, venturi)
-    const s = splitFlow({ riverFlow_m3s: 2, reservedFlow_m3s: 0.5, units: 1, capacity_m3s: cap, minUnitFlowFraction: 0.3, staging: 'sequential' })
-    // available 2.0 − 0.5 = 1.5 < 2.599 → flow-limited, no spill
-    expect(s.regime).toBe('flow-limited')
-    expect(s.unitFlow_m3s).toBeCloseTo(1.5, 12)
+describe('level control: regimes worked by hand', () => {
+  const curve = { capacityAt: (h: number) => unitCapacity(h, venturi), headFor: (q: number) => headForUnitFlow(q, venturi) }
+  const run = () => null
+  it('taking all: 2.6 m³/s river, 0.05 reserved, one unit of 2.599 m³/s at 2 m, 0.05 m allowed drawdown', () => {
+    // Q_cap ∝ √H, so Q_cap(1.95) = Q_cap(2)·√(1.95/2) = 2.59912·0.98742 = 2.56643 m³/s, the least a unit
+    // passes at the allowed level; take 2.55 m³/s < 2.56643 → the unit cannot be fed and stays shut
+    expect(unitCapacity(1.95, venturi)).toBeCloseTo(unitCapacity(2, venturi) * Math.sqrt(1.95 / 2), 12)
+    expect(unitCapacity(1.95, venturi)).toBeCloseTo(2.56643, 4)
+    const shut = operate({ riverFlow_m3s: 2.6, reservedFlow_m3s: 0.05, grossHead_m: 2, units: 1, allowedDrawdown_m: 0.05 }, curve, false, run)
+    expect(shut.regime).toBe('stopped')
+    expect(shut.shutReason).toBe('too-little-flow')
+    expect(shut.spill_m3s).toBeCloseTo(2.55, 12)
+    // take 2.58 ≥ 2.56643 → one unit takes it all at H_w = 0.215·(2.58/0.192423)²/2g = 1.97080 m (≥ 1.95)
+    const s = operate({ riverFlow_m3s: 2.63, reservedFlow_m3s: 0.05, grossHead_m: 2, units: 1, allowedDrawdown_m: 0.05 }, curve, false, run)
+    expect(s.regime).toBe('taking-all')
+    expect(s.unitFlow_m3s).toBeCloseTo(2.58, 12)
+    expect(s.workingHead_m).toBeCloseTo(headForUnitFlow(2.58, venturi), 12)
+    expect(s.workingHead_m).toBeGreaterThanOrEqual(1.95)
     expect(s.spill_m3s).toBe(0)
-    // V_t = 1.5/0.192423 = 7.79534 m/s; V²/2g = 60.767/19.6133 = 3.09827 m
-    // H_w = 0.215·3.09827 = 0.66613 m; s = 1.04·3.09827 − 0.66613 − 1.0 = 1.55608 m
-    const h = unitHydraulics(s.unitFlow_m3s, 2, 1.0, venturi, env20)
-    expect(h.throatVelocity_ms).toBeCloseTo(7.79534, 4)
-    expect(h.workingHead_m).toBeCloseTo(0.66613, 4)
-    expect(h.suction_m).toBeCloseTo(1.55608, 4)
-    // continuity: reserved + units + spill = river
-    expect(s.reserved_m3s + s.unitsRunning * s.unitFlow_m3s + s.spill_m3s).toBeCloseTo(2, 12)
+    expect(s.reserved_m3s + s.unitsRunning * s.unitFlow_m3s + s.spill_m3s).toBeCloseTo(2.63, 12)
   })
-  it('head-limited: 10 m³/s river, 0.5 reserved, two units at 2 m', () => {
-    const cap = unitCapacity(2, venturi)
-    const s = splitFlow({ riverFlow_m3s: 10, reservedFlow_m3s: 0.5, units: 2, capacity_m3s: cap, minUnitFlowFraction: 0.3, staging: 'shared' })
-    // available 9.5 > 2·2.59912 = 5.19825 → head-limited; spill 9.5 − 5.19825 = 4.30175
-    expect(s.regime).toBe('head-limited')
+  it('spilling: 10 m³/s river, 0.5 reserved, two units at 2 m', () => {
+    const s = operate({ riverFlow_m3s: 10, reservedFlow_m3s: 0.5, grossHead_m: 2, units: 2, allowedDrawdown_m: 0.05 }, curve, false, run)
+    // take 9.5 > 2·2.59912 = 5.19825 → both units at full head; spill 9.5 − 5.19825 = 4.30175
+    expect(s.regime).toBe('spilling')
     expect(s.unitsRunning).toBe(2)
     expect(s.unitFlow_m3s).toBeCloseTo(2.59912, 4)
     expect(s.spill_m3s).toBeCloseTo(4.30175, 4)
@@ -67,29 +71,28 @@ describe('flow split: regimes worked by hand', () => {
     expect(h.suction_m).toBeCloseTo(6.67442, 4)
     expect(s.reserved_m3s + s.unitsRunning * s.unitFlow_m3s + s.spill_m3s).toBeCloseTo(10, 10)
   })
-  it('stops units below the minimum unit flow and keeps continuity', () => {
-    const base = { reservedFlow_m3s: 0.5, units: 3, capacity_m3s: 2, minUnitFlowFraction: 0.3, staging: 'shared' as const }
-    // 0.5 + 0.5 available < 0.3·2 = 0.6 per unit → stop
-    expect(splitFlow({ ...base, riverFlow_m3s: 1.0 }).regime).toBe('stopped')
-    // 1.5 available: 3 units would take 0.5 each (< 0.6), so 2 units at 0.75
-    const s = splitFlow({ ...base, riverFlow_m3s: 2.0 })
-    expect(s.unitsRunning).toBe(2)
-    expect(s.unitFlow_m3s).toBeCloseTo(0.75, 12)
-    // sequential staging runs the fewest units that pass the flow
-    const q = splitFlow({ ...base, staging: 'sequential', riverFlow_m3s: 3.5 })
-    expect(q.unitsRunning).toBe(2)
-    expect(q.unitFlow_m3s).toBeCloseTo(1.5, 12)
-    for (const river of [0, 0.2, 0.7, 1.3, 3.1, 6.4, 9]) {
-      for (const staging of ['shared', 'sequential'] as const) {
-        const x = splitFlow({ ...base, staging, riverFlow_m3s: river })
-        expect(x.reserved_m3s + x.unitsRunning * x.unitFlow_m3s + x.spill_m3s).toBeCloseTo(river, 10)
-        expect(x.unitFlow_m3s).toBeLessThanOrEqual(2 + 1e-12)
-      }
+  it('units open one at a time, the pool never drawn past its allowance, and continuity holds', () => {
+    const cap = unitCapacity(2, venturi)
+    for (const river of [0, 0.2, 0.7, 1.3, 2.7, 3.1, 5.4, 6.4, 9, 30]) {
+      const x = operate({ riverFlow_m3s: river, reservedFlow_m3s: 0.5, grossHead_m: 2, units: 3, allowedDrawdown_m: 0.05 }, curve, false, run)
+      expect(x.reserved_m3s + x.unitsRunning * x.unitFlow_m3s + x.spill_m3s).toBeCloseTo(river, 10)
+      expect(x.unitFlow_m3s).toBeLessThanOrEqual(cap + 1e-12)
+      if (x.unitsRunning > 0) expect(x.workingHead_m).toBeGreaterThanOrEqual(2 - 0.05 - 1e-12)
+      // as many units as can each be fed at the allowed level, never more
+      expect(x.unitsRunning).toBe(Math.min(3, Math.floor(Math.max(0, river - 0.5) / unitCapacity(1.95, venturi))))
     }
   })
+  it('a check that refuses a candidate tries one unit fewer, and a closed month shuts all', () => {
+    const i = { riverFlow_m3s: 9, reservedFlow_m3s: 0.5, grossHead_m: 2, units: 3, allowedDrawdown_m: 0.05 }
+    const s = operate(i, curve, false, (c) => (c.units > 1 ? 'river-first' : null))
+    expect(s.unitsRunning).toBe(1)
+    expect(s.shutReason).toBe('river-first')
+    expect(operate(i, curve, true, run)).toMatchObject({ regime: 'stopped', unitsRunning: 0, shutReason: 'closed-month' })
+  })
   it('gives zeros, not NaN, with zero flow or zero head', () => {
-    const z = splitFlow({ riverFlow_m3s: 0, reservedFlow_m3s: 0.5, units: 2, capacity_m3s: unitCapacity(0, venturi), minUnitFlowFraction: 0.3, staging: 'shared' })
-    expect(z).toEqual({ regime: 'stopped', unitsRunning: 0, unitFlow_m3s: 0, spill_m3s: 0, reserved_m3s: 0 })
+    const z = operate({ riverFlow_m3s: 0, reservedFlow_m3s: 0.5, grossHead_m: 2, units: 2, allowedDrawdown_m: 0.05 }, curve, false, run)
+    expect(z).toEqual({ regime: 'stopped', unitsRunning: 0, unitFlow_m3s: 0, workingHead_m: 0, spill_m3s: 0, reserved_m3s: 0, shutReason: 'too-little-flow' })
+    expect(operate({ riverFlow_m3s: 5, reservedFlow_m3s: 0.5, grossHead_m: 0, units: 2, allowedDrawdown_m: 0.05 }, curve, false, run).shutReason).toBe('no-head')
     const h = unitHydraulics(0, 0, 1, venturi, env20)
     expect(h.workingHead_m).toBe(0)
     expect(h.throatVelocity_ms).toBe(0)

@@ -23,7 +23,7 @@ describe('runEngineTask', () => {
     expect(runEngineTask({ kind: 'sweep', body: JSON.stringify({ input: draft(), grid: GRID }) })).toEqual({ ok: true, value: sweep(parse(draft()), GRID) })
     const s = runEngineTask({ kind: 'sensitivity', body: JSON.stringify({ input: draft() }) })
     expect('value' in s && (s.value as { items: unknown[] }).items.length).toBeGreaterThan(3)
-  })
+  }, 60_000)
 
   it('answers the result as JSON text when asked, NaN and infinities as null as any JSON answer', () => {
     expect(runEngineTask({ kind: 'sweep', body: JSON.stringify({ input: draft(), grid: GRID }), answer: 'json' })).toEqual({ ok: true, json: JSON.stringify(sweep(parse(draft()), GRID)) })

@@ -1,8 +1,8 @@
 // The sweep page's grid from typed ranges (with the 400-point cap) and its pick of the best safe point.
 import { describe, expect, it } from 'vitest'
-import { sweep } from '../../../shared/engine/sweep'
+import { bestPoint, sweep, sweepReason } from '../../../shared/engine/sweep'
 import { SweepGridSchema } from '../../../shared/schemas/assess'
-import { bestSafePoint, gridFromRanges, rangesAround, rangeValues, type SweepRanges, unitValues } from '../../../utils/sweep'
+import { gridFromRanges, rangesAround, rangeValues, type SweepRanges, unitValues } from '../../../utils/sweep'
 import { draft, parse } from '../engine/fixtures'
 
 const ranges = (over: Partial<SweepRanges> = {}): SweepRanges => ({
@@ -47,25 +47,28 @@ describe('sweep grid from ranges', () => {
   })
 })
 
-describe('best safe point', () => {
+describe('best acceptable point', () => {
   it('picks the point the engine\'s own sweep picks (the worker runs points one by one)', () => {
     // A weir that aerates little (submerged sluice): some points are safe, the most energetic are not.
     const d = draft()
     d.site.weirShape = 'sluice-gate-submerged'
     const grid = { throatDiameters_m: [0.4, 0.6, 0.8], units: [1, 2], throatDepths_m: [0.5, 1.5, 3] }
     const whole = sweep(parse(d), grid)
-    const most = Math.max(...whole.points.map((p) => p.annualEnergy_MWh))
     expect(whole.best).not.toBeNull()
-    expect(whole.best!.annualEnergy_MWh).toBeLessThan(most)
-    expect(bestSafePoint(whole.points)).toEqual(whole.best)
+    const oneByOne = grid.throatDiameters_m.flatMap((dt) => grid.units.flatMap((n) => grid.throatDepths_m.map((z) => sweep(parse(d), { throatDiameters_m: [dt], units: [n], throatDepths_m: [z] }).points[0]!)))
+    expect(oneByOne).toEqual(whole.points)
+    expect(bestPoint(oneByOne)).toEqual(whole.best)
   })
 
-  it('never picks an unsafe point or one without energy', () => {
-    const p = { throatDiameter_m: 1, outletDiameter_m: 2, units: 1, throatDepth_m: 1, capacityFactor: 0.5, ratedPower_kW: 10, minCavitationMargin_m: 3, netOxygenGainSummerLowFlow_mgL: 0.1, maxUnitTotalDissolvedGas: 1, lcoe: 100, raisedFlags: [] }
-    const unsafe = { ...p, annualEnergy_MWh: 90, safe: false, raisedFlags: ['cavitation' as const] }
-    const none = { ...p, annualEnergy_MWh: 0, safe: true }
-    const ok = { ...p, annualEnergy_MWh: 40, safe: true }
-    expect(bestSafePoint([unsafe, none, ok])).toBe(ok)
-    expect(bestSafePoint([unsafe, none])).toBeNull()
+  it('never picks an unsafe point, one that costs the river too much oxygen, or one without energy', () => {
+    const p = { throatDiameter_m: 1, outletDiameter_m: 2, units: 1, throatDepth_m: 1, capacityFactor: 0.5, ratedPower_kW: 10, minCavitationMargin_m: 3, netOxygenGainSummerLowFlow_mgL: 0.1, meanNetOxygenGain_mgL: 0.05, worstNetOxygenGain_mgL: -0.05, maxUnitTotalDissolvedGas: 1, lcoe: 100, raisedFlags: [] }
+    const unsafe = { ...p, annualEnergy_MWh: 90, safe: false, acceptable: false, raisedFlags: ['cavitation' as const] }
+    const costly = { ...p, annualEnergy_MWh: 80, safe: true, acceptable: false, raisedFlags: ['net-oxygen-loss' as const] }
+    const none = { ...p, annualEnergy_MWh: 0, safe: true, acceptable: true }
+    const ok = { ...p, annualEnergy_MWh: 40, safe: true, acceptable: true }
+    expect(bestPoint([unsafe, costly, none, ok])).toBe(ok)
+    expect(bestPoint([unsafe, costly, none])).toBeNull()
+    // the reason counts what stopped each point
+    expect(sweepReason([unsafe, costly, none], null)).toMatch(/1 make no energy; 1 could cavitate; 1 cost the river more oxygen than is acceptable/)
   })
 })

@@ -22,7 +22,7 @@ describe('the comment body', () => {
 
 describe('comment tags', () => {
   it('names the assessment, the month and the flag a comment points at', () => {
-    expect(commentTags({ assessmentId: 4, month: 8, flagId: 'net-oxygen-loss' })).toEqual(['Assessment 4', 'August', 'Net oxygen loss'])
+    expect(commentTags({ assessmentId: 4, month: 8, flagId: 'net-oxygen-loss' })).toEqual(['Assessment 4', 'August', 'Oxygen cost to the river'])
     expect(commentTags({ assessmentId: null, month: null, flagId: null })).toEqual([])
   })
 })
