@@ -6,11 +6,6 @@ export function httpStatus(error: unknown): number {
   return typeof code === 'number' ? code : 0
 }
 
-/** True when the server refused a save because someone else changed the site first. */
-export function isConflict(error: unknown): boolean {
-  return httpStatus(error) === 409
-}
-
 /** What a 409 says when someone else saved first: the version now stored and when (null when not given). */
 export interface StaleVersion {
   version: number | null
