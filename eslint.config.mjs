@@ -11,8 +11,8 @@ export default createConfigForNuxt({
     rules: {
       // Tests and JSON-heavy glue use `any` on purpose in a few places.
       '@typescript-eslint/no-explicit-any': 'off',
-      // Sub-form components fill in fields of the form object their page owns (useSiteForm and the
-      // like): nested fields may change, the prop itself may not be replaced.
+      // Sub-form components fill in fields of the form object their page owns (useFormState's draft
+      // and the like): nested fields may change, the prop itself may not be replaced.
       'vue/no-mutating-props': ['error', { shallowOnly: true }],
       // Layout of templates is the house style's (self-closing void elements, attributes on one
       // line where they fit), not the linter's.

@@ -1,9 +1,11 @@
 // The option form's field catalogue (label, unit, default and where the default comes from) and the
-// draft the form holds, with the draft ⇄ body mapping checked by the server's own schema.
-// Shapes come from shared/schemas/option.ts, written once; defaults from shared/engine/defaults.ts.
+// draft the form holds, with the draft ⇄ body mapping that useFormState checks by the server's own
+// schema (OPTION_FORM). Shapes come from shared/schemas/option.ts, written once; defaults from
+// shared/engine/defaults.ts.
 import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type ConstrictionType, type SourcedValue } from '~~/shared/engine/defaults'
 import { MONEY_DEFAULTS } from '~~/shared/engine/money'
-import { OptionInputSchema, type OptionDto, type OptionInput } from '~~/shared/schemas/option'
+import type { OptionDto } from '~~/shared/schemas/option'
+import type { CheckIssue, FormMessages } from './formState'
 
 // ——— the field catalogue ———
 
@@ -201,13 +203,18 @@ export function monthsOfText(text: string): number[] {
   return text.split(',').map((t) => t.trim()).filter((t) => t !== '').map(Number)
 }
 
-/** Errors of a draft by field path, checked by the server's own schema; null errors when it passes. */
-export function checkOptionDraft(draft: OptionDraft): { input: OptionInput | null; errors: Record<string, string> } {
-  const result = OptionInputSchema.safeParse(bodyFromDraft(draft))
-  if (result.success) return { input: result.data, errors: {} }
-  const errors: Record<string, string> = {}
-  for (const issue of result.error.issues) errors[issue.path.map(String).join('.') || 'form'] ??= issue.message
-  return { input: null, errors }
+/** The option form's wording: a message per field path (`form` for the body itself), and a count of marked fields. */
+const OPTION_FORM_MESSAGES: FormMessages = {
+  issues: (issues: readonly CheckIssue[]) => {
+    const errors: Record<string, string> = {}
+    for (const issue of issues) errors[issue.path.map(String).join('.') || 'form'] ??= issue.message
+    return errors
+  },
+  refused: (errors) => {
+    const count = Object.keys(errors).length
+    return `Check the ${count === 1 ? 'marked field' : `${count} marked fields`}.`
+  },
+  failed: (fields, message) => (Object.keys(fields).length ? `Check the marked fields: ${message}` : message),
 }
 
 /** True when two drafts hold the same values. */
@@ -224,4 +231,12 @@ export function starterDraft(name: string): OptionDraft {
     'design.air.pipeDiameter_m': 0.4, 'design.air.pipeLength_m': 8,
   })
   return d
+}
+
+/** What both option forms (new and stored) give useFormState besides their schema and request. */
+export const OPTION_FORM = {
+  draftOf: (option: OptionDto) => draftFromOption(option),
+  same: sameDraft,
+  toBody: bodyFromDraft,
+  messages: OPTION_FORM_MESSAGES,
 }

@@ -1,8 +1,10 @@
 // The site form's draft: a blank one, one from a stored site, the bodies it sends, and the schema's
-// issues by field path in plain words.
+// issues by field path in plain words; with these, useFormState runs the site's forms (SITE_FORM).
 import { MONTH_NAMES } from '~~/shared/utils/months'
 import type { OxygenUnit, Reach, SiteDto } from '~~/shared/schemas/site'
 import type { WaterQualityClass, WeirShapeClass } from '~~/shared/engine/oxygen'
+import { type CheckIssue, type FormMessages, samePlain } from './formState'
+import { checkHeadRows, headRowsFrom, headTableText, type HeadTableRow } from './headTable'
 
 /** One month row as the months table edits it. */
 export interface MonthDraft {
@@ -31,12 +33,8 @@ export interface SiteDraft {
   targetOxygenMgL: number | null
   notes: string
   months: MonthDraft[]
-}
-
-/** A plain deep copy (drafts are JSON; this also unwraps reactive proxies). */
-/** A deep copy of a plain draft (JSON values only). */
-export function cloneDraft<T>(value: T): T {
-  return JSON.parse(JSON.stringify(value)) as T
+  /** The head-vs-flow table as text rows (utils/headTable.ts); sent as `headTable` by the overview and a new site. */
+  headRows: HeadTableRow[]
 }
 
 /** Starting month values for a new site: 10 °C and water at saturation (common practice, no source; replace with measurements). */
@@ -63,6 +61,7 @@ export function blankSiteDraft(): SiteDraft {
     targetOxygenMgL: 6,
     notes: '',
     months: MONTH_NAMES.map(() => ({ ...STARTING_MONTH })),
+    headRows: [],
   }
 }
 
@@ -87,7 +86,13 @@ export function draftFromSite(site: SiteDto): SiteDraft {
     targetOxygenMgL: site.targetOxygenMgL,
     notes: site.notes,
     months: site.months.map((m) => ({ waterTempC: m.waterTempC, oxygenValue: m.upstreamOxygen.value, oxygenUnit: m.upstreamOxygen.unit })),
+    headRows: headRowsFrom(site.headTable),
   }
+}
+
+/** True when two drafts hold the same values (the head rows by their texts, as typed). */
+function sameSiteDraft(a: SiteDraft, b: SiteDraft): boolean {
+  return samePlain({ ...a, headRows: headTableText(a.headRows) }, { ...b, headRows: headTableText(b.headRows) })
 }
 
 /** The months as the API takes them (unchecked). */
@@ -112,6 +117,26 @@ export function overviewFromDraft(d: SiteDraft) {
   }
 }
 
+/** The head table to send, or undefined while its rows fail their own checks (which stop the save). */
+function headTableFromDraft(d: SiteDraft) {
+  return checkHeadRows(d.headRows).table ?? undefined
+}
+
+/** The overview's PATCH body (unchecked): the overview fields and the head table. */
+export function overviewBody(d: SiteDraft) {
+  return { ...overviewFromDraft(d), headTable: headTableFromDraft(d) }
+}
+
+/** The months' PATCH body (unchecked): all twelve. */
+export function monthsBody(d: SiteDraft) {
+  return { months: monthsFromDraft(d.months) }
+}
+
+/** A new site's body (unchecked): the overview, the head table and the months. */
+export function newSiteBody(d: SiteDraft) {
+  return { ...overviewFromDraft(d), headTable: headTableFromDraft(d), months: monthsFromDraft(d.months) }
+}
+
 /** Clearer words for a few schema messages that read oddly on a form. */
 export function friendly(path: string, message: string): string {
   if (path === 'location' || path === 'location.lat' || path === 'location.lng') {
@@ -132,7 +157,7 @@ function valueAt(value: unknown, path: readonly PropertyKey[]): unknown {
  * Per-field messages from a zod result's issues, keyed by dotted path (first message wins). Given
  * the checked `input`, a blank field (null) reads "is required" rather than "must be a number".
  */
-export function issuesByPath(issues: readonly { path: readonly PropertyKey[]; message: string }[], input?: unknown): Record<string, string> {
+export function issuesByPath(issues: readonly CheckIssue[], input?: unknown): Record<string, string> {
   const out: Record<string, string> = {}
   for (const issue of issues) {
     const path = issue.path.map(String).join('.')
@@ -140,4 +165,18 @@ export function issuesByPath(issues: readonly { path: readonly PropertyKey[]; me
     out[path] ??= friendly(path, blank && issue.message === 'must be a number' ? 'is required' : issue.message)
   }
   return out
+}
+
+/** The site forms' wording: the schema's and the server's messages in plain words (the form-wide ones are useFormState's). */
+const SITE_FORM_MESSAGES: FormMessages = {
+  issues: issuesByPath,
+  server: (fields) => Object.fromEntries(Object.entries(fields).map(([k, v]) => [k, friendly(k, v)])),
+}
+
+/** What every site form gives useFormState besides its body and its request. */
+export const SITE_FORM = {
+  draftOf: draftFromSite,
+  same: sameSiteDraft,
+  recheck: true,
+  messages: SITE_FORM_MESSAGES,
 }

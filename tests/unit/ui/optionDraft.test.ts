@@ -1,8 +1,16 @@
 // The option form's field catalogue and its draft ⇄ body mapping, checked with the server's schema.
-import { describe, expect, it } from 'vitest'
+import { describe, expect, it, vi } from 'vitest'
 import { DEFAULTS, DIFFUSER_EFFICIENCY } from '../../../shared/engine/defaults'
 import { OptionInputSchema } from '../../../shared/schemas/option'
-import { blankOptionDraft, bodyFromDraft, checkOptionDraft, draftFromOption, OPTION_FIELDS, OPTION_GROUPS, sameDraft, starterDraft } from '../../../utils/optionFields'
+import { useFormState } from '../../../composables/useFormState'
+import { blankOptionDraft, bodyFromDraft, draftFromOption, OPTION_FIELDS, OPTION_FORM, OPTION_GROUPS, type OptionDraft, sameDraft, starterDraft } from '../../../utils/optionFields'
+
+/** The draft checked as the new-option form checks it: the body, or null with the messages by field path. */
+function checkOptionDraft(draft: OptionDraft) {
+  const form = useFormState({ ...OPTION_FORM, blank: draft, schema: OptionInputSchema, send: vi.fn() })
+  const input = form.toBody()
+  return { input, errors: form.errors.value, formError: form.formError.value }
+}
 
 describe('option field catalogue', () => {
   it('gives every field a unit, a known group and (unless required or blank-means) a default with a source', () => {
@@ -38,8 +46,9 @@ describe('option field catalogue', () => {
 
 describe('option draft', () => {
   it('a blank draft fails on each required field, keyed by the API path', () => {
-    const { input, errors } = checkOptionDraft(blankOptionDraft())
+    const { input, errors, formError } = checkOptionDraft(blankOptionDraft())
     expect(input).toBeNull()
+    expect(formError).toBe(`Check the ${Object.keys(errors).length} marked fields.`)
     expect(errors['name']).toBeTruthy()
     expect(errors['design.units']).toBe('must be a number')
     expect(errors['design.throatDiameter_m']).toBe('must be a number')

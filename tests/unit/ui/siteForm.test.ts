@@ -1,7 +1,8 @@
-import { describe, expect, it } from 'vitest'
-import { SiteInputSchema, type SiteDto } from '../../../shared/schemas/site'
-import { useSiteForm } from '../../../composables/useSiteForm'
-import { blankSiteDraft, draftFromSite, issuesByPath, monthsFromDraft, overviewFromDraft } from '../../../utils/siteDraft'
+import { describe, expect, it, vi } from 'vitest'
+import { SiteInputSchema, SitePatchSchema, type SiteDto } from '../../../shared/schemas/site'
+import { useFormState } from '../../../composables/useFormState'
+import { blankHeadRow } from '../../../utils/headTable'
+import { blankSiteDraft, draftFromSite, issuesByPath, monthsBody, monthsFromDraft, newSiteBody, overviewBody, overviewFromDraft, SITE_FORM, type SiteDraft } from '../../../utils/siteDraft'
 
 function filledDraft() {
   const d = blankSiteDraft()
@@ -9,24 +10,36 @@ function filledDraft() {
   return d
 }
 
+function storedSite(draft = filledDraft()): SiteDto {
+  const input = SiteInputSchema.parse({ ...overviewFromDraft(draft), months: monthsFromDraft(draft.months) })
+  return { ...input, id: 7, orgId: 1, version: 4, createdAt: '', updatedAt: '', createdBy: null, deletedAt: null, hydrologySource: 'none', flowRecord: null } as SiteDto
+}
+
+/** The new-site form as SiteNewForm builds it. */
+const newSiteForm = (blank: SiteDraft, send = vi.fn()) => useFormState({ ...SITE_FORM, blank, schema: SiteInputSchema, toBody: newSiteBody, send })
+/** A stored site's section as SiteOverviewSection and SiteMonthsSection build it. */
+const sectionForm = (site: SiteDto, toBody: (d: SiteDraft) => object, send = vi.fn()) => useFormState({ ...SITE_FORM, stored: () => site, schema: SitePatchSchema, toBody, send })
+
 describe('site draft', () => {
-  it('a blank draft fails with a message on each required field, keyed by the API path', () => {
-    const form = useSiteForm(blankSiteDraft())
-    expect(form.checkNew()).toBeNull()
+  it('a blank draft fails with a message on each required field, keyed by the API path', async () => {
+    const form = newSiteForm(blankSiteDraft())
+    expect(await form.save()).toBeNull()
     const e = form.errors.value
     expect(e['name']).toBeTruthy()
     expect(e['riverName']).toBeTruthy()
     expect(e['location']).toBe('Place the site on the map, or enter its latitude and longitude')
     expect(e['weir.grossHeadM']).toBe('is required')
     expect(e['weir.crestWidthM']).toBe('is required')
-    expect(form.formError.value).not.toBe('')
+    expect(form.formError.value).toBe('Some fields need attention; see the messages beside them.')
   })
 
-  it('a filled draft passes the server schema, months and reserved flow included', () => {
-    const form = useSiteForm(filledDraft())
-    const input = form.checkNew()
+  it('a filled draft passes the server schema, months, head table and reserved flow included', () => {
+    const d = filledDraft()
+    d.headRows = [{ ...blankHeadRow(), flow: '2', head: '2' }]
+    const input = newSiteForm(d).toBody()
     expect(input).not.toBeNull()
     expect(input!.months).toHaveLength(12)
+    expect(input!.headTable).toEqual([{ flow: 2, head: 2 }])
     expect(input!.reservedFlow).toEqual({ kind: 'percentile', exceedance: 95 })
     expect(input!.catchment).toBeNull()
     expect(SiteInputSchema.safeParse(input).success).toBe(true)
@@ -36,19 +49,20 @@ describe('site draft', () => {
     const d = filledDraft()
     d.reservedKind = 'fixed'
     expect(overviewFromDraft(d).reservedFlow).toEqual({ kind: 'fixed', flow: null })
-    const form = useSiteForm(d)
-    expect(form.checkOverview(3)).toBeNull()
+    const form = sectionForm(storedSite(), overviewBody)
+    Object.assign(form.draft, d)
+    expect(form.toBody()).toBeNull()
     expect(form.errors.value['reservedFlow.flow']).toBe('is required')
     form.draft.reservedFlow = Number.NaN
-    expect(form.checkOverview(3)).toBeNull()
+    expect(form.toBody()).toBeNull()
     expect(form.errors.value['reservedFlow.flow']).toBe('must be a number')
     form.draft.reservedFlow = 0.4
-    expect(form.checkOverview(3)).toMatchObject({ reservedFlow: { kind: 'fixed', flow: 0.4 }, version: 3 })
+    expect(form.toBody()).toMatchObject({ reservedFlow: { kind: 'fixed', flow: 0.4 }, version: 4 })
   })
 
-  it('after a failed check, fixing a field clears its message straight away', () => {
-    const form = useSiteForm(blankSiteDraft())
-    form.checkNew()
+  it('after a refused save, fixing a field clears its message straight away', async () => {
+    const form = newSiteForm(blankSiteDraft())
+    await form.save()
     expect(form.errors.value['name']).toBeTruthy()
     form.draft.name = 'Low drop'
     expect(form.errors.value['name']).toBeUndefined()
@@ -56,42 +70,53 @@ describe('site draft', () => {
   })
 
   it('asks for both catchment areas or neither', () => {
-    const form = useSiteForm({ ...filledDraft(), siteAreaKm2: 40 })
-    expect(form.checkOverview(1)).toBeNull()
+    const form = sectionForm(storedSite(), overviewBody)
+    form.draft.siteAreaKm2 = 40
+    expect(form.toBody()).toBeNull()
     expect(form.errors.value['catchment.gaugeAreaKm2']).toBeTruthy()
   })
 
   it('checks months and keys their errors months.N.field', () => {
-    const form = useSiteForm(filledDraft())
+    const form = sectionForm(storedSite(), monthsBody)
     form.draft.months[3]!.waterTempC = 55
     form.draft.months[6]!.oxygenUnit = 'mg/L'
     form.draft.months[6]!.oxygenValue = 100
-    expect(form.checkMonths(2)).toBeNull()
+    expect(form.toBody()).toBeNull()
     expect(form.errors.value['months.3.waterTempC']).toBe('must be 40 °C or less')
     expect(form.errors.value['months.6.upstreamOxygen.value']).toBe('must be 30 mg/L or less')
     form.draft.months[3]!.waterTempC = 12
     form.draft.months[6]!.oxygenValue = 9.5
-    expect(form.checkMonths(2)?.months?.[6]).toEqual({ waterTempC: 10, upstreamOxygen: { value: 9.5, unit: 'mg/L' } })
+    const body = form.toBody()
+    expect(Object.keys(body!).sort()).toEqual(['months', 'version'])
+    expect(body!.months?.[6]).toEqual({ waterTempC: 10, upstreamOxygen: { value: 9.5, unit: 'mg/L' } })
   })
 
-  it('round-trips a stored site and tracks unsaved changes', () => {
-    const input = SiteInputSchema.parse({ ...overviewFromDraft(filledDraft()), months: monthsFromDraft(blankSiteDraft().months) })
-    const site = { ...input, id: 7, orgId: 1, version: 4, createdAt: '', updatedAt: '', createdBy: null, deletedAt: null, hydrologySource: 'none', flowRecord: null } as SiteDto
-    const form = useSiteForm(draftFromSite(site))
+  it('round-trips a stored site and tracks unsaved changes, the head rows by their text', () => {
+    const site = { ...storedSite(), headTable: [{ flow: 1, head: 1.4 }] }
+    const form = sectionForm(site, overviewBody)
     expect(form.dirty.value).toBe(false)
-    expect(form.checkOverview(4)).toMatchObject({ name: 'Mill weir', weir: { grossHeadM: 2.1, crestWidthM: 14 }, version: 4 })
+    expect(form.toBody()).toMatchObject({ name: 'Mill weir', weir: { grossHeadM: 2.1, crestWidthM: 14 }, headTable: [{ flow: 1, head: 1.4 }], version: 4 })
     form.draft.notes = 'Fish pass on the left bank'
     expect(form.dirty.value).toBe(true)
-    form.reset(draftFromSite(site))
+    form.reset()
     expect(form.dirty.value).toBe(false)
     expect(form.draft.notes).toBe('')
+    form.draft.headRows = [{ ...blankHeadRow(), flow: ' 1 ', head: '1.4' }]
+    expect(form.dirty.value).toBe(false)
+    form.draft.headRows[0]!.head = '1.5'
+    expect(form.dirty.value).toBe(true)
+    expect(draftFromSite(site).headRows.map((r) => [r.flow, r.head])).toEqual([['1', '1.4']])
   })
 
-  it('maps a server 400 onto the fields', () => {
-    const form = useSiteForm(filledDraft())
-    form.fail({ data: { statusCode: 400, message: 'name: is too long', data: { issues: [{ path: 'name', message: 'is too long' }] } } })
-    expect(form.errors.value).toEqual({ name: 'is too long' })
-    form.fail({ data: { statusCode: 403, message: 'This needs the admin or engineer role; you are viewer' } })
+  it("maps a server 400 onto the fields in the form's words", async () => {
+    const send = vi.fn()
+    const form = sectionForm(storedSite(), overviewBody, send)
+    send.mockRejectedValueOnce({ data: { statusCode: 400, message: 'name: is too long', data: { issues: [{ path: 'name', message: 'is too long' }, { path: 'location.lat', message: 'must be a number' }] } } })
+    await form.save()
+    expect(form.errors.value).toEqual({ 'name': 'is too long', 'location.lat': 'Place the site on the map, or enter its latitude and longitude' })
+    expect(form.formError.value).toBe('Some fields need attention; see the messages beside them.')
+    send.mockRejectedValueOnce({ data: { statusCode: 403, message: 'This needs the admin or engineer role; you are viewer' } })
+    await form.save()
     expect(form.errors.value).toEqual({})
     expect(form.formError.value).toMatch(/needs the admin or engineer role/)
   })
