@@ -1,9 +1,9 @@
 // Aeration of the water that falls over the existing weir, by more than one model, so the results can show the
-// chosen figure with the range between models beside it (ENGINE.md §10).
+// chosen figure with the range between models beside it (ENGINE.md §10), and the weir's crest hydraulics (§13).
 import { G } from './constants'
 import type { SourcedValue } from './defaults'
 import { checkNumber, EngineInputError } from './errors'
-import { downstreamFromDeficitRatio, WEIR_SHAPE_B, weirDeficitRatio } from './oxygen'
+import { downstreamFromDeficitRatio, WEIR_SHAPE_B, weirDeficitRatio, type WeirShapeClass } from './oxygen'
 import { waterKinematicViscosity } from './water'
 
 const v = (value: number, unit: string, source: string): SourcedValue => ({ value, unit, source })
@@ -205,4 +205,47 @@ export function downstreamOxygenRange(Cs: number, Cu: number, models: Pick<WeirA
   const atMin = downstreamFromDeficitRatio(Cs, Cu, models.rMin)
   const atMax = downstreamFromDeficitRatio(Cs, Cu, models.rMax)
   return { chosen_mgL: downstreamFromDeficitRatio(Cs, Cu, models.chosen.r), min_mgL: Math.min(atMin, atMax), max_mgL: Math.max(atMin, atMax) }
+}
+
+// ── The crest's hydraulics ─────────────────────────────────────────────────────────────────────────────────────
+
+/** Crest forms the weir equation distinguishes. */
+export type CrestForm = 'sharp-crested' | 'broad-crested' | 'round-crested'
+
+/**
+ * Coefficient C_d of the weir equation Q = C_d·L·√(2g)·h^1.5 as ENGINE.md §13 writes it (the 2/3 of the sharp-crested
+ * form is inside C_d), by crest form, free flow, approach velocity neglected.
+ */
+export const WEIR_DISCHARGE_COEFFICIENT: Readonly<Record<CrestForm, SourcedValue>> = {
+  'sharp-crested': v(0.62 * (2 / 3), '-', "Q = C·(2/3)·√(2g)·L·h^1.5 with C ≈ 0.62 (common practice; Rehbock's C = 0.611 + 0.08h/P at low h/P, from memory): 0.413, i.e. Q ≈ 1.83·L·h^1.5 in SI, close to Francis's 1.84 (from memory)"),
+  'broad-crested': v(0.35, '-', "common practice: Q = 0.35·L·√(2g)·h^1.5 for a flat-topped crest, below the ideal critical-depth value (2/3)^1.5/√2 = 0.385 (in Bos 1989's form Q = C_d·(2/3)·√(2g/3)·L·h^1.5 that is C_d ≈ 0.91)"),
+  'round-crested': v(0.49, '-', 'from memory: ogee or rounded crest near its design head, Q ≈ 2.2·L·h^1.5 in SI'),
+}
+
+/** The crest form of a Butts & Evans weir-shape class, for the weir equation; null for a sluice gate (not a weir crest). */
+export function crestFormOf(shape: WeirShapeClass): CrestForm | null {
+  if (shape.startsWith('sharp-crested')) return 'sharp-crested'
+  if (shape.startsWith('round-')) return 'round-crested'
+  if (shape.startsWith('flat-broad-crested')) return 'broad-crested'
+  return null
+}
+
+/** Discharge per metre of crest q = Q_over/L, m²/s; refuses a crest of no length, naming `crestLength_m`; negative flow counts as none. */
+export function crestDischargePerMetre(flowOverCrest_m3s: number, crestLength_m: number): number {
+  const L = checkNumber(crestLength_m, 'crestLength_m', { min: 0, minExclusive: true })
+  const Q = checkNumber(flowOverCrest_m3s, 'flowOverCrest_m3s')
+  return Math.max(0, Q) / L
+}
+
+/** Flow over the crest from the head on it, Q = C_d·L·√(2g)·h^1.5, m³/s (weir equation, ENGINE.md §13). */
+export function flowOverCrest(head_m: number, crestLength_m: number, cd: number): number {
+  if (!(head_m > 0) || !(crestLength_m > 0) || !(cd > 0)) return 0
+  return cd * crestLength_m * Math.sqrt(2 * G) * head_m ** 1.5
+}
+
+/** Head over the crest from the flow over it, h = (Q/(C_d·L·√(2g)))^(2/3), m (weir equation inverted); refuses L ≤ 0 or C_d ≤ 0. */
+export function headOverCrest(flowOverCrest_m3s: number, crestLength_m: number, cd: number): number {
+  const q = crestDischargePerMetre(flowOverCrest_m3s, crestLength_m)
+  const c = checkNumber(cd, 'dischargeCoefficient', { min: 0, minExclusive: true })
+  return q > 0 ? (q / (c * Math.sqrt(2 * G))) ** (2 / 3) : 0
 }

@@ -3,8 +3,9 @@ import { describe, expect, it } from 'vitest'
 import { EngineInputError } from '../../../shared/engine/errors'
 import { downstreamFromDeficitRatio, WEIR_SHAPE_B, weirDeficitRatio } from '../../../shared/engine/oxygen'
 import {
-  averyNovakDeficitRatio, averyNovakDeficitRatio15, averyNovakJet, correctDeficitRatio, downstreamOxygenRange,
-  drownedDeficitRatio, isDrowned, MAX_DEFICIT_RATIO, measuredDeficitRatioAt, temperatureFactor, WEIR_AERATION_DEFAULTS,
+  averyNovakDeficitRatio, averyNovakDeficitRatio15, averyNovakJet, correctDeficitRatio, crestDischargePerMetre,
+  crestFormOf, downstreamOxygenRange, drownedDeficitRatio, flowOverCrest, headOverCrest, isDrowned,
+  MAX_DEFICIT_RATIO, measuredDeficitRatioAt, temperatureFactor, WEIR_AERATION_DEFAULTS, WEIR_DISCHARGE_COEFFICIENT,
   weirAerationModels, type WeirAerationModel,
 } from '../../../shared/engine/weirAeration'
 
@@ -192,5 +193,33 @@ describe('the spread between models', () => {
         expect(range.chosen_mgL).toBeLessThanOrEqual(range.max_mgL + 1e-12)
       },
     ), { numRuns: 500, seed: 20260517 })
+  })
+})
+
+describe('the crest: discharge per metre and the weir equation', () => {
+  it('q = Q_over/L, and a crest of no length is refused naming the field', () => {
+    expect(crestDischargePerMetre(12, 8)).toBe(1.5)
+    expect(crestDischargePerMetre(-1e-17, 8)).toBe(0)
+    expect(() => crestDischargePerMetre(12, 0)).toThrow(expect.objectContaining({ field: 'crestLength_m' }))
+    expect(() => crestDischargePerMetre(12, -3)).toThrow(expect.objectContaining({ field: 'crestLength_m' }))
+  })
+  it('sharp-crested, worked by hand: L = 10 m, h = 0.3 m', () => {
+    // Q = 0.62·(2/3)·√(2g)·L·h^1.5 = 0.413333·4.428691·10·0.164317 = 3.00786 m³/s   (sharp-crested weir form; C ≈ 0.62, common practice)
+    const cd = WEIR_DISCHARGE_COEFFICIENT['sharp-crested'].value
+    within(flowOverCrest(0.3, 10, cd), 3.00786, 1e-5)
+    within(headOverCrest(3.00786, 10, cd), 0.3, 1e-5)
+    expect(headOverCrest(0, 10, cd)).toBe(0)
+    expect(() => headOverCrest(3, 10, 0)).toThrow(expect.objectContaining({ field: 'dischargeCoefficient' }))
+  })
+  it('broad-crested sits below its ideal critical-depth value (2/3)^1.5/√2 = 0.385', () => {
+    // critical flow on a broad crest: q = √g·(2h/3)^1.5 = (2/3)^1.5/√2 · √(2g)·h^1.5   (open-channel hydraulics, common practice)
+    expect(WEIR_DISCHARGE_COEFFICIENT['broad-crested'].value).toBeLessThan((2 / 3) ** 1.5 / Math.SQRT2)
+    expect(WEIR_DISCHARGE_COEFFICIENT['broad-crested'].value).toBeGreaterThan(0.3)
+  })
+  it('every Butts & Evans shape but the sluice gate has a crest form', () => {
+    expect(crestFormOf('sharp-crested-vertical-face')).toBe('sharp-crested')
+    expect(crestFormOf('flat-broad-crested-regular-step')).toBe('broad-crested')
+    expect(crestFormOf('round-broad-crested-curved-face')).toBe('round-crested')
+    expect(crestFormOf('sluice-gate-submerged')).toBeNull()
   })
 })
