@@ -164,13 +164,14 @@ export function assess(input: AssessInput): AssessResult {
 
   const flags = buildFlags({ s, worst, tdgWorst, maxTdg, months, slfGain: slfState.oxygen.netGain_mgL, slf, energy, grid })
 
-  const ft = slfState.oxygen
+  // Both oxygen methods at summer low flow, whichever one the summary uses.
+  const slfOxygen = slfState.oxygen
   const methods: MethodsComparison = {
     summaryUses: st.oxygenMethod,
     note: 'Field transfer applies the ASCE/EWRI 2-06 correction, made for diffusers on a tank floor; bubble contact uses Higbie penetration theory for air drawn into a turbulent throat and diffuser. Both approach saturation exponentially and neither can pass it.',
     atSummerLowFlow: {
-      fieldTransfer: { unitOutlet_mgL: ft.unitFieldTransfer_mgL, downstream_mgL: ft.withSchemeFieldTransfer_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? ft.withSchemeFieldTransfer_mgL - ft.withoutScheme_mgL : 0 },
-      bubbleContact: { unitOutlet_mgL: ft.unitBubbleContact_mgL, downstream_mgL: ft.withSchemeBubbleContact_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? ft.withSchemeBubbleContact_mgL - ft.withoutScheme_mgL : 0 },
+      fieldTransfer: { unitOutlet_mgL: slfOxygen.unitFieldTransfer_mgL, downstream_mgL: slfOxygen.withSchemeFieldTransfer_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? slfOxygen.withSchemeFieldTransfer_mgL - slfOxygen.withoutScheme_mgL : 0 },
+      bubbleContact: { unitOutlet_mgL: slfOxygen.unitBubbleContact_mgL, downstream_mgL: slfOxygen.withSchemeBubbleContact_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? slfOxygen.withSchemeBubbleContact_mgL - slfOxygen.withoutScheme_mgL : 0 },
     },
   }
 

@@ -28,19 +28,19 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
   const b = WEIR_SHAPE_B[site.weirShape].value
   const without = ps.riverFlow_m3s > 0 ? overWeir(cs, c, a, b, ps.grossHead_m) : c.upstreamO2_mgL
   const weirStream = overWeir(cs, c, a, b, ps.regime === 'flow-limited' ? ps.workingHead_m : ps.grossHead_m)
-  const ft = unitFieldTransfer(s, ps, c)
-  const bc = unitBubbleContact(s, ps, c, ft)
+  const field = unitFieldTransfer(s, ps, c)
+  const bubble = unitBubbleContact(s, ps, c, field)
   const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
   const weirQ = ps.reserved_m3s + ps.spill_m3s
-  const withFt = mixWithWeir(unitsQ, ft.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
-  const withBc = mixWithWeir(unitsQ, bc.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
-  const useBc = s.input.settings.oxygenMethod === 'bubble-contact'
-  const withScheme = useBc ? withBc : withFt
+  const withField = mixWithWeir(unitsQ, field.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
+  const withBubble = mixWithWeir(unitsQ, bubble.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
+  const useBubble = s.input.settings.oxygenMethod === 'bubble-contact'
+  const withScheme = useBubble ? withBubble : withField
   return {
     saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, weirStream_mgL: weirStream,
-    unitFieldTransfer_mgL: ft.cOut_mgL, unitBubbleContact_mgL: bc.cOut_mgL,
-    withSchemeFieldTransfer_mgL: withFt, withSchemeBubbleContact_mgL: withBc, withScheme_mgL: withScheme,
-    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0, unitTdg: tdgOf(s, ps, c, cs, useBc ? bc : ft),
+    unitFieldTransfer_mgL: field.cOut_mgL, unitBubbleContact_mgL: bubble.cOut_mgL,
+    withSchemeFieldTransfer_mgL: withField, withSchemeBubbleContact_mgL: withBubble, withScheme_mgL: withScheme,
+    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0, unitTdg: tdgOf(s, ps, c, cs, useBubble ? bubble : field),
   }
 }
 
@@ -53,8 +53,8 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
  */
 export function unitTotalDissolvedGas(s: Scheme, ps: PowerState, c: Conditions): number {
   const cs = oxygenSaturation(c.tC, s.p_atm, s.input.site.salinity_gkg)
-  const ft = unitFieldTransfer(s, ps, c)
-  return tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? unitBubbleContact(s, ps, c, ft) : ft)
+  const field = unitFieldTransfer(s, ps, c)
+  return tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? unitBubbleContact(s, ps, c, field) : field)
 }
 
 /** Field transfer in one unit (ASCE/EWRI 2-06). */
@@ -68,11 +68,11 @@ function unitFieldTransfer(s: Scheme, ps: PowerState, c: Conditions): TransferRe
 }
 
 /** Bubble contact in one unit (Higbie 1935), toward field transfer's C*. */
-function unitBubbleContact(s: Scheme, ps: PowerState, c: Conditions, ft: TransferResult): TransferResult {
+function unitBubbleContact(s: Scheme, ps: PowerState, c: Conditions, field: TransferResult): TransferResult {
   const st = s.input.settings
   const perUnitAir = ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0
   return bubbleContact({
-    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: ft.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airFlow_m3s: perUnitAir,
+    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: field.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airFlow_m3s: perUnitAir,
     airMassFlow_kgs: ps.airMassFlowPerUnit_kgs, bubbleDiameter_m: st.bubbleDiameter_m, slipVelocity_ms: st.slipVelocity_ms,
     diffusivity20: st.oxygenDiffusivity20,
     contactTime_s: contactTime(s.diffuserLength_m, ps.unitFlow_m3s, circleArea(s.geometry.throatDiameter_m), circleArea(s.geometry.outletDiameter_m), st.plumeTime_s),

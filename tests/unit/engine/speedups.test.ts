@@ -144,13 +144,13 @@ function directOxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenStat
   const without = ps.riverFlow_m3s > 0 ? overWeir(ps.grossHead_m) : c.upstreamO2_mgL
   const weirStream = overWeir(ps.regime === 'flow-limited' ? ps.workingHead_m : ps.grossHead_m)
   const d = s.input.option.throatDepth_m
-  const ft = fieldTransfer({
+  const field = fieldTransfer({
     cIn_mgL: c.upstreamO2_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airMassFlow_kgs: ps.airMassFlowPerUnit_kgs,
     submergence_m: d, sotePerMetre: st.sotePerMetre, alpha: st.alpha, beta: st.beta, theta: st.theta,
     p_atm: s.p_atm, rho, salinity_gkg: site.salinity_gkg,
   })
-  const bc = bubbleContact({
-    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: ft.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s,
+  const bubble = bubbleContact({
+    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: field.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s,
     airFlow_m3s: ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0,
     airMassFlow_kgs: ps.airMassFlowPerUnit_kgs, bubbleDiameter_m: st.bubbleDiameter_m, slipVelocity_ms: st.slipVelocity_ms,
     diffusivity20: st.oxygenDiffusivity20,
@@ -159,16 +159,16 @@ function directOxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenStat
   const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
   const weirQ = ps.reserved_m3s + ps.spill_m3s
   const mix = (unitC: number): number => mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirStream }], c.upstreamO2_mgL)
-  const useBc = st.oxygenMethod === 'bubble-contact'
-  const withScheme = useBc ? mix(bc.cOut_mgL) : mix(ft.cOut_mgL)
-  const fraction = unitsQ > 0 ? (useBc ? bc.fractionApproached : ft.fractionApproached) : 0
+  const useBubble = st.oxygenMethod === 'bubble-contact'
+  const withScheme = useBubble ? mix(bubble.cOut_mgL) : mix(field.cOut_mgL)
+  const fraction = unitsQ > 0 ? (useBubble ? bubble.fractionApproached : field.fractionApproached) : 0
   const n2 = unitNitrogen(c.tC, s.p_atm, rho, d, st.beta, site.salinity_gkg, st.upstreamNitrogenSaturation, fraction)
   const n2Sat = nitrogenSaturation(c.tC, s.p_atm, site.salinity_gkg)
-  const unitO2 = useBc ? bc.cOut_mgL : ft.cOut_mgL
+  const unitO2 = useBubble ? bubble.cOut_mgL : field.cOut_mgL
   return {
     saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, weirStream_mgL: weirStream,
-    unitFieldTransfer_mgL: ft.cOut_mgL, unitBubbleContact_mgL: bc.cOut_mgL,
-    withSchemeFieldTransfer_mgL: mix(ft.cOut_mgL), withSchemeBubbleContact_mgL: mix(bc.cOut_mgL), withScheme_mgL: withScheme,
+    unitFieldTransfer_mgL: field.cOut_mgL, unitBubbleContact_mgL: bubble.cOut_mgL,
+    withSchemeFieldTransfer_mgL: mix(field.cOut_mgL), withSchemeBubbleContact_mgL: mix(bubble.cOut_mgL), withScheme_mgL: withScheme,
     netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0,
     unitTdg: totalDissolvedGas(c.tC, s.p_atm, cs > 0 ? unitO2 / cs : 0, n2Sat > 0 ? n2.cOut_mgL / n2Sat : 0),
   }
