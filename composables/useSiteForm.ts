@@ -8,7 +8,7 @@ import { cloneDraft, friendly, issuesByPath, monthsFromDraft, overviewFromDraft,
 
 /**
  * Form state for one site: the draft, per-field errors (keyed by the API's paths, e.g.
- * `weir.grossHeadM`, `months.3.upstreamOxygen.value`), a form-wide message and busy flag.
+ * `weir.grossHead_m`, `months.3.upstreamOxygen.value`), a form-wide message and busy flag.
  */
 export function useSiteForm(initial: SiteDraft) {
   const draft = reactive<SiteDraft>(cloneDraft(initial))

@@ -4,6 +4,7 @@ import * as m0002 from './0002_sites'
 import * as m0003 from './0003_options_assessments'
 import * as m0004 from './0004_review_mail_links'
 import * as m0005 from './0005_sessions_verification_throttle'
+import * as m0006 from './0006_unit_suffixes'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
@@ -13,6 +14,7 @@ export const migrations: Record<string, Migration> = {
   '0003_options_assessments': m0003,
   '0004_review_mail_links': m0004,
   '0005_sessions_verification_throttle': m0005,
+  '0006_unit_suffixes': m0006,
 }
 
 /** Kysely migration provider over the static list above. */

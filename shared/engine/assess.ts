@@ -75,7 +75,7 @@ function energyOf(input: AssessInput, h: SiteHydrology, s: Scheme, annual: Condi
   const flows = h.fdc.flow
   let last = flows.length - 1
   while (last > 0 && !((flows[last] ?? 0) > 0)) last--
-  const opts = { ratingW: s.ratedPerUnit_W * input.option.units, availability: input.settings.availability }
+  const opts = { rating_W: s.ratedPerUnit_W * input.option.units, availability: input.settings.availability }
   if (!h.days) return annualEnergyFromFdc(h.fdc, exact, opts)
   return annualEnergyFromRecord(h.days, tabulatedPower(stateAt, flows[last] ?? 0, flows[0] ?? 0), { ...opts, memoise: false })
 }
@@ -111,7 +111,7 @@ export function assess(input: AssessInput): AssessResult {
   const monthCond = monthConditions(input)
   const s = buildScheme(input, reserved, annual)
   const energy = energyOf(input, h, s, annual, monthCond)
-  const ratingW = s.ratedPerUnit_W * input.option.units
+  const rating_W = s.ratedPerUnit_W * input.option.units
 
   const perFlow = PER_FLOW_EXCEEDANCES.map((p) => perFlowRow(p, flowState(s, flowAtExceedance(h.fdc, p), annual)))
   const gridFlows = exceedanceGrid(SUMMARY_GRID).map((p) => flowAtExceedance(h.fdc, p))
@@ -126,7 +126,7 @@ export function assess(input: AssessInput): AssessResult {
   const months: MonthRow[] = monthStates.map((fs, m) => {
     const c = monthCond[m] ?? annual
     const flowInfo = flows[m] ?? { flow: 0, basis: 'annual-q50' as const }
-    const recorded = energy.energyByMonthMWh[m]
+    const recorded = energy.energyByMonth_MWh[m]
     const e = recorded ?? (fs.electricalPower_W * (DAYS_IN_MONTH[m] ?? 30) * 24 * st.availability) / 1e6
     const flags: FlagId[] = []
     if (fs.oxygen.withScheme_mgL < st.oxygenTarget_mgL) flags.push('oxygen-below-target')
@@ -158,8 +158,8 @@ export function assess(input: AssessInput): AssessResult {
   const sigmas = runningStates.map((g) => g.state.cavitationIndex).filter((x): x is number => x !== null)
 
   const money = moneySummary({
-    ...input.option.costs, ratingW, units: input.option.units, annualEnergyMWh: energy.annualEnergyMWh,
-    opexFraction: st.opexFraction, discountRate: st.discountRate, lifeYears: st.lifeYears, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
+    ...input.option.costs, rating_W, units: input.option.units, annualEnergy_MWh: energy.annualEnergy_MWh,
+    opexFraction: st.opexFraction, discountRate: st.discountRate, life_yr: st.life_yr, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
   })
 
   const flags = buildFlags({ s, worst, tdgWorst, maxTdg, months, slfGain: slfState.oxygen.netGain_mgL, slf, energy, grid })
@@ -177,10 +177,10 @@ export function assess(input: AssessInput): AssessResult {
 
   return {
     summary: {
-      annualEnergy_MWh: energy.annualEnergyMWh,
+      annualEnergy_MWh: energy.annualEnergy_MWh,
       capacityFactor: energy.capacityFactor,
-      fullLoadHours: energy.fullLoadHours,
-      ratedPower_kW: ratingW / 1000,
+      annualFullLoad_h: energy.annualFullLoad_h,
+      ratedPower_kW: rating_W / 1000,
       ratingSizedToDesign: s.ratingSizedToDesign,
       meanAirFlow_m3s: mean(grid.map((g) => g.airFlow_m3s)),
       peakAirFlow_m3s: Math.max(0, ...grid.map((g) => g.airFlow_m3s)),

@@ -86,10 +86,10 @@ export function buildFlags(c: FlagContext): Flag[] {
       : `The scheme never leaves the river with less oxygen than the weir alone gives (summer low flow: ${c.slfGain >= 0 ? '+' : ''}${fmt(c.slfGain)} mg/L).`,
   })
 
-  const never = !(c.energy.annualEnergyMWh > 0)
+  const never = !(c.energy.annualEnergy_MWh > 0)
   flags.push({
     id: 'head-limited-never-runs', raised: never, safety: false,
-    reason: never ? neverRunsReason(c.s, c.grid) : `The units make ${fmt(c.energy.annualEnergyMWh, 1)} MWh in an average year.`,
+    reason: never ? neverRunsReason(c.s, c.grid) : `The units make ${fmt(c.energy.annualEnergy_MWh, 1)} MWh in an average year.`,
   })
   return flags
 }

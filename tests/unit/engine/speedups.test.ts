@@ -338,12 +338,12 @@ describe('memos', () => {
       asked.set(q, (asked.get(q) ?? 0) + 1)
       return q > 2 ? 1000 * Math.sqrt(q) : 0
     }
-    const e = annualEnergyFromFdc(fdc, power, { ratingW: 20000, availability: 0.9 })
+    const e = annualEnergyFromFdc(fdc, power, { rating_W: 20000, availability: 0.9 })
     expect([...asked.values()].every((n) => n === 1)).toBe(true)
     const grid = exceedanceGrid(2000)
     const mean = grid.reduce((s, p) => s + power(flowAtExceedance(fdc, p)), 0) / 2000
     // E = A · 8760 h · mean power (FDC method, common practice, no source)
-    expect(e.annualEnergyMWh).toBe((mean * 8760 * 0.9) / 1e6)
+    expect(e.annualEnergy_MWh).toBe((mean * 8760 * 0.9) / 1e6)
   })
 })
 
