@@ -128,7 +128,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.deepEqual(shape(body.site), ['grossHead_m', 'location', 'name', 'reach', 'riverName'])
   assert.deepEqual(shape(body.scheme), ['description', 'optionName', 'outletDiameter_m', 'throatDiameter_m', 'units'])
   assert.deepEqual(shape(body.basis), ['assessedAt', 'engineVersion', 'kind'])
-  assert.deepEqual(shape(body.energy), ['annualEnergy_MWh', 'assumption', 'homesEquivalent', 'annualUsePerHome_kWh', 'source'])
+  assert.deepEqual(shape(body.energy), ['annualEnergy_MWh', 'annualUsePerHome_kWh', 'assumption', 'homesEquivalent', 'source'])
   assert.deepEqual(shape(body.river), ['months', 'summary', 'target_mgL'])
   assert.deepEqual(shape(body.review), ['conditions', 'decidedAt', 'decisionText', 'state', 'stateLabel'])
   assert.deepEqual(shape(body.contact), ['organisationName', 'preparedBy'])
