@@ -43,7 +43,7 @@ export interface FormState<D extends object, B = unknown, R = unknown> {
   version: Readonly<Ref<number | null>>
   /** True while the draft's values differ from the saved value. */
   dirty: ComputedRef<boolean>
-  /** Messages by field path (the API's: `weir.grossHeadM`, `months.3.waterTempC`), from the schema or the server. */
+  /** Messages by field path (the API's: `weir.grossHead_m`, `months.3.waterTemp_C`), from the schema or the server. */
   errors: Ref<Record<string, string>>
   /** A message about the whole form, or ''. */
   formError: Ref<string>

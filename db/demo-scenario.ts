@@ -57,7 +57,7 @@ export interface DemoRecordSpec {
 }
 
 const months = (temps: number[], oxygen: number[], unit: 'mg/L' | '%sat') =>
-  temps.map((t, i) => ({ waterTempC: t, upstreamOxygen: { value: oxygen[i]!, unit } }))
+  temps.map((t, i) => ({ waterTemp_C: t, upstreamOxygen: { value: oxygen[i]!, unit } }))
 
 // An upland river: coldest in January–February, warmest in late July.
 const TEMPS = [4.5, 5.0, 6.5, 8.5, 11.5, 14.5, 16.5, 16.0, 13.5, 10.5, 7.0, 5.0]
@@ -84,14 +84,14 @@ export const DEMO_SITES: readonly DemoSite[] = [
       riverName: 'Brackwin Water',
       location: { lat: 54.5712, lng: -2.6581 },
       reach: { type: 'LineString', coordinates: [[-2.6594, 54.5719], [-2.6586, 54.5715], [-2.6578, 54.5710], [-2.6569, 54.5706]] },
-      altitudeM: 182,
-      weir: { grossHeadM: 2.4, crestWidthM: 18, shape: 'flat-broad-crested-irregular-step', waterQuality: 'clean' },
+      altitude_m: 182,
+      weir: { grossHead_m: 2.4, crestWidth_m: 18, shape: 'flat-broad-crested-irregular-step', waterQuality: 'clean' },
       headTable: [],
       reservedFlow: { kind: 'percentile', exceedance: 95 },
       months: months(TEMPS, [12.6, 12.4, 11.8, 11.0, 10.1, 9.3, 8.8, 8.9, 9.6, 10.4, 11.5, 12.2], 'mg/L'),
       catchment: null,
       fdcPoints: [],
-      targetOxygenMgL: 6,
+      targetOxygen_mgL: 6,
       notes: 'Stone weir of a former corn mill; the leat on the left bank is silted up. Twelve years of daily flows from the owner\'s own level logger, with a gap while it was repaired.',
     },
     record: {
@@ -109,14 +109,14 @@ export const DEMO_SITES: readonly DemoSite[] = [
       riverName: 'Brackwin Water',
       location: { lat: 54.5604, lng: -2.635 },
       reach: { type: 'LineString', coordinates: [[-2.6361, 54.5609], [-2.6352, 54.5605], [-2.6341, 54.5601]] },
-      altitudeM: 141,
-      weir: { grossHeadM: 1.6, crestWidthM: 22, shape: 'sharp-crested-straight-slope', waterQuality: 'clean' },
+      altitude_m: 141,
+      weir: { grossHead_m: 1.6, crestWidth_m: 22, shape: 'sharp-crested-straight-slope', waterQuality: 'clean' },
       headTable: [],
       reservedFlow: { kind: 'fixed', flow: 1.1 },
       months: months(TEMPS, [99, 99, 98, 97, 95, 91, 86, 85, 89, 94, 97, 98], '%sat'),
       catchment: null,
       fdcPoints: SKELBY_FDC,
-      targetOxygenMgL: 6,
+      targetOxygen_mgL: 6,
       notes: 'Triangular-profile gauging weir of the (invented) Fellside River Agency; its flow-duration curve is published, the daily record is not.',
     },
   },
@@ -126,8 +126,8 @@ export const DEMO_SITES: readonly DemoSite[] = [
       riverName: 'Brackwin Water',
       location: { lat: 54.5478, lng: -2.6032 },
       reach: { type: 'LineString', coordinates: [[-2.6046, 54.5483], [-2.6038, 54.548], [-2.6029, 54.5477], [-2.6019, 54.5473], [-2.6011, 54.5471]] },
-      altitudeM: 96,
-      weir: { grossHeadM: 1.35, crestWidthM: 26, shape: 'round-broad-crested-curved-face', waterQuality: 'slightly-polluted' },
+      altitude_m: 96,
+      weir: { grossHead_m: 1.35, crestWidth_m: 26, shape: 'round-broad-crested-curved-face', waterQuality: 'slightly-polluted' },
       // The tail pool backs up in floods: the head falls as the river rises.
       headTable: [
         { flow: 1, head: 1.35 },
@@ -139,9 +139,9 @@ export const DEMO_SITES: readonly DemoSite[] = [
       reservedFlow: { kind: 'percentile', exceedance: 95 },
       months: months(TEMPS, [11.9, 11.7, 11.1, 10.2, 9.2, 8.3, 7.6, 7.5, 8.4, 9.5, 10.8, 11.6], 'mg/L'),
       // Below the Skelby gauge with a larger catchment: its curve scaled by area ratio.
-      catchment: { siteAreaKm2: 148, gaugeAreaKm2: 121 },
+      catchment: { siteArea_km2: 148, gaugeArea_km2: 121 },
       fdcPoints: SKELBY_FDC,
-      targetOxygenMgL: 6.5,
+      targetOxygen_mgL: 6.5,
       notes: 'Low concrete drop below the village outfall; summer oxygen is the concern. Flows scaled from Skelby gauging weir by catchment area.',
     },
   },

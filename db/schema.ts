@@ -84,15 +84,15 @@ export interface SitesTable {
   target_oxygen_mgl: number
   /** JSON: GeoJSON LineString, or null. */
   reach: string | null
-  /** JSON: { grossHeadM, crestWidthM, shape, waterQuality }. */
+  /** JSON: { grossHead_m, crestWidth_m, shape, waterQuality }. */
   weir: string
   /** JSON: [{ flow, head }]. */
   head_table: ColumnType<string, string | undefined, string>
   /** JSON: { kind: 'fixed', flow } | { kind: 'percentile', exceedance }. */
   reserved_flow: string
-  /** JSON: 12 × { waterTempC, upstreamOxygen: { value, unit } }. */
+  /** JSON: 12 × { waterTemp_C, upstreamOxygen: { value, unit } }. */
   months: string
-  /** JSON: { siteAreaKm2, gaugeAreaKm2 }, or null. */
+  /** JSON: { siteArea_km2, gaugeArea_km2 }, or null. */
   catchment: string | null
   /** JSON: [{ exceedance, flow }]. */
   fdc_points: ColumnType<string, string | undefined, string>

@@ -21,7 +21,7 @@ export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headlin
   const margin = s.minCavitationMargin_m
   return [
     { key: 'energy', label: 'Annual energy', value: formatNumber(s.annualEnergy_MWh, 1), unit: 'MWh/yr', warn: !(s.annualEnergy_MWh > 0) },
-    { key: 'cf', label: 'Capacity factor', value: formatNumber(s.capacityFactor * 100, 1), unit: '%', note: `${formatNumber(s.fullLoadHours, 0)} full-load h/yr` },
+    { key: 'cf', label: 'Capacity factor', value: formatNumber(s.capacityFactor * 100, 1), unit: '%', note: `${formatNumber(s.annualFullLoad_h, 0)} full-load h/yr` },
     { key: 'rated', label: 'Rated power', value: formatNumber(s.ratedPower_kW, 1), unit: 'kW', note: s.ratingSizedToDesign ? 'sized to the design point' : 'as entered' },
     {
       key: 'margin', label: 'Least cavitation margin', value: margin === null ? 'units never run' : formatNumber(margin, 2), unit: margin === null ? '' : 'm',

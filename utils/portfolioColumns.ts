@@ -39,10 +39,10 @@ const of = <T>(r: PortfolioRow, pick: (l: PortfolioLatest) => T) => pick(r.lates
 /** The columns shown by default (the name column always leads and links to the site). */
 export const DEFAULT_PORTFOLIO_COLUMNS: PortfolioColumn[] = [
   { key: 'river', label: 'River', sort: 'riverName', value: (r) => r.riverName },
-  { key: 'energy', label: 'Annual energy', unit: 'MWh/yr', sort: 'annualEnergyMWh', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.annualEnergyMWh), 1) },
+  { key: 'energy', label: 'Annual energy', unit: 'MWh/yr', sort: 'annualEnergy_MWh', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.annualEnergy_MWh), 1) },
   // The engine stores the capacity factor as a fraction of 1; the table shows per cent.
   { key: 'capacity', label: 'Capacity factor', unit: '%', sort: 'capacityFactor', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.capacityFactor) * 100, 1) },
-  { key: 'oxygen', label: 'Net O₂ gain at summer low flow', unit: 'mg/L', sort: 'netOxygenGainSlfMgL', numeric: true, figure: true, value: (r) => signed(of(r, (l) => l.netOxygenGainSlfMgL), 2) },
+  { key: 'oxygen', label: 'Net O₂ gain at summer low flow', unit: 'mg/L', sort: 'netOxygenGainSummerLowFlow_mgL', numeric: true, figure: true, value: (r) => signed(of(r, (l) => l.netOxygenGainSummerLowFlow_mgL), 2) },
   {
     key: 'lcoe', label: 'LCOE', unit: 'currency/MWh', sort: 'lcoe', numeric: true, figure: true,
     value: (r) => { const v = of(r, (l) => l.lcoe); return v === null ? 'no cost entered' : fixed(v, 0) },

@@ -5,12 +5,12 @@ import { REVIEW_STATE_LABELS, REVIEW_STATES, type ReviewState } from '~~/shared/
 // ——— the map's colouring ———
 
 /** Figures the map may be coloured by. */
-export type MapFigure = 'annualEnergyMWh' | 'netOxygenGainSlfMgL' | 'lcoe' | 'reviewState'
+export type MapFigure = 'annualEnergy_MWh' | 'netOxygenGainSummerLowFlow_mgL' | 'lcoe' | 'reviewState'
 
 /** The choices of the colour select, with the unit each figure is stated in. */
 export const MAP_FIGURES: readonly { value: MapFigure; label: string; unit: string }[] = [
-  { value: 'annualEnergyMWh', label: 'Annual energy', unit: 'MWh/yr' },
-  { value: 'netOxygenGainSlfMgL', label: 'Net oxygen gain at summer low flow', unit: 'mg/L' },
+  { value: 'annualEnergy_MWh', label: 'Annual energy', unit: 'MWh/yr' },
+  { value: 'netOxygenGainSummerLowFlow_mgL', label: 'Net oxygen gain at summer low flow', unit: 'mg/L' },
   { value: 'lcoe', label: 'Levelised cost', unit: 'currency/MWh' },
   { value: 'reviewState', label: 'Review state', unit: '' },
 ]
@@ -53,7 +53,7 @@ const NUMBER = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 2 })
 /** A figure with its unit, a sign on oxygen. */
 export function figureText(figure: Exclude<MapFigure, 'reviewState'>, v: number): string {
   const unit = MAP_FIGURES.find((f) => f.value === figure)!.unit
-  const sign = figure === 'netOxygenGainSlfMgL' && v > 0 ? '+' : ''
+  const sign = figure === 'netOxygenGainSummerLowFlow_mgL' && v > 0 ? '+' : ''
   return `${sign}${NUMBER.format(v)} ${unit}`
 }
 
@@ -79,7 +79,7 @@ export function mapColouring(rows: readonly PortfolioRow[], figure: MapFigure): 
   const valueOf = (r: PortfolioRow) => (r.latest ? r.latest[figure] : null)
   const values = rows.map(valueOf).filter((v): v is number => v !== null && Number.isFinite(v))
   // Oxygen: losses are ember and the scale runs over the gains only.
-  const scaled = figure === 'netOxygenGainSlfMgL' ? values.filter((v) => v >= 0) : values
+  const scaled = figure === 'netOxygenGainSummerLowFlow_mgL' ? values.filter((v) => v >= 0) : values
   const min = Math.min(...scaled)
   const max = Math.max(...scaled)
   for (const r of rows) {
@@ -91,11 +91,11 @@ export function mapColouring(rows: readonly PortfolioRow[], figure: MapFigure): 
       fills[r.siteId] = MAP_NONE
       notes[r.siteId] = `${meta.label}: no cost entered`
     } else {
-      fills[r.siteId] = figure === 'netOxygenGainSlfMgL' && v < 0 ? MAP_LOSS : step(v, min, max)
+      fills[r.siteId] = figure === 'netOxygenGainSummerLowFlow_mgL' && v < 0 ? MAP_LOSS : step(v, min, max)
       notes[r.siteId] = `${meta.label}: ${figureText(figure, v)}`
     }
   }
   const swatches = [{ colour: MAP_NONE, label: figure === 'lcoe' ? 'Not assessed, or no cost entered' : 'Not assessed' }]
-  if (figure === 'netOxygenGainSlfMgL' && values.some((v) => v < 0)) swatches.unshift({ colour: MAP_LOSS, label: 'Oxygen lost (below 0 mg/L)' })
+  if (figure === 'netOxygenGainSummerLowFlow_mgL' && values.some((v) => v < 0)) swatches.unshift({ colour: MAP_LOSS, label: 'Oxygen lost (below 0 mg/L)' })
   return { fills, notes, legend: { range: scaled.length ? { min, max, unit: meta.unit } : null, swatches } }
 }

@@ -57,8 +57,8 @@ export function assessmentChoices(options: readonly { id: number; name: string }
     .sort((a, b) => b.createdAt.localeCompare(a.createdAt) || b.id - a.id)
     .map((a) => {
       const optionName = names.get(a.optionId) ?? `Option ${a.optionId}`
-      const energy = `${formatNumber(a.annualEnergyMWh, 1)} MWh/yr`
-      const oxygen = `${signed(a.netOxygenGainSlfMgL, 2)} mg/L at summer low flow`
+      const energy = `${formatNumber(a.annualEnergy_MWh, 1)} MWh/yr`
+      const oxygen = `${signed(a.netOxygenGainSummerLowFlow_mgL, 2)} mg/L at summer low flow`
       const marks = [a.stale ? 'older engine' : '', a.supersededBy !== null ? 're-run since' : ''].filter(Boolean)
       return {
         id: a.id,
@@ -102,7 +102,7 @@ export function oxygenRowsFromBrief(brief: Pick<ReviewBriefDto, 'oxygenByMonth'>
 
 /** The landowner summary's river months as oxygen rows. */
 export function oxygenRowsFromSummary(river: NonNullable<PublicSummaryDto['river']>): OxygenRow[] {
-  return river.months.map((m) => ({ month: m.month, name: monthName(m.month, m.name), without: m.withoutMgL, with: m.withMgL, target: m.targetMgL }))
+  return river.months.map((m) => ({ month: m.month, name: monthName(m.month, m.name), without: m.without_mgL, with: m.with_mgL, target: m.target_mgL }))
 }
 
 /** Months whose oxygen is under the target, without and with the scheme. */

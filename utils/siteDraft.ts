@@ -8,7 +8,7 @@ import { checkHeadRows, headRowsFrom, headTableText, type HeadTableRow } from '.
 
 /** One month row as the months table edits it. */
 export interface MonthDraft {
-  waterTempC: number | null
+  waterTemp_C: number | null
   oxygenValue: number | null
   oxygenUnit: OxygenUnit
 }
@@ -20,17 +20,17 @@ export interface SiteDraft {
   lat: number | null
   lng: number | null
   reach: Reach | null
-  altitudeM: number | null
-  grossHeadM: number | null
-  crestWidthM: number | null
+  altitude_m: number | null
+  grossHead_m: number | null
+  crestWidth_m: number | null
   shape: WeirShapeClass
   waterQuality: WaterQualityClass
   reservedKind: 'fixed' | 'percentile'
   reservedFlow: number | null
   reservedExceedance: number | null
-  siteAreaKm2: number | null
-  gaugeAreaKm2: number | null
-  targetOxygenMgL: number | null
+  siteArea_km2: number | null
+  gaugeArea_km2: number | null
+  targetOxygen_mgL: number | null
   notes: string
   months: MonthDraft[]
   /** The head-vs-flow table as text rows (utils/headTable.ts); sent as `headTable` by the overview and a new site. */
@@ -38,7 +38,7 @@ export interface SiteDraft {
 }
 
 /** Starting month values for a new site: 10 °C and water at saturation (common practice, no source; replace with measurements). */
-export const STARTING_MONTH: MonthDraft = { waterTempC: 10, oxygenValue: 100, oxygenUnit: '%sat' }
+export const STARTING_MONTH: MonthDraft = { waterTemp_C: 10, oxygenValue: 100, oxygenUnit: '%sat' }
 
 /** An empty draft for a new site. */
 export function blankSiteDraft(): SiteDraft {
@@ -48,17 +48,17 @@ export function blankSiteDraft(): SiteDraft {
     lat: null,
     lng: null,
     reach: null,
-    altitudeM: 0,
-    grossHeadM: null,
-    crestWidthM: null,
+    altitude_m: 0,
+    grossHead_m: null,
+    crestWidth_m: null,
     shape: 'sharp-crested-vertical-face',
     waterQuality: 'clean',
     reservedKind: 'percentile',
     reservedFlow: null,
     reservedExceedance: 95,
-    siteAreaKm2: null,
-    gaugeAreaKm2: null,
-    targetOxygenMgL: 6,
+    siteArea_km2: null,
+    gaugeArea_km2: null,
+    targetOxygen_mgL: 6,
     notes: '',
     months: MONTH_NAMES.map(() => ({ ...STARTING_MONTH })),
     headRows: [],
@@ -73,19 +73,19 @@ export function draftFromSite(site: SiteDto): SiteDraft {
     lat: site.location.lat,
     lng: site.location.lng,
     reach: site.reach,
-    altitudeM: site.altitudeM,
-    grossHeadM: site.weir.grossHeadM,
-    crestWidthM: site.weir.crestWidthM,
+    altitude_m: site.altitude_m,
+    grossHead_m: site.weir.grossHead_m,
+    crestWidth_m: site.weir.crestWidth_m,
     shape: site.weir.shape,
     waterQuality: site.weir.waterQuality,
     reservedKind: site.reservedFlow.kind,
     reservedFlow: site.reservedFlow.kind === 'fixed' ? site.reservedFlow.flow : null,
     reservedExceedance: site.reservedFlow.kind === 'percentile' ? site.reservedFlow.exceedance : 95,
-    siteAreaKm2: site.catchment?.siteAreaKm2 ?? null,
-    gaugeAreaKm2: site.catchment?.gaugeAreaKm2 ?? null,
-    targetOxygenMgL: site.targetOxygenMgL,
+    siteArea_km2: site.catchment?.siteArea_km2 ?? null,
+    gaugeArea_km2: site.catchment?.gaugeArea_km2 ?? null,
+    targetOxygen_mgL: site.targetOxygen_mgL,
     notes: site.notes,
-    months: site.months.map((m) => ({ waterTempC: m.waterTempC, oxygenValue: m.upstreamOxygen.value, oxygenUnit: m.upstreamOxygen.unit })),
+    months: site.months.map((m) => ({ waterTemp_C: m.waterTemp_C, oxygenValue: m.upstreamOxygen.value, oxygenUnit: m.upstreamOxygen.unit })),
     headRows: headRowsFrom(site.headTable),
   }
 }
@@ -97,22 +97,22 @@ function sameSiteDraft(a: SiteDraft, b: SiteDraft): boolean {
 
 /** The months as the API takes them (unchecked). */
 export function monthsFromDraft(months: readonly MonthDraft[]) {
-  return months.map((m) => ({ waterTempC: m.waterTempC, upstreamOxygen: { value: m.oxygenValue, unit: m.oxygenUnit } }))
+  return months.map((m) => ({ waterTemp_C: m.waterTemp_C, upstreamOxygen: { value: m.oxygenValue, unit: m.oxygenUnit } }))
 }
 
 /** The overview fields as the API takes them (unchecked: blanks stay null for the schema to report). */
 export function overviewFromDraft(d: SiteDraft) {
-  const bothAreasBlank = d.siteAreaKm2 === null && d.gaugeAreaKm2 === null
+  const bothAreasBlank = d.siteArea_km2 === null && d.gaugeArea_km2 === null
   return {
     name: d.name,
     riverName: d.riverName,
     location: d.lat === null && d.lng === null ? undefined : { lat: d.lat, lng: d.lng },
     reach: d.reach,
-    altitudeM: d.altitudeM,
-    weir: { grossHeadM: d.grossHeadM, crestWidthM: d.crestWidthM, shape: d.shape, waterQuality: d.waterQuality },
+    altitude_m: d.altitude_m,
+    weir: { grossHead_m: d.grossHead_m, crestWidth_m: d.crestWidth_m, shape: d.shape, waterQuality: d.waterQuality },
     reservedFlow: d.reservedKind === 'fixed' ? { kind: 'fixed' as const, flow: d.reservedFlow } : { kind: 'percentile' as const, exceedance: d.reservedExceedance },
-    catchment: bothAreasBlank ? null : { siteAreaKm2: d.siteAreaKm2, gaugeAreaKm2: d.gaugeAreaKm2 },
-    targetOxygenMgL: d.targetOxygenMgL,
+    catchment: bothAreasBlank ? null : { siteArea_km2: d.siteArea_km2, gaugeArea_km2: d.gaugeArea_km2 },
+    targetOxygen_mgL: d.targetOxygen_mgL,
     notes: d.notes,
   }
 }

@@ -66,7 +66,7 @@ export async function portfolioPageBench(): Promise<BenchFigure[]> {
       if (status !== 200) throw new Error(`GET /api/me answered ${status}: ${text.slice(0, 300)}`)
     })
     const first = await timeGets(api, json, page('portfolio first page', 50))
-    const sorted = await timeGets(`${api}?sort=annualEnergyMWh&dir=desc&page=50`, json, page('portfolio page 50 by annual energy', 50))
+    const sorted = await timeGets(`${api}?sort=annualEnergy_MWh&dir=desc&page=50`, json, page('portfolio page 50 by annual energy', 50))
     const map = await timeGets(`${api}?format=map`, json, page('portfolio map', 2000))
     let rendered = false
     const html = await timeGets(`${server.baseURL}/`, { accept: 'text/html', cookie: me.cookie }, (status, text) => {

@@ -86,9 +86,9 @@ const siteBody = {
   name: 'Bench upload weir (invented)',
   riverName: 'Bench Water',
   location: { lat: 54.4, lng: -2.9 },
-  altitudeM: 120,
-  weir: { grossHeadM: 2.1, crestWidthM: 14, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' },
-  months: Array.from({ length: 12 }, (_, i) => ({ waterTempC: 6 + i, upstreamOxygen: { value: 10 - i / 4, unit: 'mg/L' } })),
+  altitude_m: 120,
+  weir: { grossHead_m: 2.1, crestWidth_m: 14, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' },
+  months: Array.from({ length: 12 }, (_, i) => ({ waterTemp_C: 6 + i, upstreamOxygen: { value: 10 - i / 4, unit: 'mg/L' } })),
 }
 
 /** Milliseconds of the bare parse + one-transaction insert, `runs` times after one warm-up. */

@@ -54,7 +54,7 @@ function summaryRows(result: AssessResult): (string | number | null)[][] {
   return [
     ['Annual energy', s.annualEnergy_MWh, 'MWh/yr'],
     ['Capacity factor', s.capacityFactor, '-'],
-    ['Full-load hours', s.fullLoadHours, 'h/yr'],
+    ['Full-load hours', s.annualFullLoad_h, 'h/yr'],
     ['Rated power', s.ratedPower_kW, 'kW'],
     ['Mean air flow', s.meanAirFlow_m3s, 'm³/s'],
     ['Peak air flow', s.peakAirFlow_m3s, 'm³/s'],
@@ -64,11 +64,11 @@ function summaryRows(result: AssessResult): (string | number | null)[][] {
     ['Net oxygen gain at summer low flow', s.netOxygenGainSummerLowFlow_mgL, 'mg/L'],
     ['Summer low flow', s.summerLowFlow.flow_m3s, 'm³/s'],
     ['Capital cost', m.capex, 'currency'],
-    ['Operating cost', m.opexPerYear, 'currency/yr'],
+    ['Operating cost', m.annualOpex, 'currency/yr'],
     ['Levelised cost of energy', s.lcoe, 'currency/MWh'],
     ['Net present value', m.npv, 'currency'],
-    ['Simple payback', m.simplePaybackYears, 'yr'],
-    ['Carbon avoided', m.carbonAvoidedT, 't CO₂/yr'],
+    ['Simple payback', m.simplePayback_yr, 'yr'],
+    ['Carbon avoided', m.annualCarbonAvoided_t, 't CO₂/yr'],
     ...s.flags.map((f) => [`Flag: ${f.id}`, f.raised ? 'raised' : 'clear', '-']),
     ['Engine version', result.engineVersion, '-'],
   ]

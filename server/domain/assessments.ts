@@ -31,14 +31,14 @@ export interface StoredOption {
 export function buildAssessInput(site: SiteRow, record: StoredRecord | null, option: StoredOption): AssessInput {
   const { targetOxygen_mgL, ...sitePart } = siteToEngine(
     {
-      altitudeM: site.altitude_m,
+      altitude_m: site.altitude_m,
       weir: JSON.parse(site.weir) as Weir,
       headTable: JSON.parse(site.head_table) as HeadRow[],
       months: JSON.parse(site.months) as Month[],
       reservedFlow: JSON.parse(site.reserved_flow) as ReservedFlow,
       catchment: site.catchment === null ? null : (JSON.parse(site.catchment) as Catchment),
       fdcPoints: JSON.parse(site.fdc_points) as FdcPointInput[],
-      targetOxygenMgL: site.target_oxygen_mgl,
+      targetOxygen_mgL: site.target_oxygen_mgl,
     },
     record,
   )
@@ -63,7 +63,7 @@ export async function loadStoredRecord(db: Kysely<Database>, siteId: number): Pr
   const rows = await db.selectFrom('flow_days').select(['day', 'flow']).where('site_id', '=', siteId).orderBy('day').execute()
   return {
     days: rows.map((r) => ({ date: r.day, flow: r.flow })),
-    scale: rec.site_area_km2 !== null && rec.gauge_area_km2 !== null ? { siteAreaKm2: rec.site_area_km2, gaugeAreaKm2: rec.gauge_area_km2 } : null,
+    scale: rec.site_area_km2 !== null && rec.gauge_area_km2 !== null ? { siteArea_km2: rec.site_area_km2, gaugeArea_km2: rec.gauge_area_km2 } : null,
   }
 }
 

@@ -28,13 +28,13 @@ export interface FlowRecordMeta {
   flowColumn: string
   flagColumn: string | null
   dateFormat: 'iso' | 'day-first'
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number } | null
+  scale: { siteArea_km2: number; gaugeArea_km2: number } | null
 }
 
 /** The site flows of gauged days under an area-ratio scaling (or as given). */
 export function siteFlows(days: readonly ParsedDay[], scale: FlowRecordMeta['scale']): DailyFlow[] {
   if (!scale) return days as DailyFlow[]
-  const scaled = scaleByAreaRatio(days.map((d) => d.flow), scale.siteAreaKm2, scale.gaugeAreaKm2)
+  const scaled = scaleByAreaRatio(days.map((d) => d.flow), scale.siteArea_km2, scale.gaugeArea_km2)
   return days.map((d, i) => ({ date: d.date, flow: scaled[i] ?? null }))
 }
 
@@ -56,9 +56,9 @@ export function recordRow(siteId: number, allDays: readonly ParsedDay[], meta: F
     gap_count: allDays.reduce((n, d) => n + (d.flow === null ? 1 : 0), 0),
     first_day: first,
     last_day: last,
-    site_area_km2: meta.scale?.siteAreaKm2 ?? null,
-    gauge_area_km2: meta.scale?.gaugeAreaKm2 ?? null,
-    scale_factor: meta.scale ? meta.scale.siteAreaKm2 / meta.scale.gaugeAreaKm2 : 1,
+    site_area_km2: meta.scale?.siteArea_km2 ?? null,
+    gauge_area_km2: meta.scale?.gaugeArea_km2 ?? null,
+    scale_factor: meta.scale ? meta.scale.siteArea_km2 / meta.scale.gaugeArea_km2 : 1,
     q95: stats?.q95 ?? null,
     q50: stats?.q50 ?? null,
     q10: stats?.q10 ?? null,
@@ -126,7 +126,7 @@ export function mergeDays(a: readonly ParsedDay[], b: readonly ParsedDay[]): Par
 /** The area-ratio scaling a record's flows get, or null. */
 export function recordScale(rec: Pick<FlowRecordRow, 'site_area_km2' | 'gauge_area_km2' | 'scale_factor'>) {
   return rec.site_area_km2 !== null && rec.gauge_area_km2 !== null
-    ? { siteAreaKm2: rec.site_area_km2, gaugeAreaKm2: rec.gauge_area_km2, factor: rec.scale_factor }
+    ? { siteArea_km2: rec.site_area_km2, gaugeArea_km2: rec.gauge_area_km2, factor: rec.scale_factor }
     : null
 }
 
@@ -182,7 +182,7 @@ export async function requireFlowRecord(db: Kysely<Database>, siteId: number): P
 export async function loadSiteDays(
   db: Kysely<Database>,
   siteId: number,
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number } | null,
+  scale: { siteArea_km2: number; gaugeArea_km2: number } | null,
   range: { from?: string; to?: string } = {},
 ): Promise<DailyFlow[]> {
   let q = db.selectFrom('flow_days').select(['day', 'flow']).where('site_id', '=', siteId)
@@ -190,7 +190,7 @@ export async function loadSiteDays(
   if (range.to) q = q.where('day', '<=', range.to)
   const rows = await q.orderBy('day').execute()
   const flows = rows.map((r) => r.flow)
-  const scaled = scale ? scaleByAreaRatio(flows, scale.siteAreaKm2, scale.gaugeAreaKm2) : flows
+  const scaled = scale ? scaleByAreaRatio(flows, scale.siteArea_km2, scale.gaugeArea_km2) : flows
   return rows.map((r, i) => ({ date: r.day, flow: scaled[i] ?? null }))
 }
 
@@ -237,14 +237,14 @@ export async function uploadFlowRecord(
   const stored = form.mode === 'append' ? await db.selectFrom('flow_records').selectAll().where('site_id', '=', site.id).executeTakeFirst() : undefined
   const storedDays = stored ? await db.selectFrom('flow_days').select(['day as date', 'flow']).where('site_id', '=', site.id).orderBy('day').execute() : []
 
-  const formScale = form.siteAreaKm2 !== undefined && form.gaugeAreaKm2 !== undefined ? { siteAreaKm2: form.siteAreaKm2, gaugeAreaKm2: form.gaugeAreaKm2 } : null
+  const formScale = form.siteArea_km2 !== undefined && form.gaugeArea_km2 !== undefined ? { siteArea_km2: form.siteArea_km2, gaugeArea_km2: form.gaugeArea_km2 } : null
   if (form.scale === 'none' && formScale) throw new DomainError(400, "scale: 'none' cannot be combined with catchment areas", { field: 'scale' })
-  let scale: { siteAreaKm2: number; gaugeAreaKm2: number } | null
+  let scale: { siteArea_km2: number; gaugeArea_km2: number } | null
   if (stored) {
     scale = recordScale(stored)
-    const same = formScale === null || (scale !== null && scale.siteAreaKm2 === formScale.siteAreaKm2 && scale.gaugeAreaKm2 === formScale.gaugeAreaKm2)
+    const same = formScale === null || (scale !== null && scale.siteArea_km2 === formScale.siteArea_km2 && scale.gaugeArea_km2 === formScale.gaugeArea_km2)
     if (!same || (form.scale === 'none' && scale !== null)) {
-      throw new DomainError(400, "siteAreaKm2: appended days take the stored record's scaling; replace the record to change it", { field: 'siteAreaKm2' })
+      throw new DomainError(400, "siteArea_km2: appended days take the stored record's scaling; replace the record to change it", { field: 'siteArea_km2' })
     }
   } else if (form.scale === 'none') scale = null
   else scale = formScale ?? (site.catchment ? (JSON.parse(site.catchment) as Catchment) : null)
@@ -280,14 +280,14 @@ export async function uploadFlowRecord(
 const CHUNK_DAYS = 5000
 
 /** The site's stored days as CSV lines, oldest first, a chunk at a time (keyset paging on the primary key). */
-export async function* siteDaysCsv(db: Kysely<Database>, siteId: number, scale: { siteAreaKm2: number; gaugeAreaKm2: number } | null): AsyncGenerator<string> {
+export async function* siteDaysCsv(db: Kysely<Database>, siteId: number, scale: { siteArea_km2: number; gaugeArea_km2: number } | null): AsyncGenerator<string> {
   yield 'date,flow_m3s\r\n'
   let after = ''
   for (;;) {
     const rows = await db.selectFrom('flow_days').select(['day', 'flow']).where('site_id', '=', siteId).where('day', '>', after).orderBy('day').limit(CHUNK_DAYS).execute()
     if (!rows.length) return
     const flows = rows.map((r) => r.flow)
-    const site = scale ? scaleByAreaRatio(flows, scale.siteAreaKm2, scale.gaugeAreaKm2) : flows
+    const site = scale ? scaleByAreaRatio(flows, scale.siteArea_km2, scale.gaugeArea_km2) : flows
     // 12 significant figures drop the float noise of the scaling (2.7500000000000004 → 2.75); a gap stays an empty cell.
     yield Papa.unparse(rows.map((r, i) => [r.day, site[i] === null || site[i] === undefined ? null : Number(site[i]!.toPrecision(12))]), { newline: '\r\n' }) + '\r\n'
     if (rows.length < CHUNK_DAYS) return

@@ -62,11 +62,11 @@ export function assessmentDto(row: AssessmentSummaryRow): AssessmentDto {
     createdBy: row.created_by !== null && row.creator_name ? { id: row.created_by, name: row.creator_name } : null,
     supersedes: row.supersedes_id,
     supersededBy: row.superseded_by,
-    annualEnergyMWh: row.annual_energy_mwh,
+    annualEnergy_MWh: row.annual_energy_mwh,
     capacityFactor: row.capacity_factor,
-    ratedPowerKw: row.rated_power_kw,
-    minCavitationMarginM: row.min_cavitation_margin_m,
-    netOxygenGainSlfMgL: row.net_oxygen_gain_slf_mgl,
+    ratedPower_kW: row.rated_power_kw,
+    minCavitationMargin_m: row.min_cavitation_margin_m,
+    netOxygenGainSummerLowFlow_mgL: row.net_oxygen_gain_slf_mgl,
     lcoe: row.lcoe,
     flagsRaised: JSON.parse(row.flags_raised) as FlagId[],
   }
@@ -243,7 +243,7 @@ export async function compareOptions(db: Kysely<Database>, userId: number, ids: 
       const r = byId.get(id)!
       return {
         option: { id: r.id, name: r.name, design: JSON.parse(r.design) as OptionDesign, settings: JSON.parse(r.settings) as OptionSettings, version: r.version },
-        site: { id: r.site_id, orgId: r.org_id, name: r.site_name, riverName: r.river_name, grossHeadM: r.gross_head_m },
+        site: { id: r.site_id, orgId: r.org_id, name: r.site_name, riverName: r.river_name, grossHead_m: r.gross_head_m },
         latestAssessment: latest.get(id) ?? null,
       }
     }),

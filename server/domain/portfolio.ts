@@ -15,13 +15,13 @@ import { siteTextFilter } from './sites'
 const SORT_COLUMNS = {
   name: 'l.name',
   riverName: 'l.river_name',
-  grossHeadM: 'l.gross_head_m',
+  grossHead_m: 'l.gross_head_m',
   assessedAt: 'a.id',
-  annualEnergyMWh: 'a.annual_energy_mwh',
+  annualEnergy_MWh: 'a.annual_energy_mwh',
   capacityFactor: 'a.capacity_factor',
-  ratedPowerKw: 'a.rated_power_kw',
-  minCavitationMarginM: 'a.min_cavitation_margin_m',
-  netOxygenGainSlfMgL: 'a.net_oxygen_gain_slf_mgl',
+  ratedPower_kW: 'a.rated_power_kw',
+  minCavitationMargin_m: 'a.min_cavitation_margin_m',
+  netOxygenGainSummerLowFlow_mgL: 'a.net_oxygen_gain_slf_mgl',
   lcoe: 'a.lcoe',
   flagsRaised: 'a.flag_count',
   reviewState: 'l.review_rank',
@@ -143,7 +143,7 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
     name: r.name,
     riverName: r.river_name,
     location: { lat: r.lat, lng: r.lng },
-    grossHeadM: r.gross_head_m,
+    grossHead_m: r.gross_head_m,
     reviewState: r.review_state,
     latest:
       r.assessment_id === null
@@ -155,11 +155,11 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
             assessedAt: r.assessed_at!,
             engineVersion: r.engine_version!,
             stale: r.engine_version !== ENGINE_VERSION,
-            annualEnergyMWh: r.annual_energy_mwh!,
+            annualEnergy_MWh: r.annual_energy_mwh!,
             capacityFactor: r.capacity_factor!,
-            ratedPowerKw: r.rated_power_kw!,
-            minCavitationMarginM: r.min_cavitation_margin_m,
-            netOxygenGainSlfMgL: r.net_oxygen_gain_slf_mgl!,
+            ratedPower_kW: r.rated_power_kw!,
+            minCavitationMargin_m: r.min_cavitation_margin_m,
+            netOxygenGainSummerLowFlow_mgL: r.net_oxygen_gain_slf_mgl!,
             lcoe: r.lcoe,
             flagsRaised: JSON.parse(r.flags_raised ?? '[]') as FlagId[],
           },
@@ -180,10 +180,10 @@ export function portfolioCsv(rows: readonly PortfolioRow[]): string {
     data: rows.map((r) => {
       const l = r.latest
       return [
-        r.siteId, safeText(r.name), safeText(r.riverName), r.location.lat, r.location.lng, r.grossHeadM,
+        r.siteId, safeText(r.name), safeText(r.riverName), r.location.lat, r.location.lng, r.grossHead_m,
         l ? safeText(l.optionName) : '', l?.assessedAt ?? '', l?.engineVersion ?? '', l ? (l.stale ? 'yes' : 'no') : '',
-        l?.annualEnergyMWh ?? '', l?.capacityFactor ?? '', l?.ratedPowerKw ?? '', l?.netOxygenGainSlfMgL ?? '',
-        l?.lcoe ?? '', l?.minCavitationMarginM ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
+        l?.annualEnergy_MWh ?? '', l?.capacityFactor ?? '', l?.ratedPower_kW ?? '', l?.netOxygenGainSummerLowFlow_mgL ?? '',
+        l?.lcoe ?? '', l?.minCavitationMargin_m ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
       ]
     }),
   })}\r\n`

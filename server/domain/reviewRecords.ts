@@ -83,8 +83,8 @@ export async function reviewAssessmentRef(db: Kysely<Database>, siteId: number, 
     optionName: row.option_name,
     engineVersion: row.engine_version,
     createdAt: row.created_at,
-    annualEnergyMWh: row.annual_energy_mwh,
-    netOxygenGainSlfMgL: row.net_oxygen_gain_slf_mgl,
+    annualEnergy_MWh: row.annual_energy_mwh,
+    netOxygenGainSummerLowFlow_mgL: row.net_oxygen_gain_slf_mgl,
     flagsRaised: JSON.parse(row.flags_raised) as FlagId[],
   }
 }

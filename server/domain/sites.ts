@@ -31,17 +31,17 @@ export function siteColumns(input: Partial<SiteInput>) {
     cols.lng = input.location.lng
   }
   if (input.reach !== undefined) cols.reach = input.reach === null ? null : JSON.stringify(input.reach)
-  if (input.altitudeM !== undefined) cols.altitude_m = input.altitudeM
+  if (input.altitude_m !== undefined) cols.altitude_m = input.altitude_m
   if (input.weir !== undefined) {
     cols.weir = JSON.stringify(input.weir)
-    cols.gross_head_m = input.weir.grossHeadM
+    cols.gross_head_m = input.weir.grossHead_m
   }
   if (input.headTable !== undefined) cols.head_table = JSON.stringify(input.headTable)
   if (input.reservedFlow !== undefined) cols.reserved_flow = JSON.stringify(input.reservedFlow)
   if (input.months !== undefined) cols.months = JSON.stringify(input.months)
   if (input.catchment !== undefined) cols.catchment = input.catchment === null ? null : JSON.stringify(input.catchment)
   if (input.fdcPoints !== undefined) cols.fdc_points = JSON.stringify(input.fdcPoints)
-  if (input.targetOxygenMgL !== undefined) cols.target_oxygen_mgl = input.targetOxygenMgL
+  if (input.targetOxygen_mgL !== undefined) cols.target_oxygen_mgl = input.targetOxygen_mgL
   if (input.notes !== undefined) cols.notes = input.notes
   return cols
 }
@@ -59,9 +59,9 @@ export async function createSite(db: Kysely<Database>, args: { orgId: number; us
       river_name: input.riverName,
       lat: input.location.lat,
       lng: input.location.lng,
-      altitude_m: input.altitudeM,
-      gross_head_m: input.weir.grossHeadM,
-      target_oxygen_mgl: input.targetOxygenMgL,
+      altitude_m: input.altitude_m,
+      gross_head_m: input.weir.grossHead_m,
+      target_oxygen_mgl: input.targetOxygen_mgL,
       weir: cols.weir!,
       reserved_flow: cols.reserved_flow!,
       months: cols.months!,
@@ -141,14 +141,14 @@ export async function siteDto(db: Kysely<Database>, site: SiteRow): Promise<Site
     riverName: site.river_name,
     location: { lat: site.lat, lng: site.lng },
     reach: site.reach === null ? null : (JSON.parse(site.reach) as Reach),
-    altitudeM: site.altitude_m,
+    altitude_m: site.altitude_m,
     weir: JSON.parse(site.weir) as Weir,
     headTable: JSON.parse(site.head_table) as HeadRow[],
     reservedFlow: JSON.parse(site.reserved_flow) as ReservedFlow,
     months: JSON.parse(site.months) as Month[],
     catchment: site.catchment === null ? null : (JSON.parse(site.catchment) as Catchment),
     fdcPoints,
-    targetOxygenMgL: site.target_oxygen_mgl,
+    targetOxygen_mgL: site.target_oxygen_mgl,
     notes: site.notes,
     version: site.version,
     createdAt: site.created_at,
@@ -163,7 +163,7 @@ export async function siteDto(db: Kysely<Database>, site: SiteRow): Promise<Site
 const SORT_COLUMNS = {
   name: 'sites.name',
   riverName: 'sites.river_name',
-  grossHeadM: 'sites.gross_head_m',
+  grossHead_m: 'sites.gross_head_m',
   createdAt: 'sites.created_at',
   updatedAt: 'sites.updated_at',
 } as const satisfies Record<SiteSort, string>
@@ -220,8 +220,8 @@ export async function listSites(db: Kysely<Database>, orgId: number, query: Site
       name: r.name,
       riverName: r.river_name,
       location: { lat: r.lat, lng: r.lng },
-      altitudeM: r.altitude_m,
-      grossHeadM: r.gross_head_m,
+      altitude_m: r.altitude_m,
+      grossHead_m: r.gross_head_m,
       hydrologySource: hydrologySourceOf(r.record_site_id !== null, Number(r.fdc_point_count)),
       recordMeanFlow: r.mean_flow ?? null,
       version: r.version,
@@ -257,7 +257,7 @@ export async function siteMapPoints(db: Kysely<Database>, orgId: number, query: 
     riverName: r.river_name,
     lat: r.lat,
     lng: r.lng,
-    grossHeadM: r.gross_head_m,
+    grossHead_m: r.gross_head_m,
     hydrologySource: hydrologySourceOf(r.record_site_id !== null, Number(r.fdc_point_count)),
   }))
 }

@@ -64,7 +64,7 @@ export function schemeInPlainWords(design: Pick<OptionDesign, 'units' | 'throatD
 }
 
 /** Whole homes whose yearly use the energy would cover, at the illustrative figure. */
-export const homesEquivalent = (annualEnergyMWh: number) => Math.max(0, Math.floor((annualEnergyMWh * 1000) / HOME_KWH_PER_YEAR))
+export const homesEquivalent = (annualEnergy_MWh: number) => Math.max(0, Math.floor((annualEnergy_MWh * 1000) / HOME_KWH_PER_YEAR))
 
 /** Everything the summary is built from. */
 export interface SummarySources {
@@ -98,8 +98,8 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
     const monthName = a.result.months.find((m) => m.month === slf.month)?.name ?? `month ${slf.month}`
     const target = a.result.months[0]?.target_mgL ?? s.site.target_oxygen_mgl
     river = {
-      targetMgL: target,
-      months: a.result.months.map((m) => ({ month: m.month, name: m.name, withoutMgL: m.downstreamWithout_mgL, withMgL: m.downstreamWith_mgL, targetMgL: m.target_mgL })),
+      target_mgL: target,
+      months: a.result.months.map((m) => ({ month: m.month, name: m.name, without_mgL: m.downstreamWithout_mgL, with_mgL: m.downstreamWith_mgL, target_mgL: m.target_mgL })),
       summary:
         gain >= 0
           ? `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the scheme would add about ${fmt(gain)} mg/L of dissolved oxygen below the weir, compared with the weir alone.`
@@ -112,17 +112,17 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
       riverName: s.site.river_name,
       location: { lat: s.site.lat, lng: s.site.lng },
       reach: s.site.reach ? (JSON.parse(s.site.reach) as Reach) : null,
-      grossHeadM: s.site.gross_head_m,
+      grossHead_m: s.site.gross_head_m,
     },
     scheme: a
-      ? { optionName: a.optionName, units: a.design.units, throatDiameterM: a.design.throatDiameter_m, outletDiameterM: a.design.outletDiameter_m, description: schemeInPlainWords(a.design) }
+      ? { optionName: a.optionName, units: a.design.units, throatDiameter_m: a.design.throatDiameter_m, outletDiameter_m: a.design.outletDiameter_m, description: schemeInPlainWords(a.design) }
       : null,
     basis: a ? { kind: a.kind, assessedAt: a.createdAt, engineVersion: a.engineVersion } : null,
     energy: a
       ? {
-          annualEnergyMWh: a.result.summary.annualEnergy_MWh,
+          annualEnergy_MWh: a.result.summary.annualEnergy_MWh,
           homesEquivalent: homesEquivalent(a.result.summary.annualEnergy_MWh),
-          kWhPerHomePerYear: HOME_KWH_PER_YEAR,
+          annualUsePerHome_kWh: HOME_KWH_PER_YEAR,
           assumption: `Illustrative: a home is taken to use ${HOME_KWH_PER_YEAR.toLocaleString('en-GB')} kWh of electricity a year; real homes use more or less.`,
           source: 'illustrative',
         }
@@ -207,10 +207,10 @@ export async function listSummaryLinks(
 /** Makes a summary link for a site; the token is returned here only (the database keeps its hash). */
 export async function createSummaryLink(
   db: Kysely<Database>,
-  args: { site: Pick<SiteRow, 'id' | 'org_id' | 'name'>; user: { id: number; name: string }; expiresInDays: number; note: string | null; now?: number },
+  args: { site: Pick<SiteRow, 'id' | 'org_id' | 'name'>; user: { id: number; name: string }; expiresIn_d: number; note: string | null; now?: number },
 ): Promise<{ link: SummaryLinkDto; token: string }> {
   const token = newLinkToken()
-  const expiresAt = new Date((args.now ?? Date.now()) + args.expiresInDays * DAY_MS).toISOString()
+  const expiresAt = new Date((args.now ?? Date.now()) + args.expiresIn_d * DAY_MS).toISOString()
   const row = await db
     .insertInto('summary_links')
     .values({ site_id: args.site.id, org_id: args.site.org_id, token_hash: hashLinkToken(token), note: args.note || null, created_by: args.user.id, expires_at: expiresAt })

@@ -80,7 +80,7 @@ function busy(event: H3Event, waiting: number) {
     statusCode: 503,
     statusMessage: 'Service Unavailable',
     message: `engine: the server is busy with other calculations (${waiting} waiting); try again in ${BUSY_RETRY_AFTER_S} s`,
-    data: { retryAfterSeconds: BUSY_RETRY_AFTER_S },
+    data: { retryAfter_s: BUSY_RETRY_AFTER_S },
   })
 }
 
@@ -139,7 +139,7 @@ async function runInPool(event: H3Event, task: EngineTask): Promise<Extract<Engi
         statusCode: 503,
         statusMessage: 'Service Unavailable',
         message: `engine: the calculation did not finish within the ${(settings.timeLimitMs / 1000).toLocaleString('en-GB')} s time limit (its wait for a free engine included); try a smaller grid or a shorter record, or try again later`,
-        data: { retryAfterSeconds: TIME_LIMIT_RETRY_AFTER_S, timeLimitMs: settings.timeLimitMs },
+        data: { retryAfter_s: TIME_LIMIT_RETRY_AFTER_S, timeLimit_s: settings.timeLimitMs / 1000 },
       })
     }
     if (callerGone.signal.aborted) throw createError({ statusCode: 499, statusMessage: 'Client Closed Request', message: 'engine: the request was given up before its answer' })

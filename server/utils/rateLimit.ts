@@ -98,6 +98,6 @@ export function rateLimit(event: H3Event, bucket: RateLimitBucket, key: string |
     statusCode: 429,
     statusMessage: 'Too Many Requests',
     message: `Too many ${rule.what}: at most ${rule.limit} ${spell(rule.windowSeconds)} for each person. Try again in ${retryAfter} s.`,
-    data: { bucket, limit: rule.limit, windowSeconds: rule.windowSeconds, retryAfterSeconds: retryAfter },
+    data: { bucket, limit: rule.limit, window_s: rule.windowSeconds, retryAfter_s: retryAfter },
   })
 }

@@ -104,7 +104,7 @@ export async function assertNotThrottled(event: H3Event, checks: [ThrottleBucket
     statusCode: 429,
     statusMessage: 'Too Many Requests',
     message: `${worst.field}: too many ${worst.what}. Try again in ${wait}.`,
-    data: { retryAfterSeconds: retryAfter },
+    data: { retryAfter_s: retryAfter },
   })
 }
 

@@ -91,7 +91,7 @@ function runYear(input: AssessInput, reserved: number, annual: Conditions, month
 
 function modeFigures(r: YearRun): ModeFigures {
   return {
-    annualEnergy_MWh: r.energy.annualEnergyMWh,
+    annualEnergy_MWh: r.energy.annualEnergy_MWh,
     worstMonthNetGain_mgL: Math.min(...r.monthStates.map((f) => f.oxygen.netGain_mgL)),
     worstNetGain_mgL: r.year.tallies['net-oxygen-loss'].worst?.value ?? 0,
     meanNetGain_mgL: r.year.meanNetGain_mgL,
@@ -137,7 +137,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   const main = runYear(input, reserved, annual, monthCond, h, curves, flows)
   const other = options.compareModes === false ? main : runYear(otherMode(input), reserved, annual, monthCond, h, curves, flows)
   const { s, energy, year, monthStates } = main
-  const ratingW = s.ratedPerUnit_W * o.units
+  const rating_W = s.ratedPerUnit_W * o.units
   const closed = new Set(o.operation.closedMonths)
 
   const perFlow = PER_FLOW_EXCEEDANCES.map((p) => perFlowRow(p, flowState(s, flowAtExceedance(h.fdc, p), annual)))
@@ -156,7 +156,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
       netGain_mgL: fs.oxygen.netGain_mgL, target_mgL: st.oxygenTarget_mgL, unitTotalDissolvedGas: fs.oxygen.unitTdg,
       cavitationMargin_m: fs.unitsRunning > 0 ? fs.cavitationMargin_m : null, flags: ym.flags,
       runningShare: ym.runningShare, lossShare: ym.lossShare, worstNetGain_mgL: ym.worstNetGain_mgL,
-      energy_MWh: energy.energyByMonthMWh[m] ?? 0,
+      energy_MWh: energy.energyByMonth_MWh[m] ?? 0,
       energyBasis: h.days ? 'record' : curveBasis === 'seasonal-profile' ? 'month-curve' : 'annual-curve',
     }
   })
@@ -166,21 +166,21 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   const slfState = monthStates[slf.month - 1] ?? flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
 
   const money = moneySummary({
-    ...o.costs, ratingW, units: o.units, annualEnergyMWh: energy.annualEnergyMWh,
-    opexFraction: st.opexFraction, discountRate: st.discountRate, lifeYears: st.lifeYears, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
+    ...o.costs, rating_W, units: o.units, annualEnergy_MWh: energy.annualEnergy_MWh,
+    opexFraction: st.opexFraction, discountRate: st.discountRate, life_yr: st.life_yr, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
   })
 
   const flags = buildFlags({ s, year, energy, grid })
   const worstCav = year.worstCavitation
   const worstTdg = year.worstTdg
 
-  const ft = slfState.oxygen
+  const slfOxygen = slfState.oxygen
   const methods: MethodsComparison = {
     summaryUses: st.oxygenMethod,
     note: 'Field transfer applies the ASCE/EWRI 2-06 correction, made for diffusers on a tank floor; bubble contact uses Higbie penetration theory for air drawn into a turbulent throat and diffuser. Both approach saturation exponentially and neither can pass it.',
     atSummerLowFlow: {
-      fieldTransfer: { unitOutlet_mgL: ft.unitFieldTransfer_mgL, downstream_mgL: ft.withSchemeFieldTransfer_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? ft.withSchemeFieldTransfer_mgL - ft.withoutScheme_mgL : 0 },
-      bubbleContact: { unitOutlet_mgL: ft.unitBubbleContact_mgL, downstream_mgL: ft.withSchemeBubbleContact_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? ft.withSchemeBubbleContact_mgL - ft.withoutScheme_mgL : 0 },
+      fieldTransfer: { unitOutlet_mgL: slfOxygen.unitFieldTransfer_mgL, downstream_mgL: slfOxygen.withSchemeFieldTransfer_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? slfOxygen.withSchemeFieldTransfer_mgL - slfOxygen.withoutScheme_mgL : 0 },
+      bubbleContact: { unitOutlet_mgL: slfOxygen.unitBubbleContact_mgL, downstream_mgL: slfOxygen.withSchemeBubbleContact_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? slfOxygen.withSchemeBubbleContact_mgL - slfOxygen.withoutScheme_mgL : 0 },
     },
   }
 
@@ -189,10 +189,10 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   const g = s.geometry
   return {
     summary: {
-      annualEnergy_MWh: energy.annualEnergyMWh,
+      annualEnergy_MWh: energy.annualEnergy_MWh,
       capacityFactor: energy.capacityFactor,
-      fullLoadHours: energy.fullLoadHours,
-      ratedPower_kW: ratingW / 1000,
+      annualFullLoad_h: energy.annualFullLoad_h,
+      ratedPower_kW: rating_W / 1000,
       ratingSizedToDesign: s.ratingSizedToDesign,
       meanAirFlow_m3s: year.meanAirFlow_m3s,
       peakAirFlow_m3s: year.peakAirFlow_m3s,
@@ -213,7 +213,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
     operation: {
       mode: o.operation.mode, allowedDrawdown_m: o.operation.allowedDrawdown_m, closedMonths: [...o.operation.closedMonths].sort((a, b) => a - b),
       runningShare: year.runningShare, modesCompared: other !== main, energyFirst: modeFigures(energyFirst), riverFirst: modeFigures(riverFirst),
-      energyGivenUpForRiver_MWh: energyFirst.energy.annualEnergyMWh - riverFirst.energy.annualEnergyMWh,
+      energyGivenUpForRiver_MWh: energyFirst.energy.annualEnergy_MWh - riverFirst.energy.annualEnergy_MWh,
       basis: year.basis,
     },
     hydrology: {

@@ -21,9 +21,6 @@ export function riseVelocity(diameter_m: number): number {
   return 4.202 * r ** 0.547
 }
 
-/** Bubble radius at which the McGinnis & Little film coefficient stops growing, m (0.6·r = 4×10⁻⁴ m/s). */
-export const MCGINNIS_LITTLE_BREAK_RADIUS_m = 6.67e-4
-
 /**
  * Liquid-film coefficient of O₂ at 20 °C, m/s: K_L = 0.6·r (r < 0.667 mm), 4×10⁻⁴ above, r in m
  * (McGinnis & Little 2002, after Wüest et al. 1992; coefficients from memory).

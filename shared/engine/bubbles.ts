@@ -36,9 +36,6 @@ export const BUBBLE_DEFAULTS = {
   integrationSteps: v(60, '-', 'illustrative: fixed steps, half in the diffuser and half in the rise; 60 keep ΔP within about 1 mmHg of a 4000-step run (second-order method), and fewer lose accuracy, never stability'),
 } as const satisfies Record<string, SourcedValue>
 
-/** Range of initial bubble diameters the model is meant for, m (REFERENCES §11 judgement). */
-export const BUBBLE_DIAMETER_RANGE_m = { min: 0.001, max: 0.006 } as const
-
 /** Molar gas constant R, J/(mol·K) (CODATA 2018, exact). */
 export const R_GAS = 8.314462618
 

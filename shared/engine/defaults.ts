@@ -57,7 +57,7 @@ export const DEFAULTS = {
   weirA: v(1.8, '-', 'Butts & Evans (1983): clean water'),
   weirB: v(0.8, '-', 'Butts & Evans (1983): sharp-crested weir, vertical face'),
   discountRate: v(0.08, '1/yr', 'illustrative'),
-  lifeYears: v(25, 'yr', 'illustrative'),
+  life: v(25, 'yr', 'illustrative'),
   opexFraction: v(0.03, '1/yr', 'illustrative (fraction of capex a year)'),
 } as const satisfies Record<string, SourcedValue>
 

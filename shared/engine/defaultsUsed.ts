@@ -32,7 +32,7 @@ export function defaultsUsed(input: AssessInput): DefaultUsed[] {
   check('option.turbine.generatorEfficiency', o.turbine.generatorEfficiency, DEFAULTS.generatorEfficiency)
   check('option.turbine.cutInFraction', o.turbine.cutInFraction, DEFAULTS.turbineCutInFraction)
   check('option.costs.fixedCost', o.costs.fixedCost, MONEY_DEFAULTS.fixedCost)
-  check('option.costs.costPerKw', o.costs.costPerKw, MONEY_DEFAULTS.costPerKw)
+  check('option.costs.ratedPowerPrice', o.costs.ratedPowerPrice, MONEY_DEFAULTS.ratedPowerPrice)
   check('option.costs.civilsPerUnit', o.costs.civilsPerUnit, MONEY_DEFAULTS.civilsPerUnit)
   check('site.salinity_gkg', input.site.salinity_gkg, DEFAULTS.salinity)
   const a = WATER_QUALITY_A[input.site.waterQuality]
@@ -57,7 +57,7 @@ export function defaultsUsed(input: AssessInput): DefaultUsed[] {
     ['plumeTime_s', st.plumeTime_s, DEFAULTS.plumeTime],
     ['airTemperatureOffset_K', st.airTemperatureOffset_K, DEFAULTS.airTemperatureOffset],
     ['discountRate', st.discountRate, MONEY_DEFAULTS.discountRate],
-    ['lifeYears', st.lifeYears, MONEY_DEFAULTS.lifeYears],
+    ['life_yr', st.life_yr, MONEY_DEFAULTS.life_yr],
     ['opexFraction', st.opexFraction, MONEY_DEFAULTS.opexFraction],
     ['exportPrice', st.exportPrice, MONEY_DEFAULTS.exportPrice],
     ['gridFactor', st.gridFactor, MONEY_DEFAULTS.gridFactor],

@@ -36,7 +36,7 @@ export const ENERGY_DEFAULTS = {
 /** Options shared by both annual-energy methods. */
 export interface EnergyOptions {
   /** Installed electrical rating, W; 0 gives capacity factor and full-load hours of 0. */
-  ratingW: number
+  rating_W: number
   /** Fraction of the year the plant can run, 0–1 (default 0.95, illustrative). */
   availability?: number
   /**
@@ -59,17 +59,17 @@ export interface FdcEnergyOptions extends EnergyOptions {
 /** Annual energy and its breakdown. */
 export interface AnnualEnergy {
   /** Mean annual electrical energy after availability, MWh/yr. */
-  annualEnergyMWh: number
+  annualEnergy_MWh: number
   /**
    * Twelve values, January first, MWh/yr, after availability; null where the month has no data.
-   * From a record they sum exactly to `annualEnergyMWh`; from monthly FDCs they sum only roughly
+   * From a record they sum exactly to `annualEnergy_MWh`; from monthly FDCs they sum only roughly
    * to it (the annual figure comes from the annual curve).
    */
-  energyByMonthMWh: (number | null)[]
+  energyByMonth_MWh: (number | null)[]
   /** Annual energy / (rating × hours per year), 0–1; 0 when the rating is 0. */
   capacityFactor: number
   /** Annual energy / rating, h/yr; 0 when the rating is 0. */
-  fullLoadHours: number
+  annualFullLoad_h: number
   /** Hours per year behind the figures (24 × 365.25 for a record, 8760 by default for an FDC). */
   hoursPerYear: number
 }
@@ -90,7 +90,7 @@ export function annualEnergyFromRecord(
   powerAt: PowerAt,
   options: EnergyOptions,
 ): RecordEnergy {
-  const { availability, ratingW } = readOptions(options)
+  const { availability, rating_W } = readOptions(options)
   if (!Array.isArray(days)) throw new EngineInputError('days', 'must be a list of days')
   const power = options.memoise === false ? checked(powerAt) : memoised(powerAt)
   const whByMonth = new Array<number>(12).fill(0)
@@ -108,13 +108,13 @@ export function annualEnergyFromRecord(
   if (n === 0) throw new EngineInputError('days', 'the record has no days with flow data')
   const years = n / DAYS_PER_YEAR
   const toMWhPerYear = availability / years / 1e6
-  const energyByMonthMWh = whByMonth.map((wh, k) => ((daysByMonth[k] as number) > 0 ? wh * toMWhPerYear : null))
-  const annualEnergyMWh = whByMonth.reduce((s, wh) => s + wh, 0) * toMWhPerYear
+  const energyByMonth_MWh = whByMonth.map((wh, k) => ((daysByMonth[k] as number) > 0 ? wh * toMWhPerYear : null))
+  const annualEnergy_MWh = whByMonth.reduce((s, wh) => s + wh, 0) * toMWhPerYear
   const hoursPerYear = 24 * DAYS_PER_YEAR
   return {
-    annualEnergyMWh,
-    energyByMonthMWh,
-    ...loadFigures(annualEnergyMWh, ratingW, hoursPerYear),
+    annualEnergy_MWh,
+    energyByMonth_MWh,
+    ...loadFigures(annualEnergy_MWh, rating_W, hoursPerYear),
     hoursPerYear,
     daysWithData: n,
     daysWithDataByMonth: daysByMonth,
@@ -124,7 +124,7 @@ export function annualEnergyFromRecord(
 
 /** E = A · 8760 h · ∫₀¹ P_e(Q(p)) dp by the midpoint rule; by month from monthly FDCs × hours in the month (FDC method, common practice). */
 export function annualEnergyFromFdc(fdc: Fdc, powerAt: PowerAt, options: FdcEnergyOptions): AnnualEnergy {
-  const { availability, ratingW } = readOptions(options)
+  const { availability, rating_W } = readOptions(options)
   const gridPoints = checkNumber(options.gridPoints ?? ENERGY_DEFAULTS.gridPoints.value, 'gridPoints', {
     min: 1,
     integer: true,
@@ -139,20 +139,20 @@ export function annualEnergyFromFdc(fdc: Fdc, powerAt: PowerAt, options: FdcEner
   }
   const grid = exceedanceGrid(gridPoints)
   const power = memoisedAlongCurve(powerAt)
-  const meanPowerW = (curve: Fdc, month: number): number =>
+  const meanPower_W = (curve: Fdc, month: number): number =>
     grid.reduce((s, p) => s + power(flowAtExceedance(curve, p), month), 0) / gridPoints
 
-  const annualEnergyMWh = (meanPowerW(fdc, MONTH_ANNUAL) * hoursPerYear * availability) / 1e6
-  const energyByMonthMWh = DAYS_IN_MONTH.map((days, k) => {
+  const annualEnergy_MWh = (meanPower_W(fdc, MONTH_ANNUAL) * hoursPerYear * availability) / 1e6
+  const energyByMonth_MWh = DAYS_IN_MONTH.map((days, k) => {
     const curve = monthly?.[k]
     if (!curve) return null
     const hours = (days * 24 * hoursPerYear) / HOURS_PER_YEAR
-    return (meanPowerW(curve, k + 1) * hours * availability) / 1e6
+    return (meanPower_W(curve, k + 1) * hours * availability) / 1e6
   })
   return {
-    annualEnergyMWh,
-    energyByMonthMWh,
-    ...loadFigures(annualEnergyMWh, ratingW, hoursPerYear),
+    annualEnergy_MWh,
+    energyByMonth_MWh,
+    ...loadFigures(annualEnergy_MWh, rating_W, hoursPerYear),
     hoursPerYear,
   }
 }
@@ -250,27 +250,27 @@ export function tabulatedPower(
 
 /** Capacity factor CF = E / (P_rated · hours per year) and full-load hours E / P_rated; zeros for a zero rating (definitions). */
 export function loadFigures(
-  annualEnergyMWh: number,
-  ratingW: number,
+  annualEnergy_MWh: number,
+  rating_W: number,
   hoursPerYear: number = HOURS_PER_YEAR,
-): { capacityFactor: number; fullLoadHours: number } {
-  const e = checkNumber(annualEnergyMWh, 'annualEnergyMWh', { min: 0 })
-  const rating = checkNumber(ratingW, 'ratingW', { min: 0 })
+): { capacityFactor: number; annualFullLoad_h: number } {
+  const e = checkNumber(annualEnergy_MWh, 'annualEnergy_MWh', { min: 0 })
+  const rating = checkNumber(rating_W, 'rating_W', { min: 0 })
   const hours = checkNumber(hoursPerYear, 'hoursPerYear', { min: 0, minExclusive: true })
-  if (rating === 0) return { capacityFactor: 0, fullLoadHours: 0 }
-  const fullLoadHours = (e * 1e6) / rating
-  return { capacityFactor: fullLoadHours / hours, fullLoadHours }
+  if (rating === 0) return { capacityFactor: 0, annualFullLoad_h: 0 }
+  const annualFullLoad_h = (e * 1e6) / rating
+  return { capacityFactor: annualFullLoad_h / hours, annualFullLoad_h }
 }
 
 // ——— internals ———
 
-function readOptions(options: EnergyOptions): { availability: number; ratingW: number } {
+function readOptions(options: EnergyOptions): { availability: number; rating_W: number } {
   return {
     availability: checkNumber(options?.availability ?? ENERGY_DEFAULTS.availability.value, 'availability', {
       min: 0,
       max: 1,
     }),
-    ratingW: checkNumber(options?.ratingW, 'ratingW', { min: 0 }),
+    rating_W: checkNumber(options?.rating_W, 'rating_W', { min: 0 }),
   }
 }
 

@@ -46,7 +46,7 @@ export function buildFlags(c: FlagContext): Flag[] {
   const st = c.s.input.settings
   const y = c.year
   const t = y.tallies
-  const never = !(c.energy.annualEnergyMWh > 0)
+  const never = !(c.energy.annualEnergy_MWh > 0)
   const flags: Flag[] = []
 
   const cav = t['cavitation']
@@ -86,6 +86,6 @@ export function buildFlags(c: FlagContext): Flag[] {
       : `Below the weir the river meets the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target all year${below.worst ? ` (lowest ${fmt(below.worst.value)} mg/L, at ${when(below.worst)})` : ''}.`))
 
   flags.push(flag('never-runs', 'note', never, null, null,
-    never ? neverRunsReason(c.s, c.grid) : `The units run ${pct(y.runningShare)} of the year and make ${fmt(c.energy.annualEnergyMWh, 1)} MWh in an average year.`))
+    never ? neverRunsReason(c.s, c.grid) : `The units run ${pct(y.runningShare)} of the year and make ${fmt(c.energy.annualEnergy_MWh, 1)} MWh in an average year.`))
   return flags
 }

@@ -1,7 +1,6 @@
 // The operating rule: which units run at one river flow and month, at what head, and why the rest
 // stay shut. Pure hydraulics of level control here; the air, power and river checks a candidate must
 // pass are handed in by the caller (schemeKernel.ts), which has the unit physics and the oxygen.
-import { DEFAULTS } from './defaults'
 
 /** How the units are run: energy first (every unit that can run does), or river first (never at the river's cost). */
 export type OperatingMode = 'energy-first' | 'river-first'
@@ -121,19 +120,4 @@ export function operate(i: LevelControlInput, curve: UnitCurve, closed: boolean,
     reason = verdict
   }
   return stopped(reason ?? 'too-little-flow')
-}
-
-/** The operating settings of an option, defaults filled in. */
-export interface OperatingRule {
-  mode: OperatingMode
-  allowedDrawdown_m: number
-  /** Calendar months (1–12) in which every unit is shut, e.g. a consent's summer closure. */
-  closedMonths: readonly number[]
-}
-
-/** The default operating rule (energy first, 0.05 m drawdown, no closed months). */
-export const DEFAULT_OPERATING_RULE: OperatingRule = {
-  mode: 'energy-first',
-  allowedDrawdown_m: DEFAULTS.allowedDrawdown.value,
-  closedMonths: [],
 }

@@ -141,7 +141,7 @@ export interface SummerLowFlow {
 export interface AssessSummary {
   annualEnergy_MWh: number
   capacityFactor: number
-  fullLoadHours: number
+  annualFullLoad_h: number
   ratedPower_kW: number
   ratingSizedToDesign: boolean
   meanAirFlow_m3s: number

@@ -28,8 +28,8 @@ interface UnitSide {
   airMass: number
   air: number
   units: number
-  ft: TransferResult
-  bc: TransferResult
+  field: TransferResult
+  bubble: TransferResult
   tdg: number
 }
 
@@ -44,11 +44,11 @@ function unitSide(s: Scheme, ps: PowerState, c: Conditions, cs: number): UnitSid
   const running = ps.unitsRunning > 0 ? 1 : 0
   if (last && Object.is(last.tC, c.tC) && Object.is(last.upstream, c.upstreamO2_mgL) && Object.is(last.unitFlow, ps.unitFlow_m3s)
     && Object.is(last.airMass, ps.airMassFlowPerUnit_kgs) && Object.is(last.air, air) && last.units === running) return last
-  const ft = unitFieldTransfer(s, ps, c)
-  const bc = unitBubbleContact(s, ps, c, ft)
+  const field = unitFieldTransfer(s, ps, c)
+  const bubble = unitBubbleContact(s, ps, c, field)
   const side: UnitSide = {
     tC: c.tC, upstream: c.upstreamO2_mgL, unitFlow: ps.unitFlow_m3s, airMass: ps.airMassFlowPerUnit_kgs, air, units: running,
-    ft, bc, tdg: tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? bc : ft),
+    field, bubble, tdg: tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? bubble : field),
   }
   lastUnitSide.set(s, side)
   return side
@@ -64,32 +64,18 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
   // the water over the weir is aerated as all of it is without the scheme.
   const weirStream = overWeir(cs, c, a, b, ps.grossHead_m)
   const without = ps.riverFlow_m3s > 0 ? weirStream : c.upstreamO2_mgL
-  const { ft, bc, tdg } = unitSide(s, ps, c, cs)
+  const { field, bubble, tdg } = unitSide(s, ps, c, cs)
   const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
   const weirQ = ps.reserved_m3s + ps.spill_m3s
-  const withFt = mixWithWeir(unitsQ, ft.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
-  const withBc = mixWithWeir(unitsQ, bc.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
-  const useBc = s.input.settings.oxygenMethod === 'bubble-contact'
-  const withScheme = useBc ? withBc : withFt
+  const withField = mixWithWeir(unitsQ, field.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
+  const withBubble = mixWithWeir(unitsQ, bubble.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
+  const withScheme = s.input.settings.oxygenMethod === 'bubble-contact' ? withBubble : withField
   return {
     saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, weirStream_mgL: weirStream,
-    unitFieldTransfer_mgL: ft.cOut_mgL, unitBubbleContact_mgL: bc.cOut_mgL,
-    withSchemeFieldTransfer_mgL: withFt, withSchemeBubbleContact_mgL: withBc, withScheme_mgL: withScheme,
+    unitFieldTransfer_mgL: field.cOut_mgL, unitBubbleContact_mgL: bubble.cOut_mgL,
+    withSchemeFieldTransfer_mgL: withField, withSchemeBubbleContact_mgL: withBubble, withScheme_mgL: withScheme,
     netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0, unitTdg: tdg,
   }
-}
-
-/**
- * Total dissolved gas of the unit discharge at one power state: oxygenState's `unitTdg` without the
- * weir and mixing figures, for the summary grids, which need only this. Both go through the same
- * functions (unitFieldTransfer, unitBubbleContact, tdgOf) with the same arguments, so the figure is
- * identical; bubble contact is skipped when the summary uses field transfer, as the figure then does
- * not depend on it.
- */
-export function unitTotalDissolvedGas(s: Scheme, ps: PowerState, c: Conditions): number {
-  const cs = oxygenSaturation(c.tC, s.p_atm, s.input.site.salinity_gkg)
-  const ft = unitFieldTransfer(s, ps, c)
-  return tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? unitBubbleContact(s, ps, c, ft) : ft)
 }
 
 /** Field transfer in one unit (ASCE/EWRI 2-06). */
@@ -103,11 +89,11 @@ function unitFieldTransfer(s: Scheme, ps: PowerState, c: Conditions): TransferRe
 }
 
 /** Bubble contact in one unit (Higbie 1935), toward field transfer's C*. */
-function unitBubbleContact(s: Scheme, ps: PowerState, c: Conditions, ft: TransferResult): TransferResult {
+function unitBubbleContact(s: Scheme, ps: PowerState, c: Conditions, field: TransferResult): TransferResult {
   const st = s.input.settings
   const perUnitAir = ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0
   return bubbleContact({
-    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: ft.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airFlow_m3s: perUnitAir,
+    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: field.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airFlow_m3s: perUnitAir,
     airMassFlow_kgs: ps.airMassFlowPerUnit_kgs, bubbleDiameter_m: st.bubbleDiameter_m, slipVelocity_ms: st.slipVelocity_ms,
     diffusivity20: st.oxygenDiffusivity20,
     contactTime_s: contactTime(s.diffuserLength_m, ps.unitFlow_m3s, circleArea(s.geometry.throatDiameter_m), circleArea(s.geometry.outletDiameter_m), st.plumeTime_s),

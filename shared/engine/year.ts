@@ -97,17 +97,17 @@ export function yearEnergy(input: AssessInput, h: SiteHydrology, s: Scheme, mont
   const stateAt = (flow: number, month: number): PowerSample => powerSample(s, flow, months[month - 1] as Conditions)
   const range = flowRange(h.days ? [h.fdc] : curves.map((c) => c.curve))
   const power: PowerAt = tabulatedPower(stateAt, range.min, range.max)
-  const ratingW = s.ratedPerUnit_W * input.option.units
+  const rating_W = s.ratedPerUnit_W * input.option.units
   const availability = input.settings.availability
-  if (h.days) return annualEnergyFromRecord(h.days, power, { ratingW, availability, memoise: false })
-  const energyByMonthMWh = curves.map((c, k) => {
+  if (h.days) return annualEnergyFromRecord(h.days, power, { rating_W, availability, memoise: false })
+  const energyByMonth_MWh = curves.map((c, k) => {
     const flows = gridFlows(c.curve, ENERGY_GRID_CELLS)
     let sum = 0
     for (const q of flows) sum += power(q, k + 1)
     return ((sum / flows.length) * (DAYS_IN_MONTH[k] ?? 30) * 24 * availability) / 1e6
   })
-  const annualEnergyMWh = energyByMonthMWh.reduce((a, b) => a + b, 0)
-  return { annualEnergyMWh, energyByMonthMWh, ...loadFigures(annualEnergyMWh, ratingW, 8760), hoursPerYear: 8760 }
+  const annualEnergy_MWh = energyByMonth_MWh.reduce((a, b) => a + b, 0)
+  return { annualEnergy_MWh, energyByMonth_MWh, ...loadFigures(annualEnergy_MWh, rating_W, 8760), hoursPerYear: 8760 }
 }
 
 /** One flag's tally over the year. */

@@ -121,7 +121,7 @@ export const TurbineInputSchema = z.object({
 /** Costs of an option (all defaults illustrative). */
 export const CostInputSchema = z.object({
   fixedCost: amount.default(MONEY_DEFAULTS.fixedCost.value),
-  costPerKw: amount.default(MONEY_DEFAULTS.costPerKw.value),
+  ratedPowerPrice: amount.default(MONEY_DEFAULTS.ratedPowerPrice.value),
   civilsPerUnit: amount.default(MONEY_DEFAULTS.civilsPerUnit.value),
 })
 
@@ -177,7 +177,7 @@ export const SettingsInputSchema = z.object({
   airTemperatureOffset_K: num.min(-30).max(30).default(d('airTemperatureOffset')),
   oxygenMethod: z.enum(['field-transfer', 'bubble-contact']).default('field-transfer'),
   discountRate: num.min(0).max(0.5).default(MONEY_DEFAULTS.discountRate.value),
-  lifeYears: num.min(1, 'must be 1 year or more').max(100).default(MONEY_DEFAULTS.lifeYears.value),
+  life_yr: num.min(1, 'must be 1 year or more').max(100).default(MONEY_DEFAULTS.life_yr.value),
   opexFraction: fraction.default(MONEY_DEFAULTS.opexFraction.value),
   exportPrice: amount.default(MONEY_DEFAULTS.exportPrice.value),
   gridFactor: nonNegative.max(2).default(MONEY_DEFAULTS.gridFactor.value),

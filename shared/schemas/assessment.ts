@@ -57,13 +57,13 @@ export interface AssessmentDto {
   supersedes: number | null
   /** Id of the newer assessment that re-ran this one, or null. */
   supersededBy: number | null
-  annualEnergyMWh: number
+  annualEnergy_MWh: number
   capacityFactor: number
-  ratedPowerKw: number
+  ratedPower_kW: number
   /** Null when the units never run. */
-  minCavitationMarginM: number | null
+  minCavitationMargin_m: number | null
   /** Net dissolved-oxygen gain at summer low flow, mg/L. */
-  netOxygenGainSlfMgL: number
+  netOxygenGainSummerLowFlow_mgL: number
   /** Levelised cost, money per MWh; null when no energy. */
   lcoe: number | null
   /** Flags raised. */

@@ -26,7 +26,7 @@ export type CompareQuery = z.infer<typeof CompareQuerySchema>
 /** One column of the comparison. */
 export interface CompareItem {
   option: { id: number; name: string; design: OptionDesign; settings: OptionSettings; version: number }
-  site: { id: number; orgId: number; name: string; riverName: string; grossHeadM: number }
+  site: { id: number; orgId: number; name: string; riverName: string; grossHead_m: number }
   latestAssessment: AssessmentDto | null
 }
 

@@ -41,7 +41,7 @@ export interface FlowRecordSummary {
   /** (last − first + 1 days) / 365.25, to 2 decimals. */
   years: number
   /** Area-ratio scaling applied to the gauged flows, or null when stored as given. */
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number; factor: number } | null
+  scale: { siteArea_km2: number; gaugeArea_km2: number; factor: number } | null
   /** From the site flows' FDC; null when no day has a flow. */
   stats: FlowStats | null
 }
@@ -59,7 +59,7 @@ const optionalArea = z
 
 /**
  * Text fields of the multipart POST /api/sites/[id]/flow-record (besides `file`).
- * `scale`: 'auto' scales by siteAreaKm2/gaugeAreaKm2 when both are given, else by the site's
+ * `scale`: 'auto' scales by siteArea_km2/gaugeArea_km2 when both are given, else by the site's
  * catchment when it has one; 'none' stores the flows as given. Append mode keeps the stored record's scaling.
  */
 export const FlowRecordFormSchema = z
@@ -69,15 +69,15 @@ export const FlowRecordFormSchema = z
     mode: z.enum(FLOW_UPLOAD_MODES, { error: "must be 'replace' or 'append'" }).default('replace'),
     dateFormat: z.enum(DATE_FORMATS, { error: "must be 'auto', 'iso' or 'day-first'" }).default('auto'),
     scale: z.enum(['auto', 'none'], { error: "must be 'auto' or 'none'" }).default('auto'),
-    siteAreaKm2: optionalArea,
-    gaugeAreaKm2: optionalArea,
+    siteArea_km2: optionalArea,
+    gaugeArea_km2: optionalArea,
   })
   .superRefine((f, ctx) => {
-    if ((f.siteAreaKm2 === undefined) !== (f.gaugeAreaKm2 === undefined)) {
-      ctx.addIssue({ code: 'custom', path: [f.siteAreaKm2 === undefined ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: 'give both catchment areas, or neither' })
+    if ((f.siteArea_km2 === undefined) !== (f.gaugeArea_km2 === undefined)) {
+      ctx.addIssue({ code: 'custom', path: [f.siteArea_km2 === undefined ? 'siteArea_km2' : 'gaugeArea_km2'], message: 'give both catchment areas, or neither' })
     }
-    const problem = f.siteAreaKm2 !== undefined && f.gaugeAreaKm2 !== undefined ? areaRatioProblem(f.siteAreaKm2, f.gaugeAreaKm2) : null
-    if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: problem.message })
+    const problem = f.siteArea_km2 !== undefined && f.gaugeArea_km2 !== undefined ? areaRatioProblem(f.siteArea_km2, f.gaugeArea_km2) : null
+    if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteArea_km2' : 'gaugeArea_km2'], message: problem.message })
   })
 export type FlowRecordForm = z.infer<typeof FlowRecordFormSchema>
 
@@ -134,7 +134,7 @@ export interface HydrologyDto {
   monthly: { month: number; days: number; stats: FlowStats | null }[]
   reservedFlow: { setting: ReservedFlow; flow: number | null }
   /** Area-ratio scaling applied, or null. */
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number; factor: number } | null
+  scale: { siteArea_km2: number; gaugeArea_km2: number; factor: number } | null
   /** Days with flow (record) or number of entered points. */
   count: number
 }

@@ -7,8 +7,8 @@ import { REVIEW_STATES, type ReviewState } from './review'
 
 /** Columns the portfolio may be sorted by (allow-list). Figures sort with sites never assessed last. */
 export const PORTFOLIO_SORTS = [
-  'name', 'riverName', 'grossHeadM', 'assessedAt',
-  'annualEnergyMWh', 'capacityFactor', 'ratedPowerKw', 'minCavitationMarginM', 'netOxygenGainSlfMgL', 'lcoe', 'flagsRaised',
+  'name', 'riverName', 'grossHead_m', 'assessedAt',
+  'annualEnergy_MWh', 'capacityFactor', 'ratedPower_kW', 'minCavitationMargin_m', 'netOxygenGainSummerLowFlow_mgL', 'lcoe', 'flagsRaised',
   'reviewState',
 ] as const
 export type PortfolioSort = (typeof PORTFOLIO_SORTS)[number]
@@ -43,11 +43,11 @@ export interface PortfolioLatest {
   assessedAt: string
   engineVersion: string
   stale: boolean
-  annualEnergyMWh: number
+  annualEnergy_MWh: number
   capacityFactor: number
-  ratedPowerKw: number
-  minCavitationMarginM: number | null
-  netOxygenGainSlfMgL: number
+  ratedPower_kW: number
+  minCavitationMargin_m: number | null
+  netOxygenGainSummerLowFlow_mgL: number
   lcoe: number | null
   flagsRaised: FlagId[]
 }
@@ -58,7 +58,7 @@ export interface PortfolioRow {
   name: string
   riverName: string
   location: { lat: number; lng: number }
-  grossHeadM: number
+  grossHead_m: number
   /** The site's review state; `draft` when nobody has submitted it. */
   reviewState: ReviewState
   /** Null when no live option of the site has an assessment yet. */

@@ -107,8 +107,8 @@ export interface ReviewAssessmentRef {
   optionName: string
   engineVersion: string
   createdAt: string
-  annualEnergyMWh: number
-  netOxygenGainSlfMgL: number
+  annualEnergy_MWh: number
+  netOxygenGainSummerLowFlow_mgL: number
   flagsRaised: FlagId[]
 }
 

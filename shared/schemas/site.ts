@@ -58,9 +58,9 @@ export const ReachSchema = z.object({
 /** The weir or drop the installation would sit in. */
 export const WeirSchema = z.object({
   /** Head pool to tail pool at ordinary flows, m. */
-  grossHeadM: positive.max(MAX_GROSS_HEAD_M, `must be ${MAX_GROSS_HEAD_M} m or less`),
+  grossHead_m: positive.max(MAX_GROSS_HEAD_M, `must be ${MAX_GROSS_HEAD_M} m or less`),
   /** Crest width, m. */
-  crestWidthM: positive.max(1000, 'must be 1000 m or less'),
+  crestWidth_m: positive.max(1000, 'must be 1000 m or less'),
   shape: z.enum(WEIR_SHAPES, { error: `must be one of ${WEIR_SHAPES.join(', ')}` }),
   waterQuality: z.enum(WATER_QUALITIES, { error: `must be one of ${WATER_QUALITIES.join(', ')}` }),
 })
@@ -107,7 +107,7 @@ export const OxygenReadingSchema = z
 
 /** One month of site conditions. */
 export const MonthSchema = z.object({
-  waterTempC: num.min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
+  waterTemp_C: num.min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
   upstreamOxygen: OxygenReadingSchema,
 })
 
@@ -116,11 +116,11 @@ export const MonthsSchema = z.array(MonthSchema).length(12, 'needs 12 months, Ja
 
 /** Catchment areas for the area-ratio method, Q_site = Q_gauge · A_site / A_gauge. */
 export const CatchmentSchema = z.object({
-  siteAreaKm2: positive.max(1_000_000, 'is too large'),
-  gaugeAreaKm2: positive.max(1_000_000, 'is too large'),
+  siteArea_km2: positive.max(1_000_000, 'is too large'),
+  gaugeArea_km2: positive.max(1_000_000, 'is too large'),
 }).superRefine((c, ctx) => {
-  const problem = areaRatioProblem(c.siteAreaKm2, c.gaugeAreaKm2)
-  if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteAreaKm2' : 'gaugeAreaKm2'], message: problem.message })
+  const problem = areaRatioProblem(c.siteArea_km2, c.gaugeArea_km2)
+  if (problem) ctx.addIssue({ code: 'custom', path: [problem.area === 'site' ? 'siteArea_km2' : 'gaugeArea_km2'], message: problem.message })
 })
 
 /** One entered FDC point: the flow equalled or exceeded `exceedance` % of the time. */
@@ -155,7 +155,7 @@ const siteFields = {
   location: LocationSchema,
   reach: ReachSchema.nullable(),
   /** Altitude of the weir above sea level, m (sets the air pressure). */
-  altitudeM: AltitudeSchema,
+  altitude_m: AltitudeSchema,
   weir: WeirSchema,
   headTable: HeadTableSchema,
   reservedFlow: ReservedFlowSchema,
@@ -163,7 +163,7 @@ const siteFields = {
   catchment: CatchmentSchema.nullable(),
   fdcPoints: FdcPointsSchema,
   /** Downstream oxygen target, mg/L (common practice: 6; the regulator's figure replaces it). */
-  targetOxygenMgL: TargetOxygenSchema,
+  targetOxygen_mgL: TargetOxygenSchema,
   notes: NotesSchema,
 }
 
@@ -175,12 +175,12 @@ export const DEFAULT_TARGET_OXYGEN_MGL = 6
 export const SiteInputSchema = z.object({
   ...siteFields,
   reach: siteFields.reach.default(null),
-  altitudeM: siteFields.altitudeM.default(0),
+  altitude_m: siteFields.altitude_m.default(0),
   headTable: siteFields.headTable.default([]),
   reservedFlow: siteFields.reservedFlow.default({ ...DEFAULT_RESERVED_FLOW }),
   catchment: siteFields.catchment.default(null),
   fdcPoints: siteFields.fdcPoints.default([]),
-  targetOxygenMgL: siteFields.targetOxygenMgL.default(DEFAULT_TARGET_OXYGEN_MGL),
+  targetOxygen_mgL: siteFields.targetOxygen_mgL.default(DEFAULT_TARGET_OXYGEN_MGL),
   notes: siteFields.notes.default(''),
 })
 export type SiteInput = z.infer<typeof SiteInputSchema>
@@ -220,14 +220,14 @@ export interface SiteDto {
   riverName: string
   location: { lat: number; lng: number }
   reach: Reach | null
-  altitudeM: number
+  altitude_m: number
   weir: Weir
   headTable: HeadRow[]
   reservedFlow: ReservedFlow
   months: Month[]
   catchment: Catchment | null
   fdcPoints: FdcPointInput[]
-  targetOxygenMgL: number
+  targetOxygen_mgL: number
   notes: string
   /** Send it back with PATCH; it rises by one with every change. */
   version: number

@@ -4,7 +4,7 @@ import { fromDigits } from './common'
 import type { HydrologySource } from './site'
 
 /** Columns the site list may be sorted by (allow-list). */
-export const SITE_SORTS = ['name', 'riverName', 'grossHeadM', 'createdAt', 'updatedAt'] as const
+export const SITE_SORTS = ['name', 'riverName', 'grossHead_m', 'createdAt', 'updatedAt'] as const
 export type SiteSort = (typeof SITE_SORTS)[number]
 
 /** Query of GET /api/orgs/[orgId]/sites. `deleted=only` lists the soft-deleted sites (admins only). */
@@ -30,8 +30,8 @@ export interface SiteListItem {
   name: string
   riverName: string
   location: { lat: number; lng: number }
-  altitudeM: number
-  grossHeadM: number
+  altitude_m: number
+  grossHead_m: number
   hydrologySource: HydrologySource
   /** Mean flow of the stored record, m³/s, else null. */
   recordMeanFlow: number | null
@@ -57,6 +57,6 @@ export interface SiteMapPoint {
   riverName: string
   lat: number
   lng: number
-  grossHeadM: number
+  grossHead_m: number
   hydrologySource: HydrologySource
 }

@@ -22,7 +22,7 @@ export const summaryPath = (token: string) => `/s/${encodeURIComponent(token)}`
 
 /** Body of POST /api/sites/[id]/summary-links. */
 export const SummaryLinkInputSchema = z.object({
-  expiresInDays: z.coerce
+  expiresIn_d: z.coerce
     .number({ error: 'must be a number' })
     .int('must be a whole number of days')
     .min(1, 'must be 1 day or more')
@@ -85,31 +85,31 @@ export interface PublicSummaryDto {
     riverName: string
     location: { lat: number; lng: number }
     reach: Reach | null
-    grossHeadM: number
+    grossHead_m: number
   }
   /** What would be built, from the assessment shown; null when the site has no assessment yet. */
   scheme: {
     optionName: string
     units: number
-    throatDiameterM: number
-    outletDiameterM: number
+    throatDiameter_m: number
+    outletDiameter_m: number
     /** One or two sentences in plain words. */
     description: string
   } | null
   /** Which assessment the figures come from. */
   basis: { kind: 'under-review' | 'latest'; assessedAt: string; engineVersion: string } | null
   energy: {
-    annualEnergyMWh: number
+    annualEnergy_MWh: number
     homesEquivalent: number
-    kWhPerHomePerYear: number
+    annualUsePerHome_kWh: number
     /** Plain-language assumption behind the homes figure. */
     assumption: string
     source: 'illustrative'
   } | null
   /** Oxygen in the river below the weir by month, mg/L. */
   river: {
-    targetMgL: number
-    months: { month: number; name: string; withoutMgL: number; withMgL: number; targetMgL: number }[]
+    target_mgL: number
+    months: { month: number; name: string; without_mgL: number; with_mgL: number; target_mgL: number }[]
     /** Plain words: the summer low-flow gain. */
     summary: string
   } | null

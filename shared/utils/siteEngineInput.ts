@@ -9,20 +9,20 @@ import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } fro
 
 /** What the mapping needs of a site. */
 export interface SiteForEngine {
-  altitudeM: number
+  altitude_m: number
   weir: Weir
   headTable: HeadRow[]
   months: Month[]
   reservedFlow: ReservedFlow
   catchment: Catchment | null
   fdcPoints: FdcPointInput[]
-  targetOxygenMgL: number
+  targetOxygen_mgL: number
 }
 
 /** A daily record for the engine, with the area ratio its flows still need (null when already at the site). */
 export interface RecordForEngine {
   days: { date: string; flow: number | null }[]
-  scale: { siteAreaKm2: number; gaugeAreaKm2: number } | null
+  scale: { siteArea_km2: number; gaugeArea_km2: number } | null
 }
 
 /** The site's part of an engine input, and the downstream oxygen target the site's regulator sets. */
@@ -40,9 +40,9 @@ export class SiteNotReadyError extends Error {
 }
 
 /** Upstream oxygen in mg/L: a %-saturation reading times the Benson & Krause saturation at the site's air pressure (as the engine computes it). */
-export function upstreamOxygenMgL(reading: Month['upstreamOxygen'], waterTempC: number, altitudeM: number, salinity_gkg: number = DEFAULTS.salinity.value): number {
+export function upstreamOxygenMgL(reading: Month['upstreamOxygen'], waterTemp_C: number, altitude_m: number, salinity_gkg: number = DEFAULTS.salinity.value): number {
   if (reading.unit === 'mg/L') return reading.value
-  return (reading.value / 100) * oxygenSaturation(waterTempC, isaPressure(altitudeM), salinity_gkg)
+  return (reading.value / 100) * oxygenSaturation(waterTemp_C, isaPressure(altitude_m), salinity_gkg)
 }
 
 /**
@@ -58,10 +58,10 @@ export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null
       throw new SiteNotReadyError('site.hydrology', 'the stored flow record has no day with a flow; upload another record or delete it and enter FDC points')
     }
     hydrology = { kind: 'record', days: record.days }
-    if (record.scale) gaugeScaling = { siteArea_km2: record.scale.siteAreaKm2, gaugeArea_km2: record.scale.gaugeAreaKm2 }
+    if (record.scale) gaugeScaling = { siteArea_km2: record.scale.siteArea_km2, gaugeArea_km2: record.scale.gaugeArea_km2 }
   } else if (site.fdcPoints.length >= 3) {
     hydrology = { kind: 'fdc', points: site.fdcPoints }
-    if (site.catchment) gaugeScaling = { siteArea_km2: site.catchment.siteAreaKm2, gaugeArea_km2: site.catchment.gaugeAreaKm2 }
+    if (site.catchment) gaugeScaling = { siteArea_km2: site.catchment.siteArea_km2, gaugeArea_km2: site.catchment.gaugeArea_km2 }
   } else {
     throw new SiteNotReadyError('site.hydrology', 'add FDC points or upload a flow record first')
   }
@@ -69,13 +69,13 @@ export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null
   const salinity = DEFAULTS.salinity.value
   return {
     site: {
-      altitude_m: site.altitudeM,
-      grossHead_m: site.weir.grossHeadM,
+      altitude_m: site.altitude_m,
+      grossHead_m: site.weir.grossHead_m,
       headTable: site.headTable.map((r) => ({ flow_m3s: r.flow, head_m: r.head })),
       salinity_gkg: salinity,
       months: site.months.map((m) => ({
-        temperature_C: m.waterTempC,
-        upstreamOxygen_mgL: upstreamOxygenMgL(m.upstreamOxygen, m.waterTempC, site.altitudeM, salinity),
+        temperature_C: m.waterTemp_C,
+        upstreamOxygen_mgL: upstreamOxygenMgL(m.upstreamOxygen, m.waterTemp_C, site.altitude_m, salinity),
       })),
       waterQuality: site.weir.waterQuality,
       weirShape: site.weir.shape,
@@ -83,6 +83,6 @@ export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null
     hydrology,
     gaugeScaling,
     reservedFlow: site.reservedFlow,
-    targetOxygen_mgL: site.targetOxygenMgL,
+    targetOxygen_mgL: site.targetOxygen_mgL,
   }
 }

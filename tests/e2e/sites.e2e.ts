@@ -88,10 +88,10 @@ async function engineerJourney(browser: Browser) {
   // Sorting by a figure is done by the server: energies come back in order.
   const energies = async () => (await page.locator('[data-testid=site-table] tbody [data-testid=cell-energy]').allInnerTexts()).map((t) => Number(t.replace(/,/g, '')))
   await Promise.all([
-    page.waitForResponse((r) => r.url().includes('/portfolio?') && r.url().includes('sort=annualEnergyMWh') && r.ok()),
-    page.click('[data-testid=sort-annualEnergyMWh]'),
+    page.waitForResponse((r) => r.url().includes('/portfolio?') && r.url().includes('sort=annualEnergy_MWh') && r.ok()),
+    page.click('[data-testid=sort-annualEnergy_MWh]'),
   ])
-  await page.waitForSelector('th[aria-sort=ascending] [data-testid=sort-annualEnergyMWh]')
+  await page.waitForSelector('th[aria-sort=ascending] [data-testid=sort-annualEnergy_MWh]')
   // The old page may still be on screen for a frame: wait (bounded by the step's timeout) for the rows to settle in order.
   await page.waitForFunction(() => {
     const v = [...document.querySelectorAll('[data-testid=site-table] tbody [data-testid=cell-energy]')].map((c) => Number((c.textContent ?? '').replace(/,/g, '')))
@@ -116,7 +116,7 @@ async function engineerJourney(browser: Browser) {
 
   // The map is coloured by the chosen figure; the legend states range and units, the popup the value.
   assert.match(await page.locator('[data-testid=map-legend-range]').innerText(), /MWh\/yr.*MWh\/yr/s, 'the energy range has its unit')
-  await page.selectOption('[data-testid=map-colour]', 'netOxygenGainSlfMgL')
+  await page.selectOption('[data-testid=map-colour]', 'netOxygenGainSummerLowFlow_mgL')
   await page.waitForFunction(() => /mg\/L/.test(document.querySelector('[data-testid=map-legend]')?.textContent ?? ''))
   await page.selectOption('[data-testid=map-colour]', 'reviewState')
   await page.waitForFunction(() => (document.querySelector('[data-testid=map-legend]')?.textContent ?? '').includes('Accepted with conditions'))
@@ -167,13 +167,13 @@ async function engineerJourney(browser: Browser) {
   await page.press('#reach-0-lat', 'Enter')
   await page.waitForFunction((before) => document.querySelector('[data-testid=reach-summary]')?.textContent?.trim() !== before, lengthBefore)
   assert.equal(await page.locator('[data-testid=map-site-editor] .leaflet-marker-icon').count(), 5, 'four reach points and the site on the map')
-  await page.fill('#f-weir-grossHeadM', '1.8')
-  await page.fill('#f-weir-crestWidthM', '11.5')
+  await page.fill('#f-weir-grossHead_m', '1.8')
+  await page.fill('#f-weir-crestWidth_m', '11.5')
   // The head table can be started on the new-site form; a wrong row holds the form back.
   await page.click('[data-testid=head-add]')
   await page.fill('#head-0-flow', '1')
   await page.fill('#head-0-head', '-1.8')
-  await page.fill('#f-months-6-waterTempC', '17.5')
+  await page.fill('#f-months-6-waterTemp_C', '17.5')
   await page.click('[data-testid=site-new-form] [data-testid=save]')
   await page.waitForSelector('#head-0-head-error')
   assert.match(await page.innerText('[data-testid=site-new-form] [data-testid=form-error]'), /head table/)
@@ -290,7 +290,7 @@ async function engineerJourney(browser: Browser) {
   // Months.
   await page.click('[data-testid=tab-months]')
   await page.waitForSelector('[data-testid=months-table]')
-  assert.equal(await page.inputValue('#f-months-6-waterTempC'), '17.5')
+  assert.equal(await page.inputValue('#f-months-6-waterTemp_C'), '17.5')
   await page.fill('#f-months-0-upstreamOxygen-value', '45')
   await page.selectOption('#f-months-0-upstreamOxygen-unit', 'mg/L')
   await page.click('[data-testid=site-months-form] [data-testid=save]')

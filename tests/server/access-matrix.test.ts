@@ -148,7 +148,7 @@ beforeAll(async () => {
   must(await uploadRecord(), 201, 'flow record of A1')
   fx.attachmentId = must(await uploadPng(), 201, 'attachment of A1').body.id
   fx.commentId = must(await team.admin.client.post(`/api/sites/${fx.siteA1}/comments`, { body: 'Crest level checked against the survey.' }), 201, 'comment').body.id
-  const link = must(await team.admin.client.post(`/api/sites/${fx.siteA1}/summary-links`, { expiresInDays: 30 }), 201, 'summary link').body
+  const link = must(await team.admin.client.post(`/api/sites/${fx.siteA1}/summary-links`, { expiresIn_d: 30 }), 201, 'summary link').body
   fx.summaryLinkId = link.id
   fx.summaryToken = link.token
   const pending = await invite(team.admin.client, fx.orgA, { email: uniqueEmail('am-pending'), role: 'viewer' })
@@ -328,7 +328,7 @@ const RECIPES: Record<string, Recipe> = {
   'POST /api/options/:id/assessments': { prepare: () => ({ body: {} }) },
   'POST /api/options/:id/sweep/save': { prepare: (caller) => ({ body: { throatDiameter_m: 0.45, units: 2, throatDepth_m: 2.5, name: `Sweep point saved by ${caller}` } }) },
   'POST /api/sites/:id/comments': { prepare: (caller) => ({ body: { body: `Comment from ${caller}`, assessmentId: fx.assessmentId } }) },
-  'POST /api/sites/:id/summary-links': { prepare: () => ({ body: { expiresInDays: 7, note: 'For the landowner' } }) },
+  'POST /api/sites/:id/summary-links': { prepare: () => ({ body: { expiresIn_d: 7, note: 'For the landowner' } }) },
   'POST /api/sites/:id/review/submit': {
     prepare: async () => {
       await ensureNotSubmitted()

@@ -28,11 +28,11 @@ describe('POST /api/options/[id]/assessments', () => {
     expect(first).toMatchObject({ siteId, optionId, engineVersion: ENGINE_VERSION, stale: false, supersedes: null, supersededBy: null })
     expect(first.createdBy.name).toContain('engineer')
     const s = first.result.summary
-    expect(first.annualEnergyMWh).toBe(s.annualEnergy_MWh)
+    expect(first.annualEnergy_MWh).toBe(s.annualEnergy_MWh)
     expect(first.capacityFactor).toBe(s.capacityFactor)
-    expect(first.ratedPowerKw).toBe(s.ratedPower_kW)
-    expect(first.minCavitationMarginM).toBe(s.minCavitationMargin_m)
-    expect(first.netOxygenGainSlfMgL).toBe(s.netOxygenGainSummerLowFlow_mgL)
+    expect(first.ratedPower_kW).toBe(s.ratedPower_kW)
+    expect(first.minCavitationMargin_m).toBe(s.minCavitationMargin_m)
+    expect(first.netOxygenGainSummerLowFlow_mgL).toBe(s.netOxygenGainSummerLowFlow_mgL)
     expect(first.lcoe).toBe(s.lcoe)
     expect(first.flagsRaised).toEqual(s.flags.filter((f: { raised: boolean }) => f.raised).map((f: { id: string }) => f.id))
     expect(first.result.engineVersion).toBe(ENGINE_VERSION)
@@ -84,8 +84,8 @@ describe('POST /api/options/[id]/assessments', () => {
   })
 
   it('converts upstream oxygen given in % saturation to mg/L at the site altitude', async () => {
-    const months = Array.from({ length: 12 }, () => ({ waterTempC: 20, upstreamOxygen: { value: 100, unit: '%sat' } }))
-    const site = await createSite(team.admin, team.orgId, { name: 'Sea-level weir', altitudeM: 0, months })
+    const months = Array.from({ length: 12 }, () => ({ waterTemp_C: 20, upstreamOxygen: { value: 100, unit: '%sat' } }))
+    const site = await createSite(team.admin, team.orgId, { name: 'Sea-level weir', altitude_m: 0, months })
     const opt = await createOption(team.engineer, site.id)
     const a = await createAssessment(team.engineer, opt.id)
     // Saturation at 20 °C, 1 atm, fresh water: 9.092 mg/L (APHA Standard Methods 4500-O, Table 4500-O:I; Benson & Krause 1984).
@@ -153,7 +153,7 @@ describe('stale detection', () => {
     expect(read.status).toBe(200)
     expect(read.body).toMatchObject({ id: oldId, engineVersion: '0.0.1-old', stale: true })
     // Never recomputed silently: the stored figure (changed when written) comes back as stored.
-    expect(read.body.annualEnergyMWh).toBeCloseTo(first.annualEnergyMWh + 1, 10)
+    expect(read.body.annualEnergy_MWh).toBeCloseTo(first.annualEnergy_MWh + 1, 10)
     const list = await team.reviewer.get(`/api/options/${optionId}/assessments?pageSize=200`)
     const row = list.body.assessments.find((a: { id: number }) => a.id === oldId)
     expect(row.stale).toBe(true)

@@ -84,7 +84,7 @@ describe('sign-in and sign-out', () => {
     const retry = Number(blocked.headers.get('retry-after'))
     expect(retry).toBeGreaterThan(0)
     expect(retry).toBeLessThanOrEqual(15 * 60)
-    expect(blocked.body.data.retryAfterSeconds).toBe(retry)
+    expect(blocked.body.data.retryAfter_s).toBe(retry)
     expect(blocked.body.message).toMatch(/try again/i)
     // Another e-mail is not affected.
     const other = await signUp('unthrottled')

@@ -38,7 +38,7 @@ describe('GET /api/compare', () => {
     expect(south1.option.design.units).toBe(2)
     expect(typeof south1.option.settings.discountRate).toBe('number')
     expect(south1.latestAssessment).toBeNull()
-    expect(north2.latestAssessment).toMatchObject({ id: assessed.id, annualEnergyMWh: assessed.annualEnergyMWh, lcoe: assessed.lcoe, stale: false })
+    expect(north2.latestAssessment).toMatchObject({ id: assessed.id, annualEnergy_MWh: assessed.annualEnergy_MWh, lcoe: assessed.lcoe, stale: false })
     expect(north1.site.orgId).toBe(north.orgId)
     const six = await both.get(`/api/compare?options=${opt.slice(0, 6).join(',')}`)
     expect(six.status).toBe(200)

@@ -103,8 +103,8 @@ describe('concurrent writers on one site', () => {
       { name: 'Retry weir, renamed' },
       { riverName: 'Brackwin Water' },
       { notes: 'Survey booked for the spring.' },
-      { altitudeM: 212 },
-      { targetOxygenMgL: 7.5 },
+      { altitude_m: 212 },
+      { targetOxygen_mgL: 7.5 },
       { reach: null },
     ]
     await Promise.all(

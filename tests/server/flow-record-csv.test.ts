@@ -37,7 +37,7 @@ describe('GET /api/sites/[id]/flow-record.csv', () => {
   })
 
   it('writes the site flows after area-ratio scaling, as the JSON route gives them', async () => {
-    const site = await createSite(team.engineer, team.orgId, { catchment: { siteAreaKm2: 30, gaugeAreaKm2: 40 } })
+    const site = await createSite(team.engineer, team.orgId, { catchment: { siteArea_km2: 30, gaugeArea_km2: 40 } })
     expect((await upload(team.engineer, site.id, 'date,flow\n2021-01-01,1\n2021-01-02,3.3\n2021-01-03,\n')).status).toBe(201)
     const body = text((await download(team.reviewer, site.id)).bytes)
     // Q_site = Q_gauge · A_site / A_gauge (area-ratio method, common practice, no source): 3.3 · 0.75 = 2.475.

@@ -89,20 +89,20 @@ describe('POST /api/sites/[id]/flow-record: good files', () => {
   })
 
   it('scales by catchment area: the site\'s catchment, the form\'s areas, or none', async () => {
-    const site = await createSite(team.engineer, team.orgId, { catchment: { siteAreaKm2: 30, gaugeAreaKm2: 60 } })
+    const site = await createSite(team.engineer, team.orgId, { catchment: { siteArea_km2: 30, gaugeArea_km2: 60 } })
     const bySite = await upload(team.engineer, site.id, csv(NINE_DAYS))
-    expect(bySite.body.record.scale).toEqual({ siteAreaKm2: 30, gaugeAreaKm2: 60, factor: 0.5 })
+    expect(bySite.body.record.scale).toEqual({ siteArea_km2: 30, gaugeArea_km2: 60, factor: 0.5 })
     // Q_site = Q_gauge · A_site / A_gauge (area-ratio method, common practice, no source).
     expect(bySite.body.record.stats.q50).toBeCloseTo(2.5, 12)
     expect((await team.viewer.get(`/api/sites/${site.id}/flow-record`)).body.days[0].flow).toBeCloseTo(4.5, 12)
-    const byForm = await upload(team.engineer, site.id, csv(NINE_DAYS), { siteAreaKm2: '10', gaugeAreaKm2: '40' })
+    const byForm = await upload(team.engineer, site.id, csv(NINE_DAYS), { siteArea_km2: '10', gaugeArea_km2: '40' })
     expect(byForm.body.record.scale.factor).toBe(0.25)
     expect(byForm.body.record.stats.mean).toBeCloseTo(1.25, 12)
     const none = await upload(team.engineer, site.id, csv(NINE_DAYS), { scale: 'none' })
     expect(none.body.record).toMatchObject({ scale: null, stats: { mean: 5 } })
-    const half = await upload(team.engineer, site.id, csv(NINE_DAYS), { siteAreaKm2: '10' })
+    const half = await upload(team.engineer, site.id, csv(NINE_DAYS), { siteArea_km2: '10' })
     expect(half.status).toBe(400)
-    expect(half.body.message).toMatch(/^gaugeAreaKm2:/)
+    expect(half.body.message).toMatch(/^gaugeArea_km2:/)
   })
 
   it('stores a century of days (36,525 lines) in one go and charts it with at most 200 points', async () => {

@@ -25,7 +25,7 @@ beforeAll(async () => {
 const GRID = { throatDiameters_m: [0.3, 0.6], units: [1, 2], throatDepths_m: [0.5, 1.5] }
 
 /** Keys whose value may be null in an engine result (`number | null` in shared/engine). */
-const NULLABLE = new Set(['cavitationIndex', 'cavitationMargin_m', 'minCavitationMargin_m', 'minCavitationIndex', 'lcoe', 'simplePaybackYears', 'daysWithData', 'best'])
+const NULLABLE = new Set(['cavitationIndex', 'cavitationMargin_m', 'minCavitationMargin_m', 'minCavitationIndex', 'lcoe', 'simplePayback_yr', 'daysWithData', 'best'])
 
 /** Nulls outside NULLABLE (a NaN or Infinity that JSON turned into null), and any non-finite number, with their paths. */
 function brokenNumbers(v: unknown, nullable: Set<string>, path = '$', key = ''): string[] {
@@ -116,16 +116,16 @@ describe('stored sites and options at their limits', () => {
   it('hydrology and assessments of a site at its limits are finite, or refused naming the field', async () => {
     const HYDROLOGY_NULLABLE = new Set(['stats', 'scale', 'flow'])
     const sites = [
-      { fdcPoints: [{ exceedance: 0, flow: 1e6 }, { exceedance: 50, flow: 1e6 }, { exceedance: 100, flow: 0 }], catchment: { siteAreaKm2: 1e6, gaugeAreaKm2: 1000 } },
+      { fdcPoints: [{ exceedance: 0, flow: 1e6 }, { exceedance: 50, flow: 1e6 }, { exceedance: 100, flow: 0 }], catchment: { siteArea_km2: 1e6, gaugeArea_km2: 1000 } },
       { fdcPoints: [{ exceedance: 1, flow: Number.MIN_VALUE }, { exceedance: 2, flow: Number.MIN_VALUE }, { exceedance: 3, flow: 0 }], reservedFlow: { kind: 'fixed', flow: 1e6 } },
-      { headTable: [{ flow: 0, head: 0 }, { flow: 1e6, head: 20 }], weir: { grossHeadM: Number.MIN_VALUE, crestWidthM: 1000, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' } },
+      { headTable: [{ flow: 0, head: 0 }, { flow: 1e6, head: 20 }], weir: { grossHead_m: Number.MIN_VALUE, crestWidth_m: 1000, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' } },
     ]
     for (const over of sites) {
       const site = await createSite(client, orgId, over)
       const hyd = await client.get(`/api/sites/${site.id}/hydrology`)
       expect(hyd.status, show(hyd.body)).toBe(200)
       expect(brokenNumbers(hyd.body, HYDROLOGY_NULLABLE), show(over)).toEqual([])
-      const option = await createOption(client, site.id, { design: { throatDiameter_m: 10, outletDiameter_m: 20, throatDepth_m: 30, units: 50 }, settings: { lifeYears: 1, exportPrice: 1e12 } })
+      const option = await createOption(client, site.id, { design: { throatDiameter_m: 10, outletDiameter_m: 20, throatDepth_m: 30, units: 50 }, settings: { life_yr: 1, exportPrice: 1e12 } })
       const run = await client.post(`/api/options/${option.id}/assessments`, {})
       expectSafe(run, show(over))
       if (run.status === 201) {
@@ -139,8 +139,8 @@ describe('stored sites and options at their limits', () => {
   })
 
   it('catchment areas too far apart for the area-ratio method are refused naming the smaller one', async () => {
-    const site = await client.post(`/api/orgs/${orgId}/sites`, { ...siteBody(), catchment: { siteAreaKm2: 1e6, gaugeAreaKm2: Number.MIN_VALUE } })
+    const site = await client.post(`/api/orgs/${orgId}/sites`, { ...siteBody(), catchment: { siteArea_km2: 1e6, gaugeArea_km2: Number.MIN_VALUE } })
     expectFieldRefusal(site, 'catchment')
-    expect(site.body.message).toMatch(/^catchment\.gaugeAreaKm2: /)
+    expect(site.body.message).toMatch(/^catchment\.gaugeArea_km2: /)
   })
 })

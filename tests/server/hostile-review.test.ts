@@ -20,7 +20,7 @@ beforeAll(async () => {
   const sub = await team.engineer.client.post(`/api/sites/${site.siteId}/review/submit`, { assessmentId: site.assessmentId, note: 'Please look' })
   expect(sub.status, show(sub.body)).toBe(200)
   expect((await team.engineer.client.post(`/api/sites/${site.siteId}/comments`, { body: 'A first comment', month: 7 })).status).toBe(201)
-  expect((await team.engineer.client.post(`/api/sites/${site.siteId}/summary-links`, { expiresInDays: 10, note: 'For the landowner' })).status).toBe(201)
+  expect((await team.engineer.client.post(`/api/sites/${site.siteId}/summary-links`, { expiresIn_d: 10, note: 'For the landowner' })).status).toBe(201)
 })
 
 describe('hostile bodies on review, comment and summary-link routes', () => {
@@ -29,7 +29,7 @@ describe('hostile bodies on review, comment and summary-link routes', () => {
     const routes = [
       { path: `/api/sites/${site.siteId}/review/decision`, who: team.reviewer, schema: ReviewDecisionSchema, good: { decision: 'accepted-with-conditions', reason: 'Fine', conditions: 'Monitor oxygen' } },
       { path: `/api/sites/${site.siteId}/comments`, who: team.engineer, schema: CommentInputSchema, good: { body: 'Looks right', assessmentId: site.assessmentId, month: 3, flagId: 'cavitation' } },
-      { path: `/api/sites/${site.siteId}/summary-links`, who: team.engineer, schema: SummaryLinkInputSchema, good: { expiresInDays: 30, note: 'For the farm' } },
+      { path: `/api/sites/${site.siteId}/summary-links`, who: team.engineer, schema: SummaryLinkInputSchema, good: { expiresIn_d: 30, note: 'For the farm' } },
       { path: `/api/sites/${site.siteId}/review/submit`, who: team.engineer, schema: ReviewSubmitSchema, good: { assessmentId: site.assessmentId, note: 'Again' } },
     ]
     for (const route of routes) {

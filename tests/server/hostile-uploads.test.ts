@@ -84,7 +84,7 @@ describe('hostile uploads', () => {
   it('flow record: wrong parts and hostile fields are refused with a message, and a refused upload keeps the record', async () => {
     const path = `/api/sites/${siteId}/flow-record`
     const csvText = fc.oneof(fc.constant(GOOD_CSV), fc.constantFrom('date,flow\n2020-02-30,1', 'date;flow\n01/02/2020;1,5', '\uFEFFdate,flow\n2020-01-01,NaN', 'date,flow\n2020-01-01,1e999', 'date,flow\n2020-01-01,-0', 'date,flow\n2020-01-01,Infinity', ''), fc.uint8Array({ maxLength: 100 }))
-    const FIELDS = ['mode', 'dateFormat', 'scale', 'siteAreaKm2', 'gaugeAreaKm2', 'dateColumn', 'flowColumn']
+    const FIELDS = ['mode', 'dateFormat', 'scale', 'siteArea_km2', 'gaugeArea_km2', 'dateColumn', 'flowColumn']
     const fields = fc.array(fc.tuple(fc.constantFrom(...FIELDS), fc.oneof(numberishText, fc.constantFrom('replace', 'append', 'auto', 'none', 'iso', 'day-first', 'date', 'flow', '1000000', '1000001', '5e-324')))).map((pairs) =>
       pairs.map(([name, data]): Part => ({ name, data })),
     )

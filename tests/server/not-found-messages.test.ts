@@ -12,7 +12,7 @@ beforeAll(async () => {
   const people = await makePeople('no-leak')
   outsider = people.outsider.client
   const made = await siteWithAssessment(people.engineer.client, people.orgId)
-  const link = await people.engineer.client.post(`/api/sites/${made.siteId}/summary-links`, { expiresInDays: 5 })
+  const link = await people.engineer.client.post(`/api/sites/${made.siteId}/summary-links`, { expiresIn_d: 5 })
   expect(link.status).toBe(201)
   const invite = await people.admin.client.post(`/api/orgs/${people.orgId}/invitations`, { email: 'someone-new@test.example', role: 'viewer' })
   expect(invite.status).toBe(201)

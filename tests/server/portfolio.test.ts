@@ -47,11 +47,11 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
       assessmentId: latestOfAlder.id,
       optionName: 'Alder pair',
       stale: false,
-      annualEnergyMWh: latestOfAlder.annualEnergyMWh,
+      annualEnergy_MWh: latestOfAlder.annualEnergy_MWh,
       capacityFactor: latestOfAlder.capacityFactor,
-      netOxygenGainSlfMgL: latestOfAlder.netOxygenGainSlfMgL,
+      netOxygenGainSummerLowFlow_mgL: latestOfAlder.netOxygenGainSummerLowFlow_mgL,
       lcoe: latestOfAlder.lcoe,
-      minCavitationMarginM: latestOfAlder.minCavitationMarginM,
+      minCavitationMargin_m: latestOfAlder.minCavitationMargin_m,
       flagsRaised: latestOfAlder.flagsRaised,
     })
     const birch = res.body.rows.find((r: { name: string }) => r.name === 'Birch weir')
@@ -83,21 +83,21 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     expect(map.status).toBe(200)
     expect(map.body.total).toBe(4)
     expect(names(map.body.rows)).toEqual(['=Danger weir', 'Alder weir', 'Birch weir', 'Cedar weir'])
-    expect(map.body.rows[1].latest.netOxygenGainSlfMgL).toBe(latestOfAlder.netOxygenGainSlfMgL)
+    expect(map.body.rows[1].latest.netOxygenGainSummerLowFlow_mgL).toBe(latestOfAlder.netOxygenGainSummerLowFlow_mgL)
     expect(names((await get('?format=map&reviewState=accepted')).body.rows)).toEqual(['Birch weir'])
   })
 
   it('sorts by an allow-listed figure either way, sites never assessed last', async () => {
     // The two designs differ, so their energies do; the expected order follows the stored figures.
-    expect(bigger.annualEnergyMWh).not.toBe(latestOfAlder.annualEnergyMWh)
-    const highFirst = bigger.annualEnergyMWh > latestOfAlder.annualEnergyMWh ? ['Birch weir', 'Alder weir'] : ['Alder weir', 'Birch weir']
-    const desc = await get('?sort=annualEnergyMWh&dir=desc')
+    expect(bigger.annualEnergy_MWh).not.toBe(latestOfAlder.annualEnergy_MWh)
+    const highFirst = bigger.annualEnergy_MWh > latestOfAlder.annualEnergy_MWh ? ['Birch weir', 'Alder weir'] : ['Alder weir', 'Birch weir']
+    const desc = await get('?sort=annualEnergy_MWh&dir=desc')
     expect(names(desc.body.rows).slice(0, 2)).toEqual(highFirst)
     expect(desc.body.rows.slice(2).every((r: { latest: unknown }) => r.latest === null)).toBe(true)
-    const asc = await get('?sort=annualEnergyMWh&dir=asc')
+    const asc = await get('?sort=annualEnergy_MWh&dir=asc')
     expect(names(asc.body.rows).slice(0, 2)).toEqual([...highFirst].reverse())
     expect(asc.body.rows.slice(2).every((r: { latest: unknown }) => r.latest === null)).toBe(true)
-    for (const sort of ['capacityFactor', 'lcoe', 'netOxygenGainSlfMgL', 'minCavitationMarginM', 'ratedPowerKw', 'flagsRaised', 'assessedAt', 'riverName', 'grossHeadM']) {
+    for (const sort of ['capacityFactor', 'lcoe', 'netOxygenGainSummerLowFlow_mgL', 'minCavitationMargin_m', 'ratedPower_kW', 'flagsRaised', 'assessedAt', 'riverName', 'grossHead_m']) {
       const res = await get(`?sort=${sort}&dir=desc`)
       expect(res.status, sort).toBe(200)
       expect(res.body.total, sort).toBe(4)
@@ -147,7 +147,7 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
   })
 
   it('exports the same rows as CSV, every page, units in the header, formulas defused', async () => {
-    const res = await team.viewer.download(`/api/orgs/${team.orgId}/portfolio?format=csv&sort=annualEnergyMWh&dir=desc&pageSize=1`)
+    const res = await team.viewer.download(`/api/orgs/${team.orgId}/portfolio?format=csv&sort=annualEnergy_MWh&dir=desc&pageSize=1`)
     expect(res.status).toBe(200)
     expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
     expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename=".+\.csv"$/)
@@ -157,9 +157,9 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     expect(lines[0]).toContain('Annual energy (MWh/yr)')
     expect(lines[0]).toContain('Net oxygen gain at summer low flow (mg/L)')
     expect(lines).toHaveLength(5)
-    const top = bigger.annualEnergyMWh > latestOfAlder.annualEnergyMWh ? { name: 'Birch weir', a: bigger } : { name: 'Alder weir', a: latestOfAlder }
+    const top = bigger.annualEnergy_MWh > latestOfAlder.annualEnergy_MWh ? { name: 'Birch weir', a: bigger } : { name: 'Alder weir', a: latestOfAlder }
     expect(lines[1]).toMatch(new RegExp(`^${ids[top.name]},${top.name},Portfolio Water,`))
-    expect(lines[1]).toContain(`,${top.a.annualEnergyMWh},`)
+    expect(lines[1]).toContain(`,${top.a.annualEnergy_MWh},`)
     expect(lines.find((l) => l.includes('Danger'))).toMatch(/^\d+,'=Danger weir,/)
     expect(lines[0]!.split(',').at(-1)).toBe('Review state')
     expect(lines.find((l) => l.includes('Alder weir'))!.split(',').at(-1)).toBe('submitted')

@@ -9,9 +9,9 @@ export function siteBody(over: Record<string, unknown> = {}) {
     riverName: 'Test Water',
     location: { lat: 54.4, lng: -2.9 },
     reach: { type: 'LineString', coordinates: [[-2.9, 54.4], [-2.899, 54.401]] },
-    altitudeM: 120,
-    weir: { grossHeadM: 2.1, crestWidthM: 14, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' },
-    months: Array.from({ length: 12 }, (_, i) => ({ waterTempC: 6 + i, upstreamOxygen: { value: 10 - i / 4, unit: 'mg/L' } })),
+    altitude_m: 120,
+    weir: { grossHead_m: 2.1, crestWidth_m: 14, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' },
+    months: Array.from({ length: 12 }, (_, i) => ({ waterTemp_C: 6 + i, upstreamOxygen: { value: 10 - i / 4, unit: 'mg/L' } })),
     fdcPoints: [
       { exceedance: 5, flow: 20 },
       { exceedance: 50, flow: 4 },

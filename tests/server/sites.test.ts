@@ -20,7 +20,7 @@ describe('POST /api/orgs/[orgId]/sites', () => {
         name: `Made by ${who}`,
         orgId: team.orgId,
         version: 1,
-        targetOxygenMgL: 6,
+        targetOxygen_mgL: 6,
         reservedFlow: { kind: 'percentile', exceedance: 95 },
         headTable: [],
         catchment: null,
@@ -53,8 +53,8 @@ describe('POST /api/orgs/[orgId]/sites', () => {
       [{ name: '' }, /^name:/],
       [{ location: { lat: 91, lng: 0 } }, /^location\.lat:/],
       [{ reach: { type: 'LineString', coordinates: [[0, 0]] } }, /^reach\.coordinates:/],
-      [{ weir: { grossHeadM: 25, crestWidthM: 10, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' } }, /^weir\.grossHeadM:/],
-      [{ weir: { grossHeadM: 2, crestWidthM: 10, shape: 'ogee', waterQuality: 'clean' } }, /^weir\.shape:/],
+      [{ weir: { grossHead_m: 25, crestWidth_m: 10, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' } }, /^weir\.grossHead_m:/],
+      [{ weir: { grossHead_m: 2, crestWidth_m: 10, shape: 'ogee', waterQuality: 'clean' } }, /^weir\.shape:/],
       [{ months: siteBody().months.slice(0, 11) }, /^months:/],
       [{ fdcPoints: [{ exceedance: 5, flow: 10 }, { exceedance: 50, flow: 4 }] }, /^fdcPoints:/],
       [{ headTable: [{ flow: 5, head: 2 }, { flow: 2, head: 2.2 }] }, /^headTable\.1\.flow:/],
@@ -111,7 +111,7 @@ describe('GET /api/orgs/[orgId]/sites', () => {
       ['Delta 50%_off', 'Birk Water', 2.0],
       ['Echo sluice', 'Alder Beck', 3.0],
     ] as const) {
-      await createSite(admin, orgId, { name, riverName: river, weir: { ...siteBody().weir, grossHeadM: head } })
+      await createSite(admin, orgId, { name, riverName: river, weir: { ...siteBody().weir, grossHead_m: head } })
     }
   })
 
@@ -122,8 +122,8 @@ describe('GET /api/orgs/[orgId]/sites', () => {
     expect(p1.body.sites.map((s: { name: string }) => s.name)).toEqual(['alpha drop', 'Bravo mill'])
     const p3 = await admin.get(`/api/orgs/${orgId}/sites?pageSize=2&page=3&sort=name`)
     expect(p3.body.sites.map((s: { name: string }) => s.name)).toEqual(['Echo sluice'])
-    const desc = await admin.get(`/api/orgs/${orgId}/sites?sort=grossHeadM&dir=desc`)
-    expect(desc.body.sites.map((s: { grossHeadM: number }) => s.grossHeadM)).toEqual([3.0, 2.8, 2.0, 1.5, 1.2])
+    const desc = await admin.get(`/api/orgs/${orgId}/sites?sort=grossHead_m&dir=desc`)
+    expect(desc.body.sites.map((s: { grossHead_m: number }) => s.grossHead_m)).toEqual([3.0, 2.8, 2.0, 1.5, 1.2])
     expect(desc.body.sites[0]).toMatchObject({ name: 'Echo sluice', riverName: 'Alder Beck', hydrologySource: 'points', recordMeanFlow: null, location: { lat: 54.4, lng: -2.9 } })
   })
 
@@ -158,19 +158,19 @@ describe('GET /api/orgs/[orgId]/sites', () => {
     const res = await admin.get(`/api/orgs/${orgId}/sites/map`)
     expect(res.status).toBe(200)
     expect(res.body.sites).toHaveLength(5)
-    expect(res.body.sites[0]).toEqual({ id: expect.any(Number), name: 'alpha drop', riverName: 'Alder Beck', lat: 54.4, lng: -2.9, grossHeadM: 2.8, hydrologySource: 'points' })
+    expect(res.body.sites[0]).toEqual({ id: expect.any(Number), name: 'alpha drop', riverName: 'Alder Beck', lat: 54.4, lng: -2.9, grossHead_m: 2.8, hydrologySource: 'points' })
     expect((await other.admin.get(`/api/orgs/${orgId}/sites/map`)).status).toBe(404)
   })
 })
 
 describe('PATCH /api/sites/[id]', () => {
   it('changes only the fields sent, raises the version, and refuses a stale version with 409', async () => {
-    const site = await createSite(team.engineer, team.orgId, { notes: 'keep me', targetOxygenMgL: 7 })
-    const res = await team.engineer.patch(`/api/sites/${site.id}`, { version: 1, name: 'Renamed', weir: { ...siteBody().weir, grossHeadM: 2.6 } })
+    const site = await createSite(team.engineer, team.orgId, { notes: 'keep me', targetOxygen_mgL: 7 })
+    const res = await team.engineer.patch(`/api/sites/${site.id}`, { version: 1, name: 'Renamed', weir: { ...siteBody().weir, grossHead_m: 2.6 } })
     expect(res.status).toBe(200)
-    expect(res.body).toMatchObject({ name: 'Renamed', version: 2, notes: 'keep me', targetOxygenMgL: 7, weir: { grossHeadM: 2.6 } })
+    expect(res.body).toMatchObject({ name: 'Renamed', version: 2, notes: 'keep me', targetOxygen_mgL: 7, weir: { grossHead_m: 2.6 } })
     const listed = await team.engineer.get(`/api/orgs/${team.orgId}/sites?q=Renamed`)
-    expect(listed.body.sites.find((s: { id: number }) => s.id === site.id).grossHeadM).toBe(2.6)
+    expect(listed.body.sites.find((s: { id: number }) => s.id === site.id).grossHead_m).toBe(2.6)
 
     const stale = await team.admin.patch(`/api/sites/${site.id}`, { version: 1, name: 'Lost update' })
     expect(stale.status).toBe(409)
@@ -179,9 +179,9 @@ describe('PATCH /api/sites/[id]', () => {
     const after = await team.viewer.get(`/api/sites/${site.id}`)
     expect(after.body).toMatchObject({ name: 'Renamed', version: 2 })
 
-    const cleared = await team.admin.patch(`/api/sites/${site.id}`, { version: 2, reach: null, catchment: { siteAreaKm2: 80, gaugeAreaKm2: 100 } })
+    const cleared = await team.admin.patch(`/api/sites/${site.id}`, { version: 2, reach: null, catchment: { siteArea_km2: 80, gaugeArea_km2: 100 } })
     expect(cleared.status).toBe(200)
-    expect(cleared.body).toMatchObject({ reach: null, catchment: { siteAreaKm2: 80, gaugeAreaKm2: 100 }, version: 3 })
+    expect(cleared.body).toMatchObject({ reach: null, catchment: { siteArea_km2: 80, gaugeArea_km2: 100 }, version: 3 })
   })
 
   it('answers 400 without a version or with a bad field, 403 to reviewer and viewer, 404 to outsiders and another organisation', async () => {
@@ -250,7 +250,7 @@ describe('DELETE /api/sites/[id] and restore', () => {
 
 describe('GET /api/sites/[id]/hydrology from entered points', () => {
   it('uses the points, scaled by the catchment, with the reserved flow at Q95', async () => {
-    const site = await createSite(team.engineer, team.orgId, { catchment: { siteAreaKm2: 50, gaugeAreaKm2: 100 } })
+    const site = await createSite(team.engineer, team.orgId, { catchment: { siteArea_km2: 50, gaugeArea_km2: 100 } })
     const res = await team.viewer.get(`/api/sites/${site.id}/hydrology`)
     expect(res.status).toBe(200)
     expect(res.body.source).toBe('points')
@@ -258,7 +258,7 @@ describe('GET /api/sites/[id]/hydrology from entered points', () => {
     expect(res.body.stats.q95).toBeCloseTo(0.4, 10)
     expect(res.body.stats.q50).toBeCloseTo(2, 10)
     expect(res.body.reservedFlow).toEqual({ setting: { kind: 'percentile', exceedance: 95 }, flow: expect.closeTo(0.4, 10) })
-    expect(res.body.scale).toEqual({ siteAreaKm2: 50, gaugeAreaKm2: 100, factor: 0.5 })
+    expect(res.body.scale).toEqual({ siteArea_km2: 50, gaugeArea_km2: 100, factor: 0.5 })
     expect(res.body.monthly).toHaveLength(12)
     expect((await team.outsider.get(`/api/sites/${site.id}/hydrology`)).status).toBe(404)
   })

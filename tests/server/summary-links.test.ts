@@ -43,7 +43,7 @@ describe('making a summary link', () => {
     const row = testDb().prepare('select * from summary_links where id = ?').get(link.id) as Record<string, unknown>
     expect(row.token_hash).toBe(sha256(link.token))
     expect(JSON.stringify(row)).not.toContain(link.token)
-    const admin = await team.admin.client.post(`/api/sites/${site.siteId}/summary-links`, { expiresInDays: 1 })
+    const admin = await team.admin.client.post(`/api/sites/${site.siteId}/summary-links`, { expiresIn_d: 1 })
     expect(admin.status).toBe(201)
   })
 
@@ -55,10 +55,10 @@ describe('making a summary link', () => {
 
   it('names the bad field with 400', async () => {
     for (const [body, field] of [
-      [{ expiresInDays: 0 }, 'expiresInDays'],
-      [{ expiresInDays: 366 }, 'expiresInDays'],
-      [{ expiresInDays: 2.5 }, 'expiresInDays'],
-      [{ expiresInDays: 'soon' }, 'expiresInDays'],
+      [{ expiresIn_d: 0 }, 'expiresIn_d'],
+      [{ expiresIn_d: 366 }, 'expiresIn_d'],
+      [{ expiresIn_d: 2.5 }, 'expiresIn_d'],
+      [{ expiresIn_d: 'soon' }, 'expiresIn_d'],
       [{ note: 'x'.repeat(501) }, 'note'],
       [{ note: 42 }, 'note'],
     ] as const) {
@@ -83,11 +83,11 @@ describe('the public summary', () => {
     const s = res.body
     expect(s.site).toMatchObject({ name: 'Summary weir', riverName: 'Test Water', location: { lat: 54.4, lng: -2.9 } })
     expect(s.site.reach.type).toBe('LineString')
-    expect(s.scheme).toMatchObject({ units: 2, throatDiameterM: 0.5, outletDiameterM: 1 })
+    expect(s.scheme).toMatchObject({ units: 2, throatDiameter_m: 0.5, outletDiameter_m: 1 })
     expect(s.scheme.description).toMatch(/venturi units/)
     const stored = (await team.engineer.client.get(`/api/assessments/${site.assessmentId}`)).body
-    expect(s.energy).toMatchObject({ annualEnergyMWh: stored.annualEnergyMWh, kWhPerHomePerYear: 2700, source: 'illustrative' })
-    expect(s.energy.homesEquivalent).toBe(Math.floor((stored.annualEnergyMWh * 1000) / 2700))
+    expect(s.energy).toMatchObject({ annualEnergy_MWh: stored.annualEnergy_MWh, annualUsePerHome_kWh: 2700, source: 'illustrative' })
+    expect(s.energy.homesEquivalent).toBe(Math.floor((stored.annualEnergy_MWh * 1000) / 2700))
     expect(s.river.months).toHaveLength(12)
     expect(s.review).toMatchObject({ state: 'draft', decisionText: null })
     expect(s.cautions.length).toBeGreaterThanOrEqual(4)
@@ -187,14 +187,14 @@ describe('the public summary', () => {
     const underReview = (await team.engineer.client.get(`/api/assessments/${s.assessmentId}`)).body
     expect(res.body.basis.kind).toBe('under-review')
     expect(res.body.scheme.units).toBe(2)
-    expect(res.body.energy.annualEnergyMWh).toBe(underReview.annualEnergyMWh)
+    expect(res.body.energy.annualEnergy_MWh).toBe(underReview.annualEnergy_MWh)
     expect(res.body.review).toMatchObject({ state: 'accepted-with-conditions', decisionText: 'Gain is real', conditions: 'Keep the fish pass open' })
   })
 })
 
 describe('listing and revoking', () => {
   it('lists a site\'s links with note, dates, state and views but never a token, to engineers and admins', async () => {
-    const link = await makeLink(site.siteId, { note: 'For Tobias', expiresInDays: 10 })
+    const link = await makeLink(site.siteId, { note: 'For Tobias', expiresIn_d: 10 })
     const res = await team.engineer.client.get(`/api/sites/${site.siteId}/summary-links`)
     expect(res.status).toBe(200)
     const row = res.body.links.find((l: { id: number }) => l.id === link.id)

@@ -123,7 +123,7 @@ describe('engine inputs at their limits', () => {
     ['a flow coefficient of the smallest double, in a sensitivity run', '$.option.flowCoefficient', Number.MIN_VALUE, (i) => sensitivity(i, 0.9)],
     ['a gross head of the smallest double', '$.site.grossHead_m', Number.MIN_VALUE, assess],
     ['a turbine efficiency of the smallest double', '$.option.turbine.efficiency', Number.MIN_VALUE, assess],
-    ['an economic life of the smallest double', '$.settings.lifeYears', Number.MIN_VALUE, assess],
+    ['an economic life of the smallest double', '$.settings.life_yr', Number.MIN_VALUE, assess],
     ['a gauge area of the smallest double', '$.gaugeScaling.gaugeArea_km2', Number.MIN_VALUE, assess],
     ['an FDC flow of the largest double', '$.hydrology.points.0.flow', Number.MAX_VALUE, assess],
     ['a fixed cost of the largest double', '$.option.costs.fixedCost', Number.MAX_VALUE, assess],

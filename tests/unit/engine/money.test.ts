@@ -55,20 +55,20 @@ describe('capital recovery factor', () => {
 
   it('refuses a rate of −100 % or less and a life of zero', () => {
     expectInputError(() => capitalRecoveryFactor(-1, 10), 'discountRate')
-    expectInputError(() => capitalRecoveryFactor(0.08, 0), 'lifeYears')
+    expectInputError(() => capitalRecoveryFactor(0.08, 0), 'life_yr')
     expectInputError(() => capitalRecoveryFactor(Number.NaN, 10), 'discountRate')
   })
 })
 
 describe('capex, opex and LCOE', () => {
-  const costs = { fixedCost: 50_000, costPerKw: 3_000, civilsPerUnit: 20_000 }
+  const costs = { fixedCost: 50_000, ratedPowerPrice: 3_000, civilsPerUnit: 20_000 }
 
   it('adds fixed, per-kW and per-unit civil costs (bottom-up estimate)', () => {
     // 50 000 + 3 000 × 40 kW + 20 000 × 2 units = 210 000 (worked by hand).
     expect(capex(costs, 40_000, 2)).toBe(210_000)
     expect(capex(costs, 0, 0)).toBe(50_000)
     expectInputError(() => capex(costs, 40_000, 1.5), 'units')
-    expectInputError(() => capex({ ...costs, costPerKw: -1 }, 40_000, 2), 'costPerKw')
+    expectInputError(() => capex({ ...costs, ratedPowerPrice: -1 }, 40_000, 2), 'ratedPowerPrice')
   })
 
   it('takes opex as a fraction of capex a year', () => {
@@ -124,33 +124,33 @@ describe('moneySummary and defaults', () => {
   it('puts the figures together, worked by hand', () => {
     const s = moneySummary({
       fixedCost: 50_000,
-      costPerKw: 3_000,
+      ratedPowerPrice: 3_000,
       civilsPerUnit: 20_000,
-      ratingW: 40_000,
+      rating_W: 40_000,
       units: 2,
-      annualEnergyMWh: 200,
+      annualEnergy_MWh: 200,
       opexFraction: 0.03,
       discountRate: 0.08,
-      lifeYears: 25,
+      life_yr: 25,
       exportPrice: 150,
       gridFactor: 0.2,
     })
     expect(s.capex).toBe(210_000)
-    expect(s.opexPerYear).toBeCloseTo(6_300, 9)
+    expect(s.annualOpex).toBeCloseTo(6_300, 9)
     expect(s.capitalRecoveryFactor).toBeCloseTo(0.093679, 6)
     expect(s.lcoe).toBeCloseTo(129.863, 3)
-    expect(s.revenuePerYear).toBe(30_000)
+    expect(s.annualRevenue).toBe(30_000)
     // NPV = −210 000 + (30 000 − 6 300)/0.0936788 = −210 000 + 252 992.2 = 42 992.2
     expect(s.npv).toBeCloseTo(42_992.2, 1)
     // payback = 210 000 / 23 700 = 8.861 years
-    expect(s.simplePaybackYears).toBeCloseTo(8.861, 3)
-    expect(s.carbonAvoidedT).toBeCloseTo(40, 12)
+    expect(s.simplePayback_yr).toBeCloseTo(8.861, 3)
+    expect(s.annualCarbonAvoided_t).toBeCloseTo(40, 12)
   })
 
   it('labels every money default illustrative', () => {
     for (const d of Object.values(MONEY_DEFAULTS)) expect(d.source).toBe('illustrative')
     expect(MONEY_DEFAULTS.discountRate.value).toBe(0.08)
-    expect(MONEY_DEFAULTS.lifeYears.value).toBe(25)
+    expect(MONEY_DEFAULTS.life_yr.value).toBe(25)
     expect(MONEY_DEFAULTS.opexFraction.value).toBe(0.03)
   })
 })

@@ -30,17 +30,17 @@ describe('tabulated power on a long record', () => {
   const exact: PowerAt = (q, m) => sample(q, m).power
   const days = tenYears()
   const flows = days.map((d) => d.flow!).sort((a, b) => a - b)
-  const opts = { ratingW: scheme.ratedPerUnit_W * input.option.units, availability: 0.95 }
+  const opts = { rating_W: scheme.ratedPerUnit_W * input.option.units, availability: 0.95 }
 
   it('gives annual energy within 0.5 % of evaluating every day exactly, and each month within 1 %', () => {
     // Numerical tolerance chosen for screening, common practice, no source.
     const reference = annualEnergyFromRecord(days, exact, opts)
     const tabulated = annualEnergyFromRecord(days, tabulatedPower(sample, flows[0]!, flows.at(-1)!), { ...opts, memoise: false })
-    expect(reference.annualEnergyMWh).toBeGreaterThan(0)
-    expect(Math.abs(tabulated.annualEnergyMWh / reference.annualEnergyMWh - 1)).toBeLessThan(0.005)
-    reference.energyByMonthMWh.forEach((e, m) => {
-      const t = tabulated.energyByMonthMWh[m]!
-      if (e! > 0.01 * reference.annualEnergyMWh) expect(Math.abs(t / e! - 1), `month ${m + 1}`).toBeLessThan(0.01)
+    expect(reference.annualEnergy_MWh).toBeGreaterThan(0)
+    expect(Math.abs(tabulated.annualEnergy_MWh / reference.annualEnergy_MWh - 1)).toBeLessThan(0.005)
+    reference.energyByMonth_MWh.forEach((e, m) => {
+      const t = tabulated.energyByMonth_MWh[m]!
+      if (e! > 0.01 * reference.annualEnergy_MWh) expect(Math.abs(t / e! - 1), `month ${m + 1}`).toBeLessThan(0.01)
     })
   })
 

@@ -45,15 +45,15 @@ describe('buildPublicSummary', () => {
   })
 
   it('states the energy, the homes figure and its assumption as illustrative', () => {
-    expect(s.energy).toMatchObject({ annualEnergyMWh: result.summary.annualEnergy_MWh, homesEquivalent: homesEquivalent(result.summary.annualEnergy_MWh), kWhPerHomePerYear: 2700, source: 'illustrative' })
+    expect(s.energy).toMatchObject({ annualEnergy_MWh: result.summary.annualEnergy_MWh, homesEquivalent: homesEquivalent(result.summary.annualEnergy_MWh), annualUsePerHome_kWh: 2700, source: 'illustrative' })
     expect(s.energy!.assumption).toMatch(/^Illustrative/)
   })
 
   it('describes what would be built in plain words, and the river by month', () => {
-    expect(s.scheme).toMatchObject({ units: 2, throatDiameterM: 0.6, outletDiameterM: 1.2, optionName: 'Two units' })
+    expect(s.scheme).toMatchObject({ units: 2, throatDiameter_m: 0.6, outletDiameter_m: 1.2, optionName: 'Two units' })
     expect(schemeInPlainWords({ units: 1, throatDiameter_m: 0.5, outletDiameter_m: 1 })).toMatch(/^One venturi unit .* 0\.50 m throat .* 1\.00 m/)
     expect(s.river!.months).toHaveLength(12)
-    expect(s.river!.months[7]).toEqual({ month: 8, name: result.months[7]!.name, withoutMgL: result.months[7]!.downstreamWithout_mgL, withMgL: result.months[7]!.downstreamWith_mgL, targetMgL: result.months[7]!.target_mgL })
+    expect(s.river!.months[7]).toEqual({ month: 8, name: result.months[7]!.name, without_mgL: result.months[7]!.downstreamWithout_mgL, with_mgL: result.months[7]!.downstreamWith_mgL, target_mgL: result.months[7]!.target_mgL })
     expect(s.river!.summary).toMatch(/summer low flow/)
   })
 

@@ -9,8 +9,8 @@ describe('demo sites on the Brackwin Water', () => {
     for (const { site } of DEMO_SITES) {
       expect(SiteInputSchema.parse(site)).toEqual(site)
       expect(site.riverName).toBe('Brackwin Water')
-      expect(site.weir.grossHeadM).toBeGreaterThanOrEqual(1.2)
-      expect(site.weir.grossHeadM).toBeLessThanOrEqual(3)
+      expect(site.weir.grossHead_m).toBeGreaterThanOrEqual(1.2)
+      expect(site.weir.grossHead_m).toBeLessThanOrEqual(3)
       expect(site.reach?.coordinates.length).toBeGreaterThanOrEqual(2)
     }
     expect(DEMO_SITES.filter((d) => d.record)).toHaveLength(1)
@@ -24,7 +24,7 @@ describe('demo sites on the Brackwin Water', () => {
       if (record) mean = fdcStats(fdcFromRecord(demoDailyFlows(record))).mean
       else {
         const fdc = fdcFromPoints(site.fdcPoints)
-        mean = (site.catchment ? scaleFdcByAreaRatio(fdc, site.catchment.siteAreaKm2, site.catchment.gaugeAreaKm2) : fdc).meanFlow
+        mean = (site.catchment ? scaleFdcByAreaRatio(fdc, site.catchment.siteArea_km2, site.catchment.gaugeArea_km2) : fdc).meanFlow
       }
       expect(mean, site.name).toBeGreaterThanOrEqual(2)
       expect(mean, site.name).toBeLessThanOrEqual(12)

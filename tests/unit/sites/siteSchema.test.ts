@@ -3,12 +3,12 @@ import { SiteInputSchema, SitePatchSchema } from '../../../shared/schemas/site'
 import { SiteListQuerySchema } from '../../../shared/schemas/siteList'
 import { validator } from '../../../server/utils/validate'
 
-const months = Array.from({ length: 12 }, () => ({ waterTempC: 10, upstreamOxygen: { value: 9, unit: 'mg/L' } }))
+const months = Array.from({ length: 12 }, () => ({ waterTemp_C: 10, upstreamOxygen: { value: 9, unit: 'mg/L' } }))
 const base = {
   name: 'A weir',
   riverName: 'A river',
   location: { lat: 54, lng: -2 },
-  weir: { grossHeadM: 2, crestWidthM: 10, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' },
+  weir: { grossHead_m: 2, crestWidth_m: 10, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' },
   months,
 }
 
@@ -16,12 +16,12 @@ describe('SiteInputSchema', () => {
   it('fills the defaults: no reach, Q95 reserved flow, 6 mg/L target, empty tables', () => {
     expect(SiteInputSchema.parse(base)).toMatchObject({
       reach: null,
-      altitudeM: 0,
+      altitude_m: 0,
       headTable: [],
       fdcPoints: [],
       catchment: null,
       reservedFlow: { kind: 'percentile', exceedance: 95 },
-      targetOxygenMgL: 6, // common practice, no source
+      targetOxygen_mgL: 6, // common practice, no source
       notes: '',
     })
   })

@@ -9,13 +9,13 @@ function item(id: number, units: number, figures: Partial<AssessmentDto> | null)
   const o = OptionInputSchema.parse({ name: `Option ${id}`, design: { units, throatDiameter_m: 0.5, outletDiameter_m: 1, throatDepth_m: 2, air: { pipeDiameter_m: 0.4, pipeLength_m: 8 } } })
   const latest: AssessmentDto | null = figures && {
     id: id * 10, siteId: 1, optionId: id, engineVersion: '0.1.0', stale: false, createdAt: '2026-01-01', createdBy: null, supersedes: null, supersededBy: null,
-    annualEnergyMWh: 100, capacityFactor: 0.4, ratedPowerKw: 30, minCavitationMarginM: 4, netOxygenGainSlfMgL: 0.2, lcoe: 150, flagsRaised: [], ...figures,
+    annualEnergy_MWh: 100, capacityFactor: 0.4, ratedPower_kW: 30, minCavitationMargin_m: 4, netOxygenGainSummerLowFlow_mgL: 0.2, lcoe: 150, flagsRaised: [], ...figures,
   }
-  return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHeadM: 2 }, latestAssessment: latest }
+  return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHead_m: 2 }, latestAssessment: latest }
 }
 
 describe('comparison rows', () => {
-  const items = [item(1, 2, { annualEnergyMWh: 120, lcoe: 180 }), item(2, 3, { annualEnergyMWh: 150, lcoe: 140, flagsRaised: ['cavitation'] }), item(3, 3, null)]
+  const items = [item(1, 2, { annualEnergy_MWh: 120, lcoe: 180 }), item(2, 3, { annualEnergy_MWh: 150, lcoe: 140, flagsRaised: ['cavitation'] }), item(3, 3, null)]
   const rows = Object.fromEntries(compareRows(items).map((r) => [r.key, r]))
 
   it('marks the most energy and the least LCOE as best, ignoring an option never assessed', () => {

@@ -16,9 +16,9 @@ const demoSite = (name: string): SiteInput => DEMO_SITES.find((s) => s.site.name
 /** The stored row of a site as the server reads it (JSON columns as text). */
 function rowOf(site: SiteInput): SiteRow {
   return {
-    altitude_m: site.altitudeM, weir: JSON.stringify(site.weir), months: JSON.stringify(site.months), head_table: JSON.stringify(site.headTable),
+    altitude_m: site.altitude_m, weir: JSON.stringify(site.weir), months: JSON.stringify(site.months), head_table: JSON.stringify(site.headTable),
     reserved_flow: JSON.stringify(site.reservedFlow), fdc_points: JSON.stringify(site.fdcPoints),
-    catchment: site.catchment ? JSON.stringify(site.catchment) : null, target_oxygen_mgl: site.targetOxygenMgL,
+    catchment: site.catchment ? JSON.stringify(site.catchment) : null, target_oxygen_mgl: site.targetOxygen_mgL,
   } as unknown as SiteRow
 }
 

@@ -8,8 +8,8 @@ import { assessmentChoices, defaultChoice, monthsBelowTarget, oxygenRowsFromBrie
 function assessment(over: Partial<AssessmentDto>): AssessmentDto {
   return {
     id: 1, siteId: 7, optionId: 10, engineVersion: '1.0.0', stale: false, createdAt: '2026-03-01T10:00:00.000Z', createdBy: null,
-    supersedes: null, supersededBy: null, annualEnergyMWh: 412.34, capacityFactor: 0.41, ratedPowerKw: 115, minCavitationMarginM: 1.2,
-    netOxygenGainSlfMgL: 0.423, lcoe: 88, flagsRaised: [], ...over,
+    supersedes: null, supersededBy: null, annualEnergy_MWh: 412.34, capacityFactor: 0.41, ratedPower_kW: 115, minCavitationMargin_m: 1.2,
+    netOxygenGainSummerLowFlow_mgL: 0.423, lcoe: 88, flagsRaised: [], ...over,
   }
 }
 const list = (optionId: number, assessments: AssessmentDto[]): AssessmentListDto => ({ optionId, page: 1, pageSize: 50, total: assessments.length, assessments })
@@ -18,7 +18,7 @@ describe('assessment choices of the submit form', () => {
   const options = [{ id: 10, name: 'Two small units' }, { id: 11, name: 'One large unit' }]
   const lists = [
     list(10, [assessment({ id: 3, createdAt: '2026-03-05T09:00:00.000Z', supersedes: 1 }), assessment({ id: 1, supersededBy: 3 })]),
-    list(11, [assessment({ id: 2, optionId: 11, createdAt: '2026-03-03T09:00:00.000Z', stale: true, netOxygenGainSlfMgL: -0.05 })]),
+    list(11, [assessment({ id: 2, optionId: 11, createdAt: '2026-03-03T09:00:00.000Z', stale: true, netOxygenGainSummerLowFlow_mgL: -0.05 })]),
   ]
 
   it('lists every assessment of every option, newest first', () => {
@@ -76,9 +76,9 @@ describe('oxygen rows', () => {
     expect(oxygenRowsFromBrief(brief)[0]).toEqual({ month: 7, name: 'July', without: 6.8, with: 7.4, target: 7, flow: 1.4, temperature: 17.5 })
   })
   it('maps the landowner summary without them', () => {
-    const rows = oxygenRowsFromSummary({ targetMgL: 7, summary: '', months: [{ month: 1, name: 'Jan', withoutMgL: 11, withMgL: 11.2, targetMgL: 7 }] })
+    const rows = oxygenRowsFromSummary({ target_mgL: 7, summary: '', months: [{ month: 1, name: 'Jan', without_mgL: 11, with_mgL: 11.2, target_mgL: 7 }] })
     expect(rows).toEqual([{ month: 1, name: 'January', without: 11, with: 11.2, target: 7 }])
-    expect(oxygenRowsFromSummary({ targetMgL: 7, summary: '', months: [{ month: 13, name: 'Odd', withoutMgL: 1, withMgL: 1, targetMgL: 7 }] })[0]!.name).toBe('Odd')
+    expect(oxygenRowsFromSummary({ target_mgL: 7, summary: '', months: [{ month: 13, name: 'Odd', without_mgL: 1, with_mgL: 1, target_mgL: 7 }] })[0]!.name).toBe('Odd')
   })
   it('names the months under the target, without and with the scheme', () => {
     expect(monthsBelowTarget(oxygenRowsFromBrief(brief))).toEqual({ without: ['July', 'August'], with: ['August'] })

@@ -64,7 +64,7 @@ describe('homes and days', () => {
 
 describe('the link form against the shared schema', () => {
   it('fills the default expiry and refuses too many days, naming the field', () => {
-    expect(SummaryLinkInputSchema.parse({ note: 'for the farm' }).expiresInDays).toBe(30)
-    expect(SummaryLinkInputSchema.safeParse({ expiresInDays: 400 }).error!.issues[0]!.path).toEqual(['expiresInDays'])
+    expect(SummaryLinkInputSchema.parse({ note: 'for the farm' }).expiresIn_d).toBe(30)
+    expect(SummaryLinkInputSchema.safeParse({ expiresIn_d: 400 }).error!.issues[0]!.path).toEqual(['expiresIn_d'])
   })
 })

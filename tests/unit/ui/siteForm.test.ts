@@ -6,7 +6,7 @@ import { blankSiteDraft, draftFromSite, issuesByPath, monthsBody, monthsFromDraf
 
 function filledDraft() {
   const d = blankSiteDraft()
-  Object.assign(d, { name: 'Mill weir', riverName: 'Brackwin Water', lat: 54.5, lng: -2.6, grossHeadM: 2.1, crestWidthM: 14 })
+  Object.assign(d, { name: 'Mill weir', riverName: 'Brackwin Water', lat: 54.5, lng: -2.6, grossHead_m: 2.1, crestWidth_m: 14 })
   return d
 }
 
@@ -28,8 +28,8 @@ describe('site draft', () => {
     expect(e['name']).toBeTruthy()
     expect(e['riverName']).toBeTruthy()
     expect(e['location']).toBe('Place the site on the map, or enter its latitude and longitude')
-    expect(e['weir.grossHeadM']).toBe('is required')
-    expect(e['weir.crestWidthM']).toBe('is required')
+    expect(e['weir.grossHead_m']).toBe('is required')
+    expect(e['weir.crestWidth_m']).toBe('is required')
     expect(form.formError.value).toBe('Some fields need attention; see the messages beside them.')
   })
 
@@ -71,31 +71,31 @@ describe('site draft', () => {
 
   it('asks for both catchment areas or neither', () => {
     const form = sectionForm(storedSite(), overviewBody)
-    form.draft.siteAreaKm2 = 40
+    form.draft.siteArea_km2 = 40
     expect(form.toBody()).toBeNull()
-    expect(form.errors.value['catchment.gaugeAreaKm2']).toBeTruthy()
+    expect(form.errors.value['catchment.gaugeArea_km2']).toBeTruthy()
   })
 
   it('checks months and keys their errors months.N.field', () => {
     const form = sectionForm(storedSite(), monthsBody)
-    form.draft.months[3]!.waterTempC = 55
+    form.draft.months[3]!.waterTemp_C = 55
     form.draft.months[6]!.oxygenUnit = 'mg/L'
     form.draft.months[6]!.oxygenValue = 100
     expect(form.toBody()).toBeNull()
-    expect(form.errors.value['months.3.waterTempC']).toBe('must be 40 °C or less')
+    expect(form.errors.value['months.3.waterTemp_C']).toBe('must be 40 °C or less')
     expect(form.errors.value['months.6.upstreamOxygen.value']).toBe('must be 30 mg/L or less')
-    form.draft.months[3]!.waterTempC = 12
+    form.draft.months[3]!.waterTemp_C = 12
     form.draft.months[6]!.oxygenValue = 9.5
     const body = form.toBody()
     expect(Object.keys(body!).sort()).toEqual(['months', 'version'])
-    expect(body!.months?.[6]).toEqual({ waterTempC: 10, upstreamOxygen: { value: 9.5, unit: 'mg/L' } })
+    expect(body!.months?.[6]).toEqual({ waterTemp_C: 10, upstreamOxygen: { value: 9.5, unit: 'mg/L' } })
   })
 
   it('round-trips a stored site and tracks unsaved changes, the head rows by their text', () => {
     const site = { ...storedSite(), headTable: [{ flow: 1, head: 1.4 }] }
     const form = sectionForm(site, overviewBody)
     expect(form.dirty.value).toBe(false)
-    expect(form.toBody()).toMatchObject({ name: 'Mill weir', weir: { grossHeadM: 2.1, crestWidthM: 14 }, headTable: [{ flow: 1, head: 1.4 }], version: 4 })
+    expect(form.toBody()).toMatchObject({ name: 'Mill weir', weir: { grossHead_m: 2.1, crestWidth_m: 14 }, headTable: [{ flow: 1, head: 1.4 }], version: 4 })
     form.draft.notes = 'Fish pass on the left bank'
     expect(form.dirty.value).toBe(true)
     form.reset()

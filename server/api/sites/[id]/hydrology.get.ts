@@ -29,8 +29,8 @@ export default defineEventHandler(async (event): Promise<HydrologyDto> => {
   let scale: HydrologyDto['scale'] = null
   const catchment = site.catchment ? (JSON.parse(site.catchment) as Catchment) : null
   if (catchment) {
-    fdc = scaleFdcByAreaRatio(fdc, catchment.siteAreaKm2, catchment.gaugeAreaKm2)
-    scale = { ...catchment, factor: catchment.siteAreaKm2 / catchment.gaugeAreaKm2 }
+    fdc = scaleFdcByAreaRatio(fdc, catchment.siteArea_km2, catchment.gaugeArea_km2)
+    scale = { ...catchment, factor: catchment.siteArea_km2 / catchment.gaugeArea_km2 }
   }
   return { source: 'points', points: fdcChartPoints(fdc), stats: fdcStats(fdc), monthly: empty, reservedFlow: { setting, flow: reservedFlow(setting, fdc) }, scale, count: fdc.count }
 })

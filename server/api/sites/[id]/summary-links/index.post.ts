@@ -7,8 +7,8 @@ import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event): Promise<SummaryLinkCreatedDto> => {
   const { id } = await getValidatedRouterParams(event, validator(SummaryLinkParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, EDITOR_ROLES)
-  const { expiresInDays, note } = await readValidatedJson(event, SummaryLinkInputSchema, BODY_LIMITS.form)
-  const { link, token } = await createSummaryLink(useDb(), { site, user, expiresInDays, note: note || null })
+  const { expiresIn_d, note } = await readValidatedJson(event, SummaryLinkInputSchema, BODY_LIMITS.form)
+  const { link, token } = await createSummaryLink(useDb(), { site, user, expiresIn_d, note: note || null })
   await audit({
     orgId: site.org_id,
     userId: user.id,
