@@ -11,6 +11,7 @@ import type { AssessmentCreate } from '../../shared/schemas/assessment'
 import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../../shared/schemas/site'
 import { siteToEngine, SiteNotReadyError, type RecordForEngine } from '../../shared/utils/siteEngineInput'
 import { conflict, unprocessable } from './errors'
+import { inTransaction } from './transaction'
 
 /** A site's stored daily record as gauged (before scaling), with the area ratio its flows get. */
 export type StoredRecord = RecordForEngine
@@ -114,7 +115,7 @@ export async function insertAssessment(
     await trx.insertInto('assessment_payloads').values({ assessment_id: row.id, input_json: JSON.stringify(args.input), result_json: JSON.stringify(args.result) }).execute()
     return row.id
   }
-  return db.isTransaction ? write(db) : db.transaction().execute(write)
+  return inTransaction(db, write)
 }
 
 /**
