@@ -1,3 +1,4 @@
+import { endSessionsOf } from '../../domain/sessions'
 import { PasswordChangeSchema } from '../../../shared/schemas/account'
 
 // Changes the signed-in person's password, given the current one. Every session of the account
@@ -16,7 +17,7 @@ export default defineEventHandler(async (event) => {
   }
   const passwordHash = await hashPassword(newPassword)
   await db.updateTable('users').set({ password_hash: passwordHash }).where('id', '=', user.id).execute()
-  const ended = await endSessionsOf(user.id)
+  const ended = await endSessionsOf(db, user.id)
   await startSession(event, { id: row.id, email: row.email, name: row.name })
   await audit({ orgId: null, userId: user.id, action: 'password.changed', targetType: 'user', targetId: user.id, detail: { sessionsEnded: ended } })
   return { ok: true, message: 'Your password has been changed. Every other browser signed in to your account has been signed out.' }
