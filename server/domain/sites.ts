@@ -2,10 +2,9 @@
 // filter the lists and the portfolio share, and a stored site as the API shows it. Plain functions
 // over a Kysely handle (a transaction works too); routes, the seed and the benchmarks call them.
 import { sql, type ExpressionBuilder, type Kysely } from 'kysely'
-import type { AttachmentRow, Database, SiteRow } from '../../db/schema'
+import type { Database, SiteRow } from '../../db/schema'
 import type { Catchment, FdcPointInput, HeadRow, HydrologySource, Month, Reach, ReservedFlow, SiteDto, SiteInput, SitePatch, Weir } from '../../shared/schemas/site'
 import type { SiteListDto, SiteListQuery, SiteMapPoint, SiteSort } from '../../shared/schemas/siteList'
-import type { AttachmentDto, AttachmentType } from '../../shared/schemas/attachment'
 import { conflict } from './errors'
 import { loadFlowRecord } from './flowRecords'
 
@@ -260,17 +259,4 @@ export async function siteMapPoints(db: Kysely<Database>, orgId: number, query: 
     grossHeadM: r.gross_head_m,
     hydrologySource: hydrologySourceOf(r.record_site_id !== null, Number(r.fdc_point_count)),
   }))
-}
-
-/** An attachment row as the API shows it. */
-export function attachmentDto(row: AttachmentRow, uploaderName: string | null): AttachmentDto {
-  return {
-    id: row.id,
-    siteId: row.site_id,
-    originalName: row.original_name,
-    contentType: row.content_type as AttachmentType,
-    sizeBytes: row.size_bytes,
-    uploadedBy: row.uploaded_by !== null && uploaderName ? { id: row.uploaded_by, name: uploaderName } : null,
-    createdAt: row.created_at,
-  }
 }
