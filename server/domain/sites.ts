@@ -45,6 +45,11 @@ export function siteColumns(input: Partial<SiteInput>) {
   return cols
 }
 
+/** The site with this id, deleted or not; undefined when there is none. */
+export async function siteById(db: Kysely<Database>, siteId: number): Promise<SiteRow | undefined> {
+  return db.selectFrom('sites').selectAll().where('id', '=', siteId).executeTakeFirst()
+}
+
 /** Stores a new site of `orgId` made by `userId`; returns its row. */
 export async function createSite(db: Kysely<Database>, args: { orgId: number; userId: number | null; input: SiteInput }): Promise<SiteRow> {
   const { input } = args
