@@ -44,6 +44,17 @@ export async function sendAll(mailer: Mailer, messages: readonly MailMessage[]):
   return outcomes
 }
 
+/**
+ * Writes the message to the outbox and leaves its delivery (when SMTP is set) to finish after the
+ * caller has answered, so the answer takes as long whether or not mail goes out; a failure to record
+ * the delivery is logged, naming `what` the mail was. Returns the outbox id.
+ */
+export async function queueInBackground(mailer: Mailer, message: MailMessage, what: string): Promise<number> {
+  const { outboxId, delivery } = await mailer.queue(message)
+  void delivery.catch((error: unknown) => console.error(`${what} mail: recording the delivery failed`, error))
+  return outboxId
+}
+
 /** One page of an organisation's outbox, newest first, optionally of one kind, with the total. */
 export async function listOutbox(db: Kysely<Database>, orgId: number, query: { kind?: MailKind; page: number; pageSize: number }): Promise<{ total: number; messages: OutboxEntryDto[] }> {
   const { kind, page, pageSize } = query
