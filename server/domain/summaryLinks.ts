@@ -231,6 +231,11 @@ export async function revokeSummaryLink(
     .where('id', '=', link.id)
     .where('revoked_at', 'is', null)
     .returningAll()
+/** The link with this id, whatever its state; undefined when there is none. */
+export async function summaryLinkById(db: Kysely<Database>, linkId: number): Promise<SummaryLinkRow | undefined> {
+  return db.selectFrom('summary_links').selectAll().where('id', '=', linkId).executeTakeFirst()
+}
+
     .executeTakeFirst()
   if (!updated) throw conflict(`summary link: already revoked (${link.revoked_at})`)
   const creator = link.created_by === null ? undefined : await db.selectFrom('users').select('name').where('id', '=', link.created_by).executeTakeFirst()
