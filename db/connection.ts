@@ -1,7 +1,7 @@
 import { mkdirSync } from 'node:fs'
 import { dirname } from 'node:path'
 import SQLite from 'better-sqlite3'
-import { Kysely, Migrator, SqliteDialect } from 'kysely'
+import { Kysely, Migrator, sql, SqliteDialect } from 'kysely'
 import type { Database } from './schema'
 import { migrationProvider } from './migrations'
 
@@ -32,4 +32,9 @@ export async function currentMigration(db: Kysely<Database>): Promise<string | n
   const migrator = new Migrator({ db, provider: migrationProvider })
   const all = await migrator.getMigrations()
   return all.filter((m) => m.executedAt).at(-1)?.name ?? null
+}
+
+/** Resolves when the database answers a trivial query (the health check); throws why not. */
+export async function pingDatabase(db: Kysely<Database>): Promise<void> {
+  await sql`select 1`.execute(db)
 }

@@ -63,7 +63,7 @@ export interface EmailVerificationsTable {
   used_at: string | null
 }
 
-/** One counted attempt for the throttles (server/utils/throttle.ts). */
+/** One counted attempt for the throttles (server/domain/throttle.ts). */
 export interface ThrottleHitsTable {
   id: Generated<number>
   bucket: string

@@ -71,17 +71,30 @@ function parseBody(text: string | undefined): unknown {
   }
 }
 
+/**
+ * Runs `work` on the engine input found at `prefix` in the request body: a field the engine refuses
+ * is named by its path in the body (`input.option.units`), as the schema names the fields it refuses.
+ */
+function inBody<T>(prefix: string, work: () => T): T {
+  try {
+    return work()
+  } catch (error) {
+    if (error instanceof EngineInputError) throw new EngineInputError(`${prefix}${error.field}`, error.message)
+    throw error
+  }
+}
+
 function compute(task: EngineTask): EngineResults[EngineTask['kind']] {
   switch (task.kind) {
     case 'assess':
       return assess(validator(AssessInputSchema, 'body')(parseBody(task.body)))
     case 'sweep': {
       const { input, grid } = validator(SweepRequestSchema, 'body')(parseBody(task.body))
-      return sweep(input, grid)
+      return inBody('input.', () => sweep(input, grid))
     }
     case 'sensitivity': {
       const { input, fraction } = validator(SensitivityRequestSchema, 'body')(parseBody(task.body))
-      return sensitivity(input, fraction)
+      return inBody('input.', () => sensitivity(input, fraction))
     }
     case 'assess-input':
       return assess(task.input)

@@ -6,7 +6,6 @@
 // Then a hostile one: 150 MB sent chunked (no Content-Length) against the 10 MB limit, timed to its 413,
 // with the server's resident memory watched all along.
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
-import { request } from 'node:http'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { performance } from 'node:perf_hooks'
@@ -14,6 +13,7 @@ import SQLite from 'better-sqlite3'
 import Papa from 'papaparse'
 import { migrateToLatest, openDatabase } from '../../db/connection'
 import { parseFlowCsv } from '../../server/domain/flowCsv'
+import { chunkedUpload } from '../lib/chunkedUpload'
 import type { FlowUploadResult } from '../../shared/schemas/flowRecord'
 import { century } from './engine'
 import { type BenchFigure, median, timeRuns } from './harness'
@@ -28,50 +28,6 @@ const MAX_GROWTH = 100 * MB
 /** Resident memory of process `pid`, bytes (VmRSS). */
 function residentBytes(pid: number): number {
   return Number(/^VmRSS:\s+(\d+) kB$/m.exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? NaN) * 1024
-}
-
-/**
- * POSTs one file part of `bytes` bytes with chunked encoding, 64 KiB at a time as the socket takes
- * them, and stops sending when the reply comes: its status, the milliseconds to it, and the bytes sent.
- */
-function chunkedUpload(url: string, cookie: string, bytes: number): Promise<{ status: number; ms: number; sent: number }> {
-  const boundary = 'gillwatt-bench-chunked'
-  return new Promise((resolve, reject) => {
-    const started = performance.now()
-    const req = request(url, { method: 'POST', headers: { cookie, accept: 'application/json', 'content-type': `multipart/form-data; boundary=${boundary}` } })
-    let sent = 0
-    let replied = false
-    req.on('response', (res) => {
-      replied = true
-      const ms = performance.now() - started
-      res.resume()
-      res.on('end', () => {
-        resolve({ status: res.statusCode ?? 0, ms, sent })
-        req.destroy()
-      })
-    })
-    req.on('error', (error) => (replied ? undefined : reject(error)))
-    const write = (chunk: Buffer) =>
-      new Promise<void>((done) => {
-        sent += chunk.length
-        if (req.write(chunk)) done()
-        else {
-          const go = () => {
-            req.off('drain', go)
-            req.off('close', go)
-            done()
-          }
-          req.once('drain', go)
-          req.once('close', go)
-        }
-      })
-    void (async () => {
-      await write(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\ndate,flow\n`))
-      const filler = Buffer.alloc(64 * 1024, 0x31)
-      while (sent < bytes && !replied && !req.destroyed) await write(filler)
-      if (!replied && !req.destroyed) req.end(`\r\n--${boundary}--\r\n`)
-    })()
-  })
 }
 
 /** The century as CSV text with a header row, one line a day. */
@@ -171,11 +127,13 @@ export async function uploadBench(): Promise<BenchFigure[]> {
     const before = residentBytes(server.pid)
     let most = before
     const watch = setInterval(() => (most = Math.max(most, residentBytes(server.pid))), 10)
-    const reply = await chunkedUpload(`${server.baseURL}/api/sites/${site.id}/flow-record`, me.cookie, HOSTILE_BYTES).finally(() => clearInterval(watch))
+    const reply = await chunkedUpload(`${server.baseURL}/api/sites/${site.id}/flow-record`, me.cookie, { fileName: 'huge.csv', type: 'text/csv', head: 'date,flow\n', fill: 0x31, fileBytes: HOSTILE_BYTES }).finally(() =>
+      clearInterval(watch),
+    )
     if (reply.status !== 413) throw new Error(`a ${HOSTILE_BYTES / MB} MB chunked upload answered ${reply.status}, not 413`)
     const health = await fetch(`${server.baseURL}/api/health`)
     if (health.status !== 200) throw new Error(`/api/health answered ${health.status} after the chunked upload`)
-    hostile = { ...reply, growth: most - before }
+    hostile = { status: reply.status, ms: reply.ms, sent: reply.sentBytes, growth: most - before }
   } finally {
     await server.stop()
   }

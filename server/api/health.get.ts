@@ -1,13 +1,12 @@
-import { sql } from 'kysely'
 import { LATEST_MIGRATION } from '../../db/migrations'
-import { currentMigration } from '../../db/connection'
+import { currentMigration, pingDatabase } from '../../db/connection'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 
 // Liveness for operators: the database answers, its migration level, and the engine version.
 export default defineEventHandler(async (event) => {
   const db = useDb()
   try {
-    await sql`select 1`.execute(db)
+    await pingDatabase(db)
   } catch (error) {
     setResponseStatus(event, 503)
     return { ok: false, database: 'unreachable', error: String(error) }

@@ -1,3 +1,4 @@
+import { rememberLastOrganisation } from '../domain/accounts'
 import { MePatchSchema } from '../../shared/schemas/account'
 
 // Remembers the organisation the person chose, so the app opens it next time (on any browser).
@@ -5,7 +6,6 @@ import { MePatchSchema } from '../../shared/schemas/account'
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { lastOrgId } = await readValidatedJson(event, MePatchSchema, BODY_LIMITS.public)
-  if (!(await roleIn(user.id, lastOrgId))) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'lastOrgId: Organisation not found' })
-  await useDb().updateTable('users').set({ last_org_id: lastOrgId }).where('id', '=', user.id).execute()
+  await rememberLastOrganisation(useDb(), user.id, lastOrgId)
   return meOf(user.id)
 })

@@ -3,7 +3,7 @@
 // columns). The engine itself runs elsewhere (the worker pool on the server, in process in the seed);
 // routes, the seed (db/seed.ts) and the benchmarks call these.
 import type { Kysely } from 'kysely'
-import type { AssessmentsTable, Database, OptionRow, SiteRow } from '../../db/schema'
+import type { AssessmentRow, AssessmentsTable, Database, OptionRow, SiteRow } from '../../db/schema'
 import type { AssessResult } from '../../shared/engine/results'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../shared/schemas/assess'
 import type { OptionDesign, OptionSettings } from '../../shared/schemas/option'
@@ -11,6 +11,7 @@ import type { AssessmentCreate } from '../../shared/schemas/assessment'
 import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../../shared/schemas/site'
 import { siteToEngine, SiteNotReadyError, type RecordForEngine } from '../../shared/utils/siteEngineInput'
 import { conflict, unprocessable } from './errors'
+import { inTransaction } from './transaction'
 
 /** A site's stored daily record as gauged (before scaling), with the area ratio its flows get. */
 export type StoredRecord = RecordForEngine
@@ -114,7 +115,7 @@ export async function insertAssessment(
     await trx.insertInto('assessment_payloads').values({ assessment_id: row.id, input_json: JSON.stringify(args.input), result_json: JSON.stringify(args.result) }).execute()
     return row.id
   }
-  return db.isTransaction ? write(db) : db.transaction().execute(write)
+  return inTransaction(db, write)
 }
 
 /**
@@ -134,6 +135,17 @@ export async function assessmentInputFor(db: Kysely<Database>, site: SiteRow, op
 /** The 409 for re-running an assessment that already has a re-run. */
 function alreadyRerun(oldId: number, laterId: number) {
   return conflict(`rerunOf: assessment ${oldId} was already re-run as assessment ${laterId}; re-run that one instead`, { supersededBy: laterId })
+}
+
+/** The assessment with this id; undefined when there is none. */
+export async function assessmentById(db: Kysely<Database>, assessmentId: number): Promise<AssessmentRow | undefined> {
+  return db.selectFrom('assessments').selectAll().where('id', '=', assessmentId).executeTakeFirst()
+}
+
+/** The whole stored result of an assessment, as the engine gave it (never recomputed). */
+export async function storedResult(db: Kysely<Database>, assessmentId: number): Promise<AssessResult> {
+  const payload = await db.selectFrom('assessment_payloads').select('result_json').where('assessment_id', '=', assessmentId).executeTakeFirstOrThrow()
+  return JSON.parse(payload.result_json) as AssessResult
 }
 
 /**

@@ -5,7 +5,7 @@
 // The seed and the benchmarks see the same errors as plain exceptions.
 
 /** The statuses a domain refusal may carry. */
-export type DomainStatus = 400 | 403 | 404 | 409 | 410 | 413 | 415 | 422 | 429
+export type DomainStatus = 400 | 401 | 403 | 404 | 409 | 410 | 413 | 415 | 422 | 429
 
 /** A refusal by a domain operation: status, message (field first), optional field and extra data for the client. */
 export class DomainError extends Error {

@@ -10,6 +10,7 @@ import type { Catchment } from '../../shared/schemas/site'
 import { FLOW_CSV_EXTENSIONS, FLOW_CSV_TYPES, MAX_FLOW_DAYS, type FlowRecordForm, type FlowRecordSummary, type FlowUploadErrorData, type FlowUploadResult } from '../../shared/schemas/flowRecord'
 import { DomainError, notFound } from './errors'
 import { daySpan, decodeCsvBytes, parseFlowCsv, type ParsedDay } from './flowCsv'
+import { inTransaction } from './transaction'
 
 /** Rows per INSERT: 3 parameters a row stays far below SQLite's 32,766-parameter limit. */
 const INSERT_BATCH = 2000
@@ -87,8 +88,7 @@ export async function saveFlowRecord(
     await trx.deleteFrom('flow_records').where('site_id', '=', siteId).execute()
     await trx.insertInto('flow_records').values(row).execute()
   }
-  // A caller's transaction (the seed's) is joined rather than nested.
-  await (db.isTransaction ? write(db) : db.transaction().execute(write))
+  await inTransaction(db, write)
   return row
 }
 

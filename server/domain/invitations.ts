@@ -1,14 +1,15 @@
 import { sql, type Kysely } from 'kysely'
 import type { Database, InvitationRow } from '../../db/schema'
-import { INVITATION_TTL_DAYS, invitationPath, type InvitationDto, type InvitationInput, type InvitationState } from '../../shared/schemas/invitation'
+import { INVITATION_TTL_DAYS, invitationPath, type InvitationAcceptInput, type InvitationDto, type InvitationInput, type InvitationPublicDto, type InvitationState } from '../../shared/schemas/invitation'
 import { ROLE_LABELS } from '../../shared/utils/roles'
 import { conflict, DomainError, unprocessable } from './errors'
 import { sendAll, type Mailer } from './mail/outbox'
 import { invitationMail } from './mail/templates/invitation'
 import { hashLinkToken, linkTokenMatches, newLinkToken } from './tokens'
+import { inTransaction } from './transaction'
 
-// Invitations: sending and withdrawing them, their rows as admins see them, their derived state,
-// and the answers a used, withdrawn or expired link gets.
+// Invitations: sending, withdrawing and accepting them, their rows as admins see them, what the
+// link shows its holder, their derived state, and the answers a used, withdrawn or expired link gets.
 
 /** The state of an invitation at `now`: accepted and revoked win over expired. */
 export function invitationState(row: Pick<InvitationRow, 'accepted_at' | 'revoked_at' | 'expires_at'>, now = new Date().toISOString()): InvitationState {
@@ -55,6 +56,31 @@ export function invitationDto(row: InvitationRow & { site_name: string | null; i
 export async function invitationByTokenIn(db: Kysely<Database>, token: string): Promise<InvitationRow | null> {
   const row = await db.selectFrom('invitations').selectAll().where('token_hash', '=', hashLinkToken(token)).executeTakeFirst()
   return row && linkTokenMatches(token, row.token_hash) ? row : null
+}
+
+/** The invitation with this id, whatever its state; undefined when there is none. */
+export async function invitationById(db: Kysely<Database>, invitationId: number): Promise<InvitationRow | undefined> {
+  return db.selectFrom('invitations').selectAll().where('id', '=', invitationId).executeTakeFirst()
+}
+
+/** What an invitation's link shows its holder before they accept: what it is for, who sent it, and whether to sign in or make an account. */
+export async function publicInvitation(db: Kysely<Database>, row: InvitationRow): Promise<InvitationPublicDto> {
+  const [org, site, inviter, account] = await Promise.all([
+    db.selectFrom('organisations').select('name').where('id', '=', row.org_id).executeTakeFirstOrThrow(),
+    row.site_id === null ? undefined : db.selectFrom('sites').select('name').where('id', '=', row.site_id).executeTakeFirst(),
+    row.invited_by === null ? undefined : db.selectFrom('users').select('name').where('id', '=', row.invited_by).executeTakeFirst(),
+    db.selectFrom('users').select('id').where('email', '=', row.email).executeTakeFirst(),
+  ])
+  return {
+    organisationName: org.name,
+    role: row.role,
+    roleLabel: ROLE_LABELS[row.role],
+    siteName: site?.name ?? null,
+    email: row.email,
+    invitedByName: inviter?.name ?? null,
+    expiresAt: row.expires_at,
+    needs: account ? 'sign-in' : 'new-account',
+  }
 }
 
 /** 410 for an invitation that can no longer be used, with a message saying why and what to do. */
@@ -134,4 +160,88 @@ export async function revokeInvitation(db: Kysely<Database>, row: InvitationRow,
   if (before !== 'pending') throw conflict(`invitation: cannot revoke, it is ${before}`, { state: before })
   await db.updateTable('invitations').set({ revoked_at: now, revoked_by: userId }).where('id', '=', row.id).where('accepted_at', 'is', null).where('revoked_at', 'is', null).execute()
   return invitationDto(await invitationQuery(db).where('invitations.id', '=', row.id).executeTakeFirstOrThrow())
+}
+
+/** The person who accepted an invitation. */
+export interface InvitedPerson {
+  id: number
+  email: string
+  name: string
+}
+
+/**
+ * Accepts an open invitation at `now` (the caller has checked it is open) for the signed-in account
+ * `userId`, or for a new account made from `input` when nobody is signed in. The signed-in account
+ * must be the invited, confirmed address (403 otherwise); signed out, an address that already has an
+ * account must sign in first (401), and a new account needs a name and password (422); it is
+ * confirmed by the invitation itself, which was e-mailed to it. Joins the organisation, or for a
+ * single-site invitation grants that site, and makes the organisation the one the app opens. Single
+ * use: 410 when someone accepted it first or its site is gone; 409 for someone already a member.
+ */
+export async function acceptInvitation(
+  db: Kysely<Database>,
+  args: { invitation: InvitationRow; userId: number | null; input: InvitationAcceptInput; hashPassword: (password: string) => Promise<string>; now: string },
+): Promise<{ person: InvitedPerson; created: boolean }> {
+  const { invitation, input, now: at } = args
+  if (invitation.site_id !== null) {
+    const site = await db.selectFrom('sites').select('id').where('id', '=', invitation.site_id).where('deleted_at', 'is', null).executeTakeFirst()
+    if (!site) throw new DomainError(410, 'The site this invitation was for has been removed. Ask the administrator who sent it.', { data: { state: 'site-removed' } })
+  }
+
+  let person: InvitedPerson
+  let passwordHash: string | null = null
+  if (args.userId !== null) {
+    const me = await db.selectFrom('users').select(['id', 'email', 'name', 'email_verified_at']).where('id', '=', args.userId).executeTakeFirstOrThrow()
+    if (me.email !== invitation.email) {
+      throw new DomainError(403, `invitation: this invitation is for ${invitation.email}, and you are signed in as ${me.email}. Sign out, then sign in or create an account with ${invitation.email}.`, {
+        field: 'invitation',
+        data: { invitedEmail: invitation.email },
+      })
+    }
+    if (!me.email_verified_at) {
+      throw new DomainError(403, `email: confirm that ${me.email} is yours before you join: open the link we e-mailed to it, or ask for a new one.`, { field: 'email', data: { needs: 'verification' } })
+    }
+    person = { id: me.id, email: me.email, name: me.name }
+  } else {
+    const existing = await db.selectFrom('users').select('id').where('email', '=', invitation.email).executeTakeFirst()
+    if (existing) throw new DomainError(401, `Sign in as ${invitation.email} first, then accept the invitation.`, { data: { needs: 'sign-in' } })
+    if (!input.name) throw new DomainError(422, 'name: is required to create your account', { field: 'name' })
+    if (!input.password) throw new DomainError(422, 'password: is required to create your account', { field: 'password' })
+    passwordHash = await args.hashPassword(input.password)
+    person = { id: 0, email: invitation.email, name: input.name }
+  }
+  const created = passwordHash !== null
+
+  await inTransaction(db, async (trx) => {
+    if (passwordHash !== null) {
+      const taken = await trx.selectFrom('users').select('id').where('email', '=', person.email).executeTakeFirst()
+      if (taken) throw conflict('email: an account with this e-mail was just created; sign in and open the link again')
+      person.id = (await trx.insertInto('users').values({ email: person.email, name: person.name, password_hash: passwordHash, email_verified_at: at, last_org_id: invitation.org_id }).returning('id').executeTakeFirstOrThrow()).id
+    }
+    const member = await trx.selectFrom('memberships').select('role').where('user_id', '=', person.id).where('org_id', '=', invitation.org_id).executeTakeFirst()
+    if (member && (invitation.site_id === null || member.role !== 'viewer')) {
+      throw conflict(`invitation: you are already a member of this organisation (${member.role})`)
+    }
+    // Single use: only the first acceptance finds the invitation still open.
+    const claimed = await trx
+      .updateTable('invitations')
+      .set({ accepted_at: at, accepted_by: person.id })
+      .where('id', '=', invitation.id)
+      .where('accepted_at', 'is', null)
+      .where('revoked_at', 'is', null)
+      .where('expires_at', '>', at)
+      .executeTakeFirst()
+    if (Number(claimed.numUpdatedRows) !== 1) throw new DomainError(410, 'This invitation has already been used. Sign in to continue.', { data: { state: 'accepted' } })
+    if (invitation.site_id === null) {
+      await trx.insertInto('memberships').values({ user_id: person.id, org_id: invitation.org_id, role: invitation.role }).execute()
+      if (!created) await trx.updateTable('users').set({ last_org_id: invitation.org_id }).where('id', '=', person.id).execute()
+    } else {
+      await trx
+        .insertInto('site_grants')
+        .values({ user_id: person.id, site_id: invitation.site_id, org_id: invitation.org_id, role: 'reviewer', granted_by: invitation.invited_by })
+        .onConflict((oc) => oc.columns(['user_id', 'site_id']).doNothing())
+        .execute()
+    }
+  })
+  return { person, created }
 }

@@ -123,6 +123,11 @@ export async function loadOptionDto(db: Kysely<Database>, row: OptionRow): Promi
   return optionDto(row, creator?.name ?? null, latest.get(row.id) ?? null)
 }
 
+/** The option with this id unless it was deleted; undefined otherwise. */
+export async function liveOptionById(db: Kysely<Database>, optionId: number): Promise<OptionRow | undefined> {
+  return db.selectFrom('options').selectAll().where('id', '=', optionId).where('deleted_at', 'is', null).executeTakeFirst()
+}
+
 /** One stored assessment with its exact input and whole result, as stored (never recomputed). */
 export async function loadAssessmentDetail(db: Kysely<Database>, id: number): Promise<AssessmentDetailDto | undefined> {
   const row = await db

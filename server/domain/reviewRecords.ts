@@ -27,6 +27,7 @@ import { commentMentionMail } from './mail/templates/commentMention'
 import { reviewDecidedMail } from './mail/templates/reviewDecided'
 import { reviewSubmittedMail } from './mail/templates/reviewSubmitted'
 import { commentPointsAt, findMentions, reviewActionsIn, reviewBrief, reviewTransition } from './review'
+import { inTransaction } from './transaction'
 
 // The review as stored: submitting a site for review and deciding it (the state machine of
 // review.ts applied in a transaction), comments, the reviewer's brief, loading a site's review,
@@ -201,7 +202,7 @@ export async function submitReview(
   const note = args.note || null
   const assessment = await reviewAssessmentRef(db, site.id, assessmentId)
   if (!assessment) throw unprocessable('assessmentId', 'is not an assessment of this site')
-  const done = await db.transaction().execute(async (trx) => {
+  const done = await inTransaction(db, async (trx) => {
     const current = await trx.selectFrom('site_reviews').selectAll().where('site_id', '=', site.id).executeTakeFirst()
     const step = reviewTransition(current?.state ?? 'draft', { kind: 'submit' })
     if (!step.ok) throw conflict(step.message, { state: step.from })
@@ -240,7 +241,7 @@ export async function decideReview(
   args: { site: SiteRow; user: Actor; decision: ReviewDecision; reason: string; conditions: string | null; now: string; mailer: Mailer },
 ): Promise<ReviewChangeDto> {
   const { site, user, decision, reason, conditions, now: at } = args
-  const done = await db.transaction().execute(async (trx) => {
+  const done = await inTransaction(db, async (trx) => {
     const current = await trx.selectFrom('site_reviews').selectAll().where('site_id', '=', site.id).executeTakeFirst()
     const step = reviewTransition(current?.state ?? 'draft', { kind: 'decide', decision })
     if (!step.ok || !current) throw conflict(step.ok ? 'review: the review is draft' : step.message, { state: step.from })

@@ -2,10 +2,9 @@
 // filter the lists and the portfolio share, and a stored site as the API shows it. Plain functions
 // over a Kysely handle (a transaction works too); routes, the seed and the benchmarks call them.
 import { sql, type ExpressionBuilder, type Kysely } from 'kysely'
-import type { AttachmentRow, Database, SiteRow } from '../../db/schema'
+import type { Database, SiteRow } from '../../db/schema'
 import type { Catchment, FdcPointInput, HeadRow, HydrologySource, Month, Reach, ReservedFlow, SiteDto, SiteInput, SitePatch, Weir } from '../../shared/schemas/site'
 import type { SiteListDto, SiteListQuery, SiteMapPoint, SiteSort } from '../../shared/schemas/siteList'
-import type { AttachmentDto, AttachmentType } from '../../shared/schemas/attachment'
 import { conflict } from './errors'
 import { loadFlowRecord } from './flowRecords'
 
@@ -44,6 +43,11 @@ export function siteColumns(input: Partial<SiteInput>) {
   if (input.targetOxygen_mgL !== undefined) cols.target_oxygen_mgl = input.targetOxygen_mgL
   if (input.notes !== undefined) cols.notes = input.notes
   return cols
+}
+
+/** The site with this id, deleted or not; undefined when there is none. */
+export async function siteById(db: Kysely<Database>, siteId: number): Promise<SiteRow | undefined> {
+  return db.selectFrom('sites').selectAll().where('id', '=', siteId).executeTakeFirst()
 }
 
 /** Stores a new site of `orgId` made by `userId`; returns its row. */
@@ -260,17 +264,4 @@ export async function siteMapPoints(db: Kysely<Database>, orgId: number, query: 
     grossHead_m: r.gross_head_m,
     hydrologySource: hydrologySourceOf(r.record_site_id !== null, Number(r.fdc_point_count)),
   }))
-}
-
-/** An attachment row as the API shows it. */
-export function attachmentDto(row: AttachmentRow, uploaderName: string | null): AttachmentDto {
-  return {
-    id: row.id,
-    siteId: row.site_id,
-    originalName: row.original_name,
-    contentType: row.content_type as AttachmentType,
-    sizeBytes: row.size_bytes,
-    uploadedBy: row.uploaded_by !== null && uploaderName ? { id: row.uploaded_by, name: uploaderName } : null,
-    createdAt: row.created_at,
-  }
 }

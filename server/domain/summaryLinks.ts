@@ -204,19 +204,36 @@ export async function listSummaryLinks(
   return { total: Number(total.n), links: rows.map(summaryLinkDto) }
 }
 
-/** Makes a summary link for a site; the token is returned here only (the database keeps its hash). */
+/**
+ * Makes a summary link for a site at `now` (default: the database's clock); the token is returned
+ * here only (the database keeps its hash). `token` is for the demo's fixed link; any other link gets
+ * a fresh random one.
+ */
 export async function createSummaryLink(
   db: Kysely<Database>,
-  args: { site: Pick<SiteRow, 'id' | 'org_id' | 'name'>; user: { id: number; name: string }; expiresIn_d: number; note: string | null; now?: number },
+  args: { site: Pick<SiteRow, 'id' | 'org_id' | 'name'>; user: { id: number; name: string }; expiresIn_d: number; note: string | null; now?: number; token?: string },
 ): Promise<{ link: SummaryLinkDto; token: string }> {
-  const token = newLinkToken()
+  const token = args.token ?? newLinkToken()
   const expiresAt = new Date((args.now ?? Date.now()) + args.expiresIn_d * DAY_MS).toISOString()
   const row = await db
     .insertInto('summary_links')
-    .values({ site_id: args.site.id, org_id: args.site.org_id, token_hash: hashLinkToken(token), note: args.note || null, created_by: args.user.id, expires_at: expiresAt })
+    .values({
+      site_id: args.site.id,
+      org_id: args.site.org_id,
+      token_hash: hashLinkToken(token),
+      note: args.note || null,
+      created_by: args.user.id,
+      expires_at: expiresAt,
+      ...(args.now === undefined ? {} : { created_at: new Date(args.now).toISOString() }),
+    })
     .returningAll()
     .executeTakeFirstOrThrow()
   return { link: summaryLinkDto({ ...row, site_name: args.site.name, creator_name: args.user.name }), token }
+}
+
+/** The link with this id, whatever its state; undefined when there is none. */
+export async function summaryLinkById(db: Kysely<Database>, linkId: number): Promise<SummaryLinkRow | undefined> {
+  return db.selectFrom('summary_links').selectAll().where('id', '=', linkId).executeTakeFirst()
 }
 
 /** Revokes a link at once (409 when it already was); it stays in the lists as revoked. Returns it and its state before. */

@@ -1,5 +1,5 @@
 // Every request that carries a session cookie is checked against the `sessions` table
-// (server/utils/sessions.ts). A cookie whose session has ended (sign-out, a password change or
+// (server/domain/sessions.ts). A cookie whose session has ended (sign-out, a password change or
 // reset, "sign out everywhere else", a deleted account) is cleared and removed from the request, so
 // every route and page after this sees a signed-out visitor.
 export default defineEventHandler(async (event) => {
@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   if (!cookies || !cookies.includes(`${COOKIE_NAME}=`)) return
   const session = await getUserSession(event)
   if (!session.user) return
-  const found = await findSession(session.user.id, session.secure?.sessionKey)
+  const found = await sessionOfCookie(session.user.id, session.secure?.sessionKey)
   if (found) {
     event.context.gillwattSession = found
     // The client's own sign-out (nuxt-auth-utils' DELETE /api/_auth/session) ends the row too.

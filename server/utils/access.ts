@@ -1,4 +1,9 @@
 import type { H3Event } from 'h3'
+import { assessmentById } from '../domain/assessments'
+import { liveAttachmentById } from '../domain/attachments'
+import { grantedSiteRole, roleIn } from '../domain/members'
+import { liveOptionById } from '../domain/options'
+import { siteById } from '../domain/sites'
 import type { Role } from '../../shared/utils/roles'
 
 // The gates of record-scoped routes: a site, an option, an assessment or an attachment is loaded
@@ -15,7 +20,7 @@ const notFoundError = (message: string) => createError({ statusCode: 404, status
 export async function requireSite(event: H3Event, siteId: number, roles: readonly Role[], opts: { deleted?: 'only'; notFound?: string } = {}) {
   await requireUser(event)
   const notFound = opts.notFound ?? 'Site not found'
-  const site = await useDb().selectFrom('sites').selectAll().where('id', '=', siteId).executeTakeFirst()
+  const site = await siteById(useDb(), siteId)
   if (!site) throw notFoundError(notFound)
   const isDeleted = site.deleted_at !== null
   if (isDeleted && opts.deleted !== 'only') throw notFoundError(notFound)
@@ -33,20 +38,20 @@ export async function requireSite(event: H3Event, siteId: number, roles: readonl
  */
 async function siteGrantRole(event: H3Event, siteId: number, orgId: number, roles: readonly Role[]): Promise<{ user: Awaited<ReturnType<typeof requireUser>>; role: Role } | null> {
   const user = await requireUser(event)
-  const member = await roleIn(user.id, orgId)
+  const member = await roleIn(useDb(), user.id, orgId)
   if (member && member !== 'viewer') return null
-  const grant = await useDb().selectFrom('site_grants').select('role').where('user_id', '=', user.id).where('site_id', '=', siteId).executeTakeFirst()
-  if (!grant) return null
-  if (!roles.includes(grant.role)) {
+  const role = await grantedSiteRole(useDb(), user.id, siteId)
+  if (!role) return null
+  if (!roles.includes(role)) {
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `This needs the ${roles.join(' or ')} role; you are reviewer of this site` })
   }
-  return { user, role: grant.role }
+  return { user, role }
 }
 
 /** Loads a live attachment of a live site and checks the role as `requireSite` does; 404 otherwise. */
 export async function requireAttachment(event: H3Event, attachmentId: number, roles: readonly Role[]) {
   await requireUser(event)
-  const attachment = await useDb().selectFrom('attachments').selectAll().where('id', '=', attachmentId).where('deleted_at', 'is', null).executeTakeFirst()
+  const attachment = await liveAttachmentById(useDb(), attachmentId)
   if (!attachment) throw notFoundError('Attachment not found')
   const { user, role, site } = await requireSite(event, attachment.site_id, roles, { notFound: 'Attachment not found' })
   return { user, role, site, attachment }
@@ -59,7 +64,7 @@ export async function requireAttachment(event: H3Event, attachmentId: number, ro
  */
 export async function requireOption(event: H3Event, optionId: number, roles: readonly Role[], notFound = 'Option not found') {
   await requireUser(event)
-  const option = await useDb().selectFrom('options').selectAll().where('id', '=', optionId).where('deleted_at', 'is', null).executeTakeFirst()
+  const option = await liveOptionById(useDb(), optionId)
   if (!option) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: notFound })
   const { user, role, site } = await requireSite(event, option.site_id, roles, { notFound })
   return { user, role, site, option }
@@ -68,7 +73,7 @@ export async function requireOption(event: H3Event, optionId: number, roles: rea
 /** Gate for an assessment: as `requireOption` for the option it belongs to; 404 when it does not exist. */
 export async function requireAssessment(event: H3Event, assessmentId: number, roles: readonly Role[]) {
   await requireUser(event)
-  const assessment = await useDb().selectFrom('assessments').selectAll().where('id', '=', assessmentId).executeTakeFirst()
+  const assessment = await assessmentById(useDb(), assessmentId)
   if (!assessment) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Assessment not found' })
   const { user, role, site, option } = await requireOption(event, assessment.option_id, roles, 'Assessment not found')
   return { user, role, site, option, assessment }

@@ -1,4 +1,5 @@
 import type { H3Event } from 'h3'
+import { roleIn } from '../domain/members'
 import type { Role } from '../../shared/utils/roles'
 
 /** The signed-in user, or a 401. The session middleware has already checked the session is live. */
@@ -6,17 +7,6 @@ export async function requireUser(event: H3Event) {
   const { user } = await getUserSession(event)
   if (!user || !currentSession(event)) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in to continue' })
   return user
-}
-
-/** The role the user holds in the organisation, or null when not a member. */
-export async function roleIn(userId: number, orgId: number): Promise<Role | null> {
-  const row = await useDb()
-    .selectFrom('memberships')
-    .select('role')
-    .where('user_id', '=', userId)
-    .where('org_id', '=', orgId)
-    .executeTakeFirst()
-  return row?.role ?? null
 }
 
 /**
@@ -27,7 +17,7 @@ export async function roleIn(userId: number, orgId: number): Promise<Role | null
  */
 export async function requireRole(event: H3Event, orgId: number, roles: readonly Role[], notFound = 'Organisation not found') {
   const user = await requireUser(event)
-  const role = await roleIn(user.id, orgId)
+  const role = await roleIn(useDb(), user.id, orgId)
   if (!role) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: notFound })
   if (!roles.includes(role)) {
     throw createError({

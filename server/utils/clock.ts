@@ -3,6 +3,3 @@
 
 /** Current time as SQLite's defaults write it. */
 export const nowIso = () => new Date().toISOString()
-
-/** ISO time `ms` milliseconds from now. */
-export const isoIn = (ms: number, now = Date.now()) => new Date(now + ms).toISOString()

@@ -7,6 +7,7 @@ import { isDomainError, type DomainStatus } from '../domain/errors'
 
 const STATUS_TEXT: Record<DomainStatus, string> = {
   400: 'Bad Request',
+  401: 'Unauthorized',
   403: 'Forbidden',
   404: 'Not Found',
   409: 'Conflict',

@@ -1,4 +1,4 @@
-import { outboxMailer, sendAll, type Mailer, type MailMessage, type MailOutcome } from '../domain/mail/outbox'
+import { outboxMailer, type Mailer } from '../domain/mail/outbox'
 
 // The server's Mailer (server/domain/mail/outbox.ts) from runtime config: SMTP_URL (else
 // runtimeConfig.smtpUrl; empty keeps every e-mail in the outbox), NUXT_MAIL_FROM and
@@ -17,15 +17,4 @@ export function mailFrom(): string {
 /** The mailer domain operations are given. */
 export function useMailer(): Mailer {
   return outboxMailer(useDb(), { smtpUrl: smtpUrl(), from: mailFrom(), appUrl: appBaseUrl() })
-}
-
-/** Writes the message to the outbox and returns its id and a promise of its delivery (resolved at once without SMTP). */
-export function queueMail(message: MailMessage): Promise<{ outboxId: number; delivery: Promise<MailOutcome> }> {
-  return useMailer().queue(message)
-}
-
-/** Sends one e-mail and waits for its delivery when SMTP is configured. */
-export async function sendMail(message: MailMessage): Promise<MailOutcome> {
-  const [outcome] = await sendAll(useMailer(), [message])
-  return outcome!
 }

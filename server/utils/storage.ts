@@ -1,6 +1,7 @@
 import { mkdir, readdir, rename, rm, stat } from 'node:fs/promises'
 import { join, resolve } from 'node:path'
 import fsDriver from 'unstorage/drivers/fs'
+import { attachmentKeys } from '../domain/attachments'
 
 // The uploads folder (UPLOADS_DIR, default .data/uploads) holds one file per attachment, named by its
 // random storage key. An upload is written to `.pending/<key>` while it arrives; its row is stored,
@@ -91,8 +92,8 @@ export async function sweepUploads(now = Date.now()): Promise<{ removed: number;
   const pendingDir = join(dir, PENDING)
   const finals = await filesIn(dir)
   const pending = await filesIn(pendingDir)
-  const rows = await useDb().selectFrom('attachments').select(['storage_key', 'deleted_at']).execute()
-  const live = new Set(rows.filter((r) => r.deleted_at === null).map((r) => r.storage_key))
+  const rows = await attachmentKeys(useDb())
+  const live = new Set(rows.filter((r) => r.live).map((r) => r.storageKey))
   let removed = 0
   let finished = 0
   for (const name of pending) {

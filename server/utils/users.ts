@@ -1,26 +1,11 @@
+import { loadMe } from '../domain/accounts'
 import type { Me } from '../../shared/schemas/auth'
 
-/** The user's organisations and roles, by organisation name. */
-export async function membershipsOf(userId: number): Promise<Me['memberships']> {
-  return useDb()
-    .selectFrom('memberships')
-    .innerJoin('organisations', 'organisations.id', 'memberships.org_id')
-    .select(['organisations.id as orgId', 'organisations.name as orgName', 'memberships.role as role'])
-    .where('memberships.user_id', '=', userId)
-    .orderBy('organisations.name')
-    .execute()
-}
-
-/** What GET /api/me answers: the person, whether their address is confirmed, their organisations. */
+/** What GET /api/me answers (server/domain/accounts.ts loadMe); 401 when the account is gone. */
 export async function meOf(userId: number): Promise<Me> {
-  const row = await useDb().selectFrom('users').select(['id', 'email', 'name', 'email_verified_at', 'last_org_id']).where('id', '=', userId).executeTakeFirst()
-  if (!row) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in to continue' })
-  return {
-    user: { id: row.id, email: row.email, name: row.name },
-    emailVerifiedAt: row.email_verified_at,
-    lastOrgId: row.last_org_id,
-    memberships: await membershipsOf(userId),
-  }
+  const me = await loadMe(useDb(), userId)
+  if (!me) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in to continue' })
+  return me
 }
 
 let dummy: Promise<string> | undefined

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { draft, numbersIn } from '../unit/engine/fixtures'
+import { draft, numbersIn, record } from '../unit/engine/fixtures'
 import { Client, signUp } from './client'
 
 let client: Client
@@ -48,6 +48,23 @@ describe('POST /api/engine/sweep and /api/engine/sensitivity', () => {
     const res = await client.post('/api/engine/sweep', { input: draft(), grid })
     expect(res.status).toBe(200)
     expect(res.body.points).toHaveLength(8)
+  })
+
+  it('sweep names the body field, under `input.`, when the engine refuses a value the schema let through', async () => {
+    const input = draft()
+    input.option.throatDiameter_m = Number.MIN_VALUE
+    const grid = { throatDiameters_m: [0.4, 0.6], units: [1, 2], throatDepths_m: [1, 1.5] }
+    const res = await client.post('/api/engine/sweep', { input, grid })
+    expect(res.status).toBe(422)
+    expect(res.body.message).toMatch(/^input\.option\.throatDiameter_m: /)
+    expect(res.body.data.issues).toEqual([{ path: 'input.option.throatDiameter_m', message: expect.any(String) }])
+  })
+
+  it('sensitivity names the body field, under `input.`, when the engine refuses a day of the record', async () => {
+    const days = record('2001-01-01', [1, 2, 3]).map((d, i) => (i === 1 ? { ...d, date: '2001-13-01' } : d))
+    const res = await client.post('/api/engine/sensitivity', { input: { ...draft(), hydrology: { kind: 'record', days } } })
+    expect(res.status).toBe(422)
+    expect(res.body.message).toBe('input.days[1].date: is not a calendar date')
   })
 
   it('sweep refuses a missing grid with 400 naming it', async () => {

@@ -1,95 +1,11 @@
-import { randomBytes } from 'node:crypto'
 import { existsSync, readdirSync, readFileSync } from 'node:fs'
-import { type IncomingHttpHeaders, request } from 'node:http'
 import { join, relative } from 'node:path'
 import SQLite from 'better-sqlite3'
 import { expect } from 'vitest'
 
-// Helpers for the upload tests that run a server of their own: a chunked multipart upload of any
-// size written with back-pressure, the server's resident memory, and the files in its uploads folder.
-
-export interface ChunkedReply {
-  status: number
-  body: any
-  headers: IncomingHttpHeaders
-  /** Bytes of the request body written when the reply arrived. */
-  sentBytes: number
-  /** Whether the whole body had been written by then. */
-  sentAll: boolean
-}
-
-export interface ChunkedUpload {
-  fileName: string
-  type: string
-  /** Size of the file part, bytes. */
-  fileBytes: number
-  /** The file's first bytes (the rest is filler). */
-  head?: Uint8Array | string
-  fill?: number
-}
-
-/**
- * POSTs a multipart/form-data body with `Transfer-Encoding: chunked` (no Content-Length): one file part
- * named "file" of `fileBytes` bytes, written 64 KiB at a time as the socket takes it, and no more once
- * the reply has arrived. Resolves with the reply and how much of the body had been written by then.
- */
-export function chunkedUpload(url: string, cookie: string, upload: ChunkedUpload): Promise<ChunkedReply> {
-  const boundary = `gillwatt-chunked-${randomBytes(8).toString('hex')}`
-  return new Promise((resolve, reject) => {
-    const req = request(url, { method: 'POST', headers: { cookie, accept: 'application/json', 'content-type': `multipart/form-data; boundary=${boundary}` } })
-    let replied = false
-    let sent = 0
-    let sentAll = false
-    req.on('response', (res) => {
-      replied = true
-      const sentAtReply = sent
-      const sentAllAtReply = sentAll
-      const chunks: Buffer[] = []
-      res.on('data', (c: Buffer) => chunks.push(c))
-      res.on('end', () => {
-        const text = Buffer.concat(chunks).toString('utf8')
-        let body: unknown = text
-        try {
-          body = JSON.parse(text)
-        } catch {
-          // not JSON: keep the text
-        }
-        resolve({ status: res.statusCode ?? 0, body, headers: res.headers, sentBytes: sentAtReply, sentAll: sentAllAtReply })
-        req.destroy()
-      })
-    })
-    req.on('error', (error) => {
-      if (!replied) reject(error)
-    })
-    const write = (chunk: Buffer) =>
-      new Promise<void>((done) => {
-        sent += chunk.length
-        if (req.write(chunk)) done()
-        else {
-          const go = () => {
-            req.off('drain', go)
-            req.off('close', go)
-            done()
-          }
-          req.once('drain', go)
-          req.once('close', go)
-        }
-      })
-    void (async () => {
-      const head = Buffer.from(upload.head ?? '')
-      await write(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${upload.fileName}"\r\nContent-Type: ${upload.type}\r\n\r\n`))
-      await write(head)
-      const filler = Buffer.alloc(64 * 1024, upload.fill ?? 0x61)
-      for (let left = upload.fileBytes - head.length; left > 0 && !replied && !req.destroyed; left -= filler.length) {
-        await write(left >= filler.length ? filler : filler.subarray(0, left))
-      }
-      if (replied || req.destroyed) return
-      await write(Buffer.from(`\r\n--${boundary}--\r\n`))
-      sentAll = true
-      req.end()
-    })()
-  })
-}
+// Helpers for the upload tests that run a server of their own: the server's resident memory and the
+// files in its uploads folder. The chunked upload itself is scripts/lib/chunkedUpload.ts, which the
+// upload benchmark sends too.
 
 /** Resident memory of process `pid` now, bytes (VmRSS in /proc/<pid>/status). */
 export function residentBytes(pid: number): number {

@@ -6,7 +6,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { type BuiltServer, startBuiltServer } from '../../scripts/builtServer.mjs'
 import { Client, GOOD_PASSWORD, uniqueEmail } from './client'
 import { createSite } from './sites-helpers'
-import { attachmentKey, chunkedUpload, eventually, expectNoStrayFiles, filesUnder, residentBytes, watchResident } from './upload-helpers'
+import { chunkedUpload } from '../../scripts/lib/chunkedUpload'
+import { attachmentKey, eventually, expectNoStrayFiles, filesUnder, residentBytes, watchResident } from './upload-helpers'
 
 // Uploads against a server of this file's own, whose process and uploads folder the tests can see:
 // a chunked 150 MB file part is cut off at the limit without the server's memory growing; no refused,

@@ -1,3 +1,4 @@
+import { accountById, changePassword } from '../../domain/accounts'
 import { PasswordChangeSchema } from '../../../shared/schemas/account'
 
 // Changes the signed-in person's password, given the current one. Every session of the account
@@ -8,16 +9,14 @@ export default defineEventHandler(async (event) => {
   const { currentPassword, newPassword } = await readValidatedJson(event, PasswordChangeSchema, BODY_LIMITS.public)
   const keys = signInKeys(event, user.email)
   await assertNotThrottled(event, keys)
-  const db = useDb()
-  const row = await db.selectFrom('users').select(['id', 'email', 'name', 'password_hash']).where('id', '=', user.id).executeTakeFirstOrThrow()
-  if (!(await verifyPassword(row.password_hash, currentPassword))) {
+  const account = await accountById(useDb(), user.id)
+  if (!(await verifyPassword(account.password_hash, currentPassword))) {
     await recordHit(keys)
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'currentPassword: is not your current password', data: { issues: [{ path: 'currentPassword', message: 'is not your current password' }] } })
   }
   const passwordHash = await hashPassword(newPassword)
-  await db.updateTable('users').set({ password_hash: passwordHash }).where('id', '=', user.id).execute()
-  const ended = await endSessionsOf(user.id)
-  await startSession(event, { id: row.id, email: row.email, name: row.name })
+  const ended = await changePassword(useDb(), user.id, passwordHash)
+  await startSession(event, { id: account.id, email: account.email, name: account.name })
   await audit({ orgId: null, userId: user.id, action: 'password.changed', targetType: 'user', targetId: user.id, detail: { sessionsEnded: ended } })
   return { ok: true, message: 'Your password has been changed. Every other browser signed in to your account has been signed out.' }
 })

@@ -1,13 +1,14 @@
+import { isVerified, resendVerification } from '../../domain/verification'
+
 // Sends the signed-in person a new link to confirm their address. Signed-in only, no body,
 // throttled per account.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
-  if (await isVerified(user.id)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'email: your address is already confirmed' })
+  if (await isVerified(useDb(), user.id)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'email: your address is already confirmed' })
   const keys: [ThrottleBucket, string][] = [['verification-resend', String(user.id)]]
   await assertNotThrottled(event, keys)
   await recordHit(keys)
-  const row = await useDb().selectFrom('users').select(['id', 'email', 'name']).where('id', '=', user.id).executeTakeFirstOrThrow()
-  await sendVerification(row)
+  const email = await resendVerification(useDb(), { userId: user.id, now: Date.now(), mailer: useMailer() })
   setResponseStatus(event, 202)
-  return { message: `We have sent a new confirmation link to ${row.email}.` }
+  return { message: `We have sent a new confirmation link to ${email}.` }
 })

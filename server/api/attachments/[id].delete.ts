@@ -1,3 +1,4 @@
+import { deleteAttachment } from '../../domain/attachments'
 import { SiteParamsSchema } from '../../../shared/schemas/site'
 import { EDITOR_ROLES } from '../../../shared/utils/roles'
 
@@ -8,7 +9,7 @@ import { EDITOR_ROLES } from '../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   const { user, site, attachment } = await requireAttachment(event, id, EDITOR_ROLES)
-  await useDb().updateTable('attachments').set({ deleted_at: nowIso() }).where('id', '=', id).execute()
+  await deleteAttachment(useDb(), id, nowIso())
   await removeUpload(attachment.storage_key).catch((error: unknown) => console.error(`[gillwatt] could not remove the file of attachment ${id}:`, error))
   await audit({ orgId: site.org_id, userId: user.id, action: 'attachment.deleted', targetType: 'attachment', targetId: id, detail: { siteId: site.id, name: attachment.original_name } })
   return { id, deleted: true }

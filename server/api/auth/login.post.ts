@@ -1,3 +1,4 @@
+import { accountByEmail } from '../../domain/accounts'
 import { LoginSchema } from '../../../shared/schemas/auth'
 
 // Signs a person in and starts a server-side session. A wrong e-mail or password answer the same
@@ -8,14 +9,14 @@ export default defineEventHandler(async (event) => {
   const { email, password } = await readValidatedJson(event, LoginSchema, BODY_LIMITS.public)
   const keys = signInKeys(event, email)
   await assertNotThrottled(event, keys)
-  const row = await useDb().selectFrom('users').select(['id', 'email', 'name', 'password_hash']).where('email', '=', email).executeTakeFirst()
-  const matches = await verifyPassword(row?.password_hash ?? (await dummyPasswordHash()), password)
-  if (!row || !matches) {
+  const account = await accountByEmail(useDb(), email)
+  const matches = await verifyPassword(account?.password_hash ?? (await dummyPasswordHash()), password)
+  if (!account || !matches) {
     await recordHit(keys)
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'E-mail or password is wrong' })
   }
   await clearHits([keys[0]!])
-  const user = { id: row.id, email: row.email, name: row.name }
+  const user = { id: account.id, email: account.email, name: account.name }
   await startSession(event, user)
   return meOf(user.id)
 })

@@ -1,4 +1,5 @@
-import { signupExistsMail } from '../../domain/mail/templates/verifyEmail'
+import { signUp } from '../../domain/accounts'
+import { sendVerification } from '../../domain/verification'
 import { SignupSchema } from '../../../shared/schemas/auth'
 import type { SignupAnswer } from '../../../shared/schemas/account'
 
@@ -15,30 +16,14 @@ export default defineEventHandler(async (event): Promise<SignupAnswer> => {
   await assertNotThrottled(event, address)
   await recordHit(address)
   const passwordHash = await hashPassword(input.password)
-  const db = useDb()
-  const taken = await db.selectFrom('users').select(['id', 'name', 'email']).where('email', '=', input.email).executeTakeFirst()
-  if (taken) {
-    const { delivery } = await queueMail({ to: taken.email, ...signupExistsMail({ name: taken.name, resetLink: appLink('/reset-password') }), kind: 'signup-exists', orgId: null })
-    void delivery.catch((error: unknown) => console.error('sign-up mail: recording the delivery failed', error))
-    await audit({ orgId: null, userId: taken.id, action: 'signup.address-taken', targetType: 'user', targetId: taken.id, detail: undefined })
-  } else {
-    // Two sign-ups racing for one address: the loser's insert breaks the unique e-mail and it is
-    // answered like any taken address.
-    const created = await db.transaction().execute(async (trx) => {
-      const user = await trx.insertInto('users').values({ email: input.email, name: input.name, password_hash: passwordHash }).returning(['id', 'email', 'name']).executeTakeFirstOrThrow()
-      const org = await trx.insertInto('organisations').values({ name: input.organisationName }).returning('id').executeTakeFirstOrThrow()
-      await trx.insertInto('memberships').values({ user_id: user.id, org_id: org.id, role: 'admin' }).execute()
-      await trx.updateTable('users').set({ last_org_id: org.id }).where('id', '=', user.id).execute()
-      return { user, orgId: org.id }
-    }).catch((error: unknown) => {
-      if (String((error as { code?: unknown }).code ?? '').startsWith('SQLITE_CONSTRAINT')) return null
-      throw error
-    })
-    if (created) {
-      const { user, orgId } = created
-      await audit({ orgId, userId: user.id, action: 'organisation.created', targetType: 'organisation', targetId: orgId, detail: { name: input.organisationName } })
-      await sendVerification(user)
-    }
+  const mailer = useMailer()
+  const outcome = await signUp(useDb(), { email: input.email, name: input.name, organisationName: input.organisationName, passwordHash, mailer })
+  if (outcome.kind === 'taken') {
+    await audit({ orgId: null, userId: outcome.userId, action: 'signup.address-taken', targetType: 'user', targetId: outcome.userId, detail: undefined })
+  } else if (outcome.kind === 'created') {
+    const { user, orgId } = outcome
+    await audit({ orgId, userId: user.id, action: 'organisation.created', targetType: 'organisation', targetId: orgId, detail: { name: input.organisationName } })
+    await sendVerification(useDb(), { user, now: Date.now(), mailer })
   }
   setResponseStatus(event, 202)
   return { message: MESSAGE }

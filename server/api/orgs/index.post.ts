@@ -1,14 +1,11 @@
+import { createOrganisation } from '../../domain/organisations'
 import { NewOrganisationSchema } from '../../../shared/schemas/auth'
 
 // A signed-in person starts a further organisation and becomes its admin.
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { name } = await readValidatedJson(event, NewOrganisationSchema, BODY_LIMITS.form)
-  const org = await useDb().transaction().execute(async (trx) => {
-    const org = await trx.insertInto('organisations').values({ name }).returning(['id', 'name']).executeTakeFirstOrThrow()
-    await trx.insertInto('memberships').values({ user_id: user.id, org_id: org.id, role: 'admin' }).execute()
-    return org
-  })
+  const org = await createOrganisation(useDb(), { name, adminId: user.id })
   await audit({ orgId: org.id, userId: user.id, action: 'organisation.created', targetType: 'organisation', targetId: org.id, detail: { name } })
   setResponseStatus(event, 201)
   return { orgId: org.id, orgName: org.name, role: 'admin' as const }

@@ -1,4 +1,4 @@
-import { revokeSummaryLink } from '../../domain/summaryLinks'
+import { revokeSummaryLink, summaryLinkById } from '../../domain/summaryLinks'
 import { SummaryLinkParamsSchema, type SummaryLinkDto } from '../../../shared/schemas/summaryLink'
 import { EDITOR_ROLES } from '../../../shared/utils/roles'
 
@@ -7,7 +7,7 @@ import { EDITOR_ROLES } from '../../../shared/utils/roles'
 export default defineEventHandler(async (event): Promise<SummaryLinkDto> => {
   const { id } = await getValidatedRouterParams(event, validator(SummaryLinkParamsSchema, 'params'))
   await requireUser(event)
-  const link = await useDb().selectFrom('summary_links').selectAll().where('id', '=', id).executeTakeFirst()
+  const link = await summaryLinkById(useDb(), id)
   if (!link) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Summary link not found' })
   const { user, site } = await requireSite(event, link.site_id, EDITOR_ROLES, { notFound: 'Summary link not found' })
   const { link: revoked, before } = await revokeSummaryLink(useDb(), { link, siteName: site.name, userId: user.id, now: nowIso() })

@@ -2,11 +2,11 @@
 // table first. Without an SMTP URL that is where it stays (the admin page shows it); with one it is
 // also delivered, and the row records when it was sent or why it failed. A failed delivery never
 // fails the change that caused it. The server makes its Mailer from runtime config
-// (server/utils/mail.ts); the seed makes its own.
+// (server/utils/mail.ts); the seed makes its own. Admins read their organisation's outbox here too.
 import type { Kysely } from 'kysely'
 import nodemailer, { type Transporter } from 'nodemailer'
 import type { Database } from '../../../db/schema'
-import type { MailKind } from '../../../shared/schemas/admin'
+import type { MailKind, OutboxEntryDto } from '../../../shared/schemas/admin'
 
 /** One e-mail: plain text and simple HTML, what it is about, and the organisation it belongs to. */
 export interface MailMessage {
@@ -42,6 +42,32 @@ export async function sendAll(mailer: Mailer, messages: readonly MailMessage[]):
     outcomes.push(await delivery)
   }
   return outcomes
+}
+
+/**
+ * Writes the message to the outbox and leaves its delivery (when SMTP is set) to finish after the
+ * caller has answered, so the answer takes as long whether or not mail goes out; a failure to record
+ * the delivery is logged, naming `what` the mail was. Returns the outbox id.
+ */
+export async function queueInBackground(mailer: Mailer, message: MailMessage, what: string): Promise<number> {
+  const { outboxId, delivery } = await mailer.queue(message)
+  void delivery.catch((error: unknown) => console.error(`${what} mail: recording the delivery failed`, error))
+  return outboxId
+}
+
+/** One page of an organisation's outbox, newest first, optionally of one kind, with the total. */
+export async function listOutbox(db: Kysely<Database>, orgId: number, query: { kind?: MailKind; page: number; pageSize: number }): Promise<{ total: number; messages: OutboxEntryDto[] }> {
+  const { kind, page, pageSize } = query
+  let q = db.selectFrom('outbox').where('org_id', '=', orgId)
+  if (kind) q = q.where('kind', '=', kind)
+  const [rows, total] = await Promise.all([
+    q.selectAll().orderBy('id', 'desc').limit(pageSize).offset((page - 1) * pageSize).execute(),
+    q.select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow(),
+  ])
+  return {
+    total: Number(total.n),
+    messages: rows.map((r) => ({ id: r.id, to: r.to_address, subject: r.subject, text: r.text, html: r.html, kind: r.kind as MailKind, createdAt: r.created_at, sentAt: r.sent_at, error: r.error })),
+  }
 }
 
 let transport: { url: string; transporter: Transporter } | undefined

@@ -3,8 +3,9 @@ import { join, relative } from 'node:path'
 import { describe, expect, it } from 'vitest'
 
 // The folder rules of DEVELOPERS.md, checked: server/domain holds plain functions that never lean on
-// Nitro's auto-imports (so the seed and the benchmarks can run them), db/ reaches into server/ only
-// through server/domain, and the engine worker imports only pure code.
+// Nitro's auto-imports (so the seed and the benchmarks can run them), the request glue (handlers,
+// server/utils, middleware, plugins) leaves every query to server/domain, db/ reaches into server/
+// only through server/domain, and the engine worker imports only pure code.
 
 const ROOT = process.cwd()
 const walk = (dir: string): string[] => readdirSync(dir, { withFileTypes: true }).flatMap((d) => (d.isDirectory() ? walk(join(dir, d.name)) : d.name.endsWith('.ts') ? [join(dir, d.name)] : []))
@@ -38,6 +39,17 @@ describe('server/domain', () => {
   it('imports nothing from server/utils, server/api or the app', () => {
     const offenders = files.flatMap((f) => importsOf(f).filter((p) => /(^|\/)(utils|api|plugins|middleware)\//.test(p) && !p.includes('shared/utils')).map((p) => `${relative(ROOT, f)}: ${p}`))
     expect(offenders).toEqual([])
+  })
+})
+
+describe('request glue', () => {
+  /** A Kysely query built or run in place: a query builder, raw SQL, or a transaction. */
+  const QUERY = /\.(selectFrom|insertInto|replaceInto|updateTable|deleteFrom|mergeInto|selectNoFrom|transaction)\s*\(|\bsql\s*`/
+
+  it('handlers, server/utils, middleware and plugins build no query: they call server/domain', () => {
+    const files = ['server/api', 'server/utils', 'server/middleware', 'server/plugins'].flatMap((d) => walk(join(ROOT, d)))
+    expect(files.length).toBeGreaterThan(50)
+    expect(files.filter((f) => QUERY.test(code(f))).map((f) => relative(ROOT, f))).toEqual([])
   })
 })
 

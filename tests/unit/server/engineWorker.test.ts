@@ -64,14 +64,17 @@ describe('runEngineTask', () => {
     expect(runEngineTask({ kind: 'assess', body: undefined })).toMatchObject({ ok: false, status: 400 })
   })
 
-  it('answers 422 naming the field the engine refuses', () => {
+  it('answers 422 naming the field the engine refuses, by its path in the body', () => {
+    const refused = (path: string) => ({ ok: false, status: 422, statusMessage: 'Unprocessable Entity', message: `${path}: is not a calendar date`, issues: [{ path, message: 'is not a calendar date' }] })
     for (const task of [
       { kind: 'assess', body: JSON.stringify(badDate) },
-      { kind: 'sweep', body: JSON.stringify({ input: badDate, grid: GRID }) },
       { kind: 'assess-input', input: parse(badDate) },
     ] satisfies EngineTask[]) {
-      expect(runEngineTask(task)).toEqual({ ok: false, status: 422, statusMessage: 'Unprocessable Entity', message: 'days[1].date: is not a calendar date', issues: [{ path: 'days[1].date', message: 'is not a calendar date' }] })
+      expect(runEngineTask(task)).toEqual(refused('days[1].date'))
     }
+    // The sweep and sensitivity bodies hold the engine input under `input`.
+    expect(runEngineTask({ kind: 'sweep', body: JSON.stringify({ input: badDate, grid: GRID }) })).toEqual(refused('input.days[1].date'))
+    expect(runEngineTask({ kind: 'sensitivity', body: JSON.stringify({ input: badDate }) })).toEqual(refused('input.days[1].date'))
   })
 })
 

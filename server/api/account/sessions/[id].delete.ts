@@ -1,3 +1,4 @@
+import { endSessionOf } from '../../../domain/sessions'
 import { SessionParamsSchema } from '../../../../shared/schemas/account'
 
 // Signs one of the person's browsers out. Signed-in only; someone else's session answers 404.
@@ -8,8 +9,7 @@ export default defineEventHandler(async (event) => {
     await endCurrentSession(event)
     return { ended: 1 }
   }
-  const result = await useDb().deleteFrom('sessions').where('id', '=', id).where('user_id', '=', user.id).executeTakeFirst()
-  if (Number(result.numDeletedRows) !== 1) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'id: no such session of yours' })
+  await endSessionOf(useDb(), user.id, id)
   await audit({ orgId: null, userId: user.id, action: 'session.ended', targetType: 'user', targetId: user.id, detail: { sessionId: id } })
   return { ended: 1 }
 })

@@ -1,4 +1,4 @@
-import { revokeInvitation } from '../../../domain/invitations'
+import { invitationById, revokeInvitation } from '../../../domain/invitations'
 import { InvitationIdParamsSchema, type InvitationDto } from '../../../../shared/schemas/invitation'
 
 // DELETE /api/invitations/[id]: an admin of the invitation's organisation withdraws a pending
@@ -6,7 +6,7 @@ import { InvitationIdParamsSchema, type InvitationDto } from '../../../../shared
 export default defineEventHandler(async (event): Promise<InvitationDto> => {
   const { id } = await getValidatedRouterParams(event, validator(InvitationIdParamsSchema, 'params'))
   await requireUser(event)
-  const row = await useDb().selectFrom('invitations').selectAll().where('id', '=', id).executeTakeFirst()
+  const row = await invitationById(useDb(), id)
   if (!row) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Invitation not found' })
   const { user } = await requireRole(event, row.org_id, ['admin'], 'Invitation not found')
   const revoked = await revokeInvitation(useDb(), row, user.id, nowIso())

@@ -1,5 +1,5 @@
+import { storedResult } from '../../../../domain/assessments'
 import { assessmentCsv } from '../../../../domain/assessmentCsv'
-import type { AssessResult } from '../../../../../shared/engine/results'
 import { AssessmentExportParamsSchema } from '../../../../../shared/schemas/assessment'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
@@ -8,8 +8,7 @@ import { READER_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id, table } = await getValidatedRouterParams(event, validator(AssessmentExportParamsSchema, 'params'))
   const { assessment, option } = await requireAssessment(event, id, READER_ROLES)
-  const payload = await useDb().selectFrom('assessment_payloads').select('result_json').where('assessment_id', '=', assessment.id).executeTakeFirstOrThrow()
-  const csv = assessmentCsv(JSON.parse(payload.result_json) as AssessResult, table)
+  const csv = assessmentCsv(await storedResult(useDb(), assessment.id), table)
   const safeName = option.name.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'option'
   setResponseHeader(event, 'Content-Type', 'text/csv; charset=utf-8')
   setResponseHeader(event, 'Content-Disposition', `attachment; filename="gillwatt-assessment-${id}-${safeName}-${table}.csv"`)

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { removeMember } from '../../../../domain/members'
 import { IdSchema } from '../../../../../shared/schemas/common'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
@@ -14,15 +15,7 @@ export default defineEventHandler(async (event) => {
   if (!leaving && role !== 'admin') {
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `This needs the admin role; you are ${role}` })
   }
-  const db = useDb()
-  const removed = await db.transaction().execute(async (trx) => {
-    const current = await memberRole(trx, orgId, userId)
-    if (current === 'admin') await assertAnotherAdmin(trx, orgId, 'userId', leaving ? 'make someone else admin before you leave' : 'this is the last one')
-    await trx.deleteFrom('memberships').where('org_id', '=', orgId).where('user_id', '=', userId).execute()
-    await trx.deleteFrom('site_grants').where('org_id', '=', orgId).where('user_id', '=', userId).execute()
-    await trx.updateTable('users').set({ last_org_id: null }).where('id', '=', userId).where('last_org_id', '=', orgId).execute()
-    return current
-  })
+  const removed = await removeMember(useDb(), { orgId, userId, leaving })
   await audit({ orgId, userId: user.id, action: leaving ? 'member.left' : 'member.removed', targetType: 'user', targetId: userId, detail: { before: { role: removed }, after: null } })
   return { userId, removed: true }
 })

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { changeMemberRole } from '../../../../domain/members'
 import { MemberRoleSchema } from '../../../../../shared/schemas/auth'
 import { IdSchema } from '../../../../../shared/schemas/common'
 
@@ -9,13 +10,7 @@ export default defineEventHandler(async (event) => {
   const { orgId, userId } = await getValidatedRouterParams(event, validator(Params, 'params'))
   const { user } = await requireRole(event, orgId, ['admin'])
   const { role } = await readValidatedJson(event, MemberRoleSchema, BODY_LIMITS.form)
-  const db = useDb()
-  const result = await db.transaction().execute(async (trx) => {
-    const current = await memberRole(trx, orgId, userId)
-    if (current === 'admin' && role !== 'admin') await assertAnotherAdmin(trx, orgId, 'role', '')
-    await trx.updateTable('memberships').set({ role }).where('org_id', '=', orgId).where('user_id', '=', userId).execute()
-    return { from: current, to: role }
-  })
-  await audit({ orgId, userId: user.id, action: 'member.role-changed', targetType: 'user', targetId: userId, detail: result })
+  const change = await changeMemberRole(useDb(), { orgId, userId, role })
+  await audit({ orgId, userId: user.id, action: 'member.role-changed', targetType: 'user', targetId: userId, detail: change })
   return { userId, role }
 })

@@ -1,3 +1,4 @@
+import { listMembers } from '../../../../domain/members'
 import { OrgParamsSchema } from '../../../../../shared/schemas/common'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
 
@@ -5,12 +6,5 @@ import { READER_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { orgId } = await getValidatedRouterParams(event, validator(OrgParamsSchema, 'params'))
   await requireRole(event, orgId, READER_ROLES)
-  const members = await useDb()
-    .selectFrom('memberships')
-    .innerJoin('users', 'users.id', 'memberships.user_id')
-    .select(['users.id as userId', 'users.name', 'users.email', 'memberships.role', 'memberships.created_at as since'])
-    .where('memberships.org_id', '=', orgId)
-    .orderBy('users.name')
-    .execute()
-  return { members }
+  return { members: await listMembers(useDb(), orgId) }
 })

@@ -1,4 +1,4 @@
-import { attachmentDto } from '../../../../domain/sites'
+import { listAttachments } from '../../../../domain/attachments'
 import { SiteParamsSchema } from '../../../../../shared/schemas/site'
 import type { AttachmentDto } from '../../../../../shared/schemas/attachment'
 import { READER_ROLES } from '../../../../../shared/utils/roles'
@@ -7,14 +7,5 @@ import { READER_ROLES } from '../../../../../shared/utils/roles'
 export default defineEventHandler(async (event): Promise<{ attachments: AttachmentDto[] }> => {
   const { id } = await getValidatedRouterParams(event, validator(SiteParamsSchema, 'params'))
   await requireSite(event, id, READER_ROLES)
-  const rows = await useDb()
-    .selectFrom('attachments')
-    .leftJoin('users', 'users.id', 'attachments.uploaded_by')
-    .selectAll('attachments')
-    .select('users.name as uploader_name')
-    .where('attachments.site_id', '=', id)
-    .where('attachments.deleted_at', 'is', null)
-    .orderBy('attachments.id', 'desc')
-    .execute()
-  return { attachments: rows.map((r) => attachmentDto(r, r.uploader_name)) }
+  return { attachments: await listAttachments(useDb(), id) }
 })

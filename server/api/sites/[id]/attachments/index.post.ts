@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto'
-import { attachmentDto } from '../../../../domain/sites'
+import { attachmentDto, forgetAttachment, storeAttachment } from '../../../../domain/attachments'
 import { SiteParamsSchema } from '../../../../../shared/schemas/site'
 import { ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, type AttachmentDto } from '../../../../../shared/schemas/attachment'
 import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
@@ -26,11 +26,7 @@ export default defineEventHandler(async (event): Promise<AttachmentDto> => {
         data: { accepted: ATTACHMENT_TYPES },
       })
     }
-    row = await useDb()
-      .insertInto('attachments')
-      .values({ site_id: id, storage_key: storageKey, original_name: fileName, content_type: contentType, size_bytes: file.size, uploaded_by: user.id })
-      .returningAll()
-      .executeTakeFirstOrThrow()
+    row = await storeAttachment(useDb(), { siteId: id, storageKey, fileName, contentType, sizeBytes: file.size, uploadedBy: user.id })
   } catch (error) {
     await discardPendingUpload(storageKey)
     throw error
@@ -39,7 +35,7 @@ export default defineEventHandler(async (event): Promise<AttachmentDto> => {
     await commitUpload(storageKey)
   } catch (error) {
     // The row must not outlive a file that never took its name.
-    await useDb().deleteFrom('attachments').where('id', '=', row.id).execute()
+    await forgetAttachment(useDb(), row.id)
     await discardPendingUpload(storageKey)
     throw error
   }
