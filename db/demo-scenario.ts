@@ -192,8 +192,11 @@ export function demoDailyFlows(spec: DemoRecordSpec): { date: string; flow: numb
 }
 
 // ——— Design options and their stored assessments ———
-// Two options at Hollin Mill weir, one at each other site. The seed stores one assessment of each,
-// computed by the real engine from the site and option as stored (server/domain/assessments.ts).
+// Three options at Hollin Mill weir (the third models the reviewer's summer closure as closed
+// months), two at Skelby gauging weir (a deep pair that adds oxygen, and a shallow pair that would
+// cost the river oxygen, run river first, which gives up energy to avoid it), one at Cragg Foot drop.
+// The seed stores one assessment of each, computed by the real engine from the site and option as
+// stored (server/domain/assessments.ts).
 
 /** One demo option: the site it belongs to (by name) and the option as a form would send it. */
 export interface DemoOption {
@@ -219,11 +222,33 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
     },
   },
   {
+    siteName: 'Hollin Mill weir',
+    option: {
+      name: 'Old leat pair, held off June to September',
+      notes: 'The two-unit leat design under the agency\'s condition 2: every unit shut from June to September, when the river is lowest and warmest.',
+      design: {
+        units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.1, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 9 },
+        operation: { closedMonths: [6, 7, 8, 9] },
+      },
+    },
+  },
+  {
     siteName: 'Skelby gauging weir',
     option: {
       name: 'Pair below the gauging section',
       notes: 'Kept clear of the gauging section so the agency\'s rating is undisturbed.',
       design: { units: 2, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.4, pipeLength_m: 7 } },
+    },
+  },
+  {
+    siteName: 'Skelby gauging weir',
+    option: {
+      name: 'Shallow pair, river first',
+      notes: 'The same pair with the throats only 0.8 m down, for a cheaper dig. Shallow bubbles give back less than the weir\'s own fall, so run energy first it would cost the river oxygen at middle flows; run river first, the units stay shut wherever they would, and the energy given up shows on the result.',
+      design: {
+        units: 2, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 0.8, air: { pipeDiameter_m: 0.4, pipeLength_m: 7 },
+        operation: { mode: 'river-first' },
+      },
     },
   },
   {
@@ -238,16 +263,18 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
 
 // ——— Review, comments, summary link and invitation ———
 // Idris submits the two-unit option at Hollin Mill weir; he and Elspeth talk it through; Elspeth
-// accepts it with conditions (the stored assessment shows a small net oxygen loss in June and
-// September, so the conditions hold the units off then). Idris shares a summary link with Tobias;
-// Morwenna has invited a second (invented) agency officer to review Skelby gauging weir only.
+// accepts it with conditions (the stored assessment shows the units add a little oxygen from October
+// to April and barely run from June to September, so the conditions hold them off then until
+// monitoring confirms the figures; the third Hollin Mill option models that closure). Idris shares a
+// summary link with Tobias; Morwenna has invited a second (invented) agency officer to review
+// Skelby gauging weir only.
 
 /** One comment of the demo thread; `by` is a demo account's role. */
 export interface DemoComment {
   by: 'engineer' | 'reviewer'
   body: string
   month?: number
-  flagId?: 'gas-supersaturation' | 'oxygen-below-target' | 'net-oxygen-loss' | 'cavitation'
+  flagId?: 'gas-supersaturation' | 'oxygen-below-target' | 'net-oxygen-loss' | 'scheme-below-target' | 'cavitation'
 }
 
 export const DEMO_REVIEW = {
@@ -258,18 +285,18 @@ export const DEMO_REVIEW = {
     { by: 'engineer', body: '@Elspeth Garrow the reserved flow is the Q95 of the owner\'s logger record; the gap in July 2018 is left out, not filled.' },
     {
       by: 'reviewer',
-      body: 'June and September show a small net oxygen loss below the weir, though the river stays well above the 6 mg/L target. Could the units be held off in those months? @Idris Penrose',
+      body: 'From June to September the units would run only a few days a month and add nothing measurable, and that is when the river is lowest and warmest. Could they be held off then until monitoring confirms the oxygen and gas figures? @Idris Penrose',
       month: 6,
       flagId: 'net-oxygen-loss',
     },
-    { by: 'engineer', body: 'Yes: the controller can hold them off by month. The gas check is clear at every flow.', flagId: 'gas-supersaturation' },
+    { by: 'engineer', body: 'Yes: the controller can hold them off by month; it costs about 1.3 MWh a year (see the option held off June to September). The gas check is clear at every flow.', flagId: 'gas-supersaturation' },
   ] satisfies DemoComment[],
   decision: {
     decision: 'accepted-with-conditions' as const,
     reason:
-      'The Q95 reserved flow is kept at every flow, the river stays above the 6 mg/L target in every month with and without the scheme, and the gas check is clear. The small net oxygen loss in June and September is dealt with by condition 2.',
+      'The Q95 reserved flow is kept at every flow, the river stays above the 6 mg/L target in every month with and without the scheme, the scheme never costs the river oxygen, and the gas check is clear. The summer months, when the river is most at risk, are dealt with by condition 2.',
     conditions:
-      '1. Keep at least the Q95 flow over the weir crest and fish pass at all times.\n2. Hold the units off in June and September until two years of monitoring show no net oxygen loss below the weir.\n3. Log dissolved oxygen below the weir monthly for the first two years and send the readings to the agency.\n4. Screen the venturi intakes before the first run.',
+      '1. Keep at least the Q95 flow over the weir crest and fish pass at all times.\n2. Hold the units off from June to September until two years of monitoring show no net oxygen loss and no gas supersaturation below the weir.\n3. Log dissolved oxygen below the weir monthly for the first two years and send the readings to the agency.\n4. Screen the venturi intakes before the first run.',
   },
 }
 

@@ -47,7 +47,7 @@ export const FLAG_TITLES: Record<FlagId, string> = {
 }
 
 /** Plain names of the oxygen methods. */
-export const METHOD_NAMES = { 'field-transfer': 'Field transfer', 'bubble-contact': 'Bubble contact' } as const
+export const METHOD_NAMES = { 'bubble-model': 'Bubble model', 'field-transfer': 'Field transfer (cross-check)' } as const
 
 /** The result's flags, raised first, safety before the rest. */
 export function orderedFlags(result: Pick<AssessResult, 'summary'>) {

@@ -103,19 +103,24 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'settings.availability', label: 'Availability', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.availability), hint: PERCENT_NOTE },
   { path: 'settings.minCavitationMargin_m', label: 'Least cavitation margin', unit: 'm', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.minCavitationMargin) },
   { path: 'settings.acceptableOxygenLoss_mgL', label: 'Acceptable net oxygen loss', unit: 'mg/L', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.acceptableOxygenLoss), hint: 'a loss beyond this is a river caution; the regulator\'s figure replaces it' },
+  { path: 'settings.tdgExcessLimit_mmHg', label: 'Dissolved gas excess pressure limit ΔP', unit: 'mmHg', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.tdgExcessLimit), hint: 'the stricter of this and the % limit applies' },
   { path: 'settings.tdgLimit', label: 'Total dissolved gas limit', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.tdgLimit), hint: 'of saturation: 1.10 means 110 %' },
   {
     path: 'settings.oxygenMethod', label: 'Oxygen method for the summary', unit: '–', group: 'settings', kind: 'select',
-    choices: [{ value: 'field-transfer', label: 'Field transfer (ASCE/EWRI 2-06 form)' }, { value: 'bubble-contact', label: 'Bubble contact (Higbie penetration)' }],
+    choices: [{ value: 'bubble-model', label: 'Bubble model (bubbles followed from throat to surface)' }, { value: 'field-transfer', label: 'Field transfer per metre of submergence (cross-check)' }],
   },
-  { path: 'settings.sotePerMetre', label: 'Oxygen transfer per metre of submergence', unit: 'fraction/m', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.sotePerMetre) },
+  { path: 'settings.sotePerMetre', label: 'Oxygen transfer per metre of submergence', unit: 'fraction/m', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.sotePerMetre), hint: 'field-transfer cross-check; 0.04 means 4 % of the oxygen supplied per metre' },
+  { path: 'settings.inDeviceTransfer', label: 'Oxygen transfer in the device', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.inDeviceTransfer), hint: 'field-transfer cross-check: the share transferred whatever the depth', advanced: true },
   { path: 'settings.alpha', label: 'Transfer factor α', unit: '–', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.alpha), advanced: true },
   { path: 'settings.beta', label: 'Saturation factor β', unit: '–', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.beta), advanced: true },
   { path: 'settings.theta', label: 'Temperature factor θ', unit: '–', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.theta), advanced: true },
-  { path: 'settings.bubbleDiameter_m', label: 'Bubble diameter', unit: 'm', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.bubbleDiameter), advanced: true },
-  { path: 'settings.slipVelocity_ms', label: 'Bubble slip velocity', unit: 'm/s', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.slipVelocity), advanced: true },
+  { path: 'settings.bubbleDiameter_m', label: 'Bubble diameter at the throat', unit: 'm', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.bubbleDiameter), hint: '0.001–0.006 m; smaller bubbles carry more oxygen and more dissolved gas into the river' },
+  {
+    path: 'settings.filmModel', label: 'Bubble surface', unit: '–', group: 'settings', kind: 'select', advanced: true,
+    choices: [{ value: 'mcginnis-little', label: 'River water (McGinnis & Little 2002)' }, { value: 'higbie', label: 'Clean surface (Higbie), more transfer' }, { value: 'frossling', label: 'Rigid surface (Frössling), less transfer' }],
+  },
+  { path: 'settings.plumeVelocity_ms', label: 'Plume velocity in the tail pool', unit: 'm/s', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.plumeVelocity), advanced: true },
   { path: 'settings.oxygenDiffusivity20', label: 'O₂ diffusivity at 20 °C', unit: 'm²/s', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.oxygenDiffusivity20), advanced: true },
-  { path: 'settings.plumeTime_s', label: 'Plume time in the tail pool', unit: 's', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.plumeTime), advanced: true },
   { path: 'settings.upstreamNitrogenSaturation', label: 'Upstream nitrogen saturation', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.upstreamNitrogenSaturation), advanced: true },
   { path: 'settings.airTemperatureOffset_K', label: 'Intake air above water temperature', unit: 'K', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.airTemperatureOffset), advanced: true },
 ]
@@ -124,7 +129,8 @@ export const OPTION_FIELDS: readonly OptionField[] = [
 const SELECT_DEFAULTS: Record<string, string> = {
   'design.operation.mode': 'energy-first',
   'design.constriction': 'venturi',
-  'settings.oxygenMethod': 'field-transfer',
+  'settings.oxygenMethod': 'bubble-model',
+  'settings.filmModel': 'mcginnis-little',
 }
 
 // ——— the draft ———

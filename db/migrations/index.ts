@@ -6,6 +6,7 @@ import * as m0004 from './0004_review_mail_links'
 import * as m0005 from './0005_sessions_verification_throttle'
 import * as m0006 from './0006_operating_rules'
 import * as m0007 from './0007_unit_suffixes'
+import * as m0008 from './0008_bubble_model'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
@@ -17,6 +18,7 @@ export const migrations: Record<string, Migration> = {
   '0005_sessions_verification_throttle': m0005,
   '0006_operating_rules': m0006,
   '0007_unit_suffixes': m0007,
+  '0008_bubble_model': m0008,
 }
 
 /** Kysely migration provider over the static list above. */

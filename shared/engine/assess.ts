@@ -69,7 +69,7 @@ function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
     cavitationIndex: f.cavitationIndex, airFlow_m3s: f.airFlow_m3s, electricalPower_kW: f.electricalPower_W / 1000,
     waterToWire: f.waterToWire, downstreamOxygenWithout_mgL: f.oxygen.withoutScheme_mgL,
     downstreamOxygenWith_mgL: f.oxygen.withScheme_mgL, netOxygenGain_mgL: f.oxygen.netGain_mgL,
-    unitTotalDissolvedGas: f.oxygen.unitTdg,
+    unitTotalDissolvedGas: f.oxygen.unitTdg, unitGasExcess_mmHg: f.oxygen.unitGasExcess_mmHg, mixedTotalDissolvedGas: f.oxygen.mixedTdg,
   }
 }
 
@@ -152,8 +152,11 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
       month: m + 1, name: MONTH_SHORT[m] ?? String(m + 1), temperature_C: c.tC, flow_m3s: flowInfo.flow, flowBasis: flowInfo.basis,
       curveBasis, closed: closed.has(m + 1),
       upstreamOxygen_mgL: c.upstreamO2_mgL, downstreamWithout_mgL: fs.oxygen.withoutScheme_mgL, downstreamWith_mgL: fs.oxygen.withScheme_mgL,
-      downstreamFieldTransfer_mgL: fs.oxygen.withSchemeFieldTransfer_mgL, downstreamBubbleContact_mgL: fs.oxygen.withSchemeBubbleContact_mgL,
+      downstreamWithoutRange_mgL: fs.oxygen.withoutSchemeRange_mgL,
+      downstreamFieldTransfer_mgL: fs.oxygen.withSchemeFieldTransfer_mgL, downstreamBubbleModel_mgL: fs.oxygen.withSchemeBubbleModel_mgL,
+      upstreamSupersaturated: c.upstreamO2_mgL > fs.oxygen.saturation_mgL,
       netGain_mgL: fs.oxygen.netGain_mgL, target_mgL: st.oxygenTarget_mgL, unitTotalDissolvedGas: fs.oxygen.unitTdg,
+      unitGasExcess_mmHg: fs.unitsRunning > 0 ? fs.oxygen.unitGasExcess_mmHg : 0,
       cavitationMargin_m: fs.unitsRunning > 0 ? fs.cavitationMargin_m : null, flags: ym.flags,
       runningShare: ym.runningShare, lossShare: ym.lossShare, worstNetGain_mgL: ym.worstNetGain_mgL,
       energy_MWh: energy.energyByMonth_MWh[m] ?? 0,
@@ -177,11 +180,12 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   const slfOxygen = slfState.oxygen
   const methods: MethodsComparison = {
     summaryUses: st.oxygenMethod,
-    note: 'Field transfer applies the ASCE/EWRI 2-06 correction, made for diffusers on a tank floor; bubble contact uses Higbie penetration theory for air drawn into a turbulent throat and diffuser. Both approach saturation exponentially and neither can pass it.',
+    note: 'The bubble model follows bubbles from the throat through the diffuser and up through the tail pool, exchanging oxygen and nitrogen with the unit\'s water at the local pressure (McGinnis & Little 2002; Wüest, Brooks & Imboden 1992): it gives the oxygen and the dissolved gas together. The field transfer is a per-metre-of-submergence efficiency in the ASCE/EWRI 2-06 form, made for diffusers on a tank floor, kept as a cross-check. Neither can pass what the air carries.',
     atSummerLowFlow: {
       fieldTransfer: { unitOutlet_mgL: slfOxygen.unitFieldTransfer_mgL, downstream_mgL: slfOxygen.withSchemeFieldTransfer_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? slfOxygen.withSchemeFieldTransfer_mgL - slfOxygen.withoutScheme_mgL : 0 },
-      bubbleContact: { unitOutlet_mgL: slfOxygen.unitBubbleContact_mgL, downstream_mgL: slfOxygen.withSchemeBubbleContact_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? slfOxygen.withSchemeBubbleContact_mgL - slfOxygen.withoutScheme_mgL : 0 },
+      bubbleModel: { unitOutlet_mgL: slfOxygen.unitBubbleModel_mgL, downstream_mgL: slfOxygen.withSchemeBubbleModel_mgL, netGain_mgL: slfState.riverFlow_m3s > 0 ? slfOxygen.withSchemeBubbleModel_mgL - slfOxygen.withoutScheme_mgL : 0 },
     },
+    weir: { model: slfOxygen.weirModel, note: slfOxygen.weirModelNote, withoutRange_mgL: slfOxygen.withoutSchemeRange_mgL },
   }
 
   const energyFirst = o.operation.mode === 'energy-first' ? main : other
@@ -199,6 +203,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
       minCavitationMargin_m: worstCav ? worstCav.cavitationMargin_m : null,
       minCavitationIndex: year.minCavitationIndex,
       maxUnitTotalDissolvedGas: worstTdg ? worstTdg.oxygen.unitTdg : 0,
+      maxUnitGasExcess_mmHg: year.maxGasExcess_mmHg,
       netOxygenGainSummerLowFlow_mgL: slfState.oxygen.netGain_mgL,
       meanNetOxygenGain_mgL: year.meanNetGain_mgL,
       worstNetOxygenGain_mgL: year.tallies['net-oxygen-loss'].worst?.value ?? 0,

@@ -28,10 +28,10 @@ export type { FilmModel } from './bubbleFilm'
 
 const v = (value: number, unit: string, source: string): SourcedValue => ({ value, unit, source })
 
-/** Defaults of the discrete-bubble model, each with its origin (to move into defaults.ts when it is wired in). */
+/** Defaults of the discrete-bubble model, each with its origin; the two an option may set live in defaults.ts. */
 export const BUBBLE_DEFAULTS = {
-  bubbleDiameter: v(0.003, 'm', 'judgement: a river venturi at 5–7 m/s throat velocity with a high gas fraction should coalesce to about 1–5 mm (venturi bubble generators give about 0.5 mm at 14 m/s); range 1–6 mm'),
-  plumeVelocity: v(0.1, 'm/s', 'illustrative: upward water velocity of the bubble plume in the tail pool'),
+  bubbleDiameter: DEFAULTS.bubbleDiameter,
+  plumeVelocity: DEFAULTS.plumeVelocity,
   nitrogenDiffusivityRatio: v(1.88 / 2.1, '-', 'from memory: D_N₂/D_O₂ = 1.88/2.10 (×10⁻⁹ m²/s at 25 °C, Cussler, Diffusion, table of gases in water)'),
   integrationSteps: v(60, '-', 'illustrative: fixed steps, half in the diffuser and half in the rise; 60 keep ΔP within about 1 mmHg of a 4000-step run (second-order method), and fewer lose accuracy, never stability'),
 } as const satisfies Record<string, SourcedValue>
@@ -152,7 +152,11 @@ export interface BubbleUnitInput {
   unitFlow_m3s: number
   /** Free-air flow Q_a at intake conditions, m³/s. */
   airFlow_m3s: number
-  /** Suction head at the throat s (gauge vacuum), m of water. */
+  /**
+   * How far the throat pressure lies below the local hydrostatic pressure at the throat depth, m of
+   * water: the throat is at p_atm + ρg·(throatDepth_m − suction_m). The venturi's own suction head
+   * (vacuum against the atmosphere) s gives suction_m = throatDepth_m + s.
+   */
   suction_m: number
   /** Throat centreline depth below the tail-pool surface, m. */
   throatDepth_m: number

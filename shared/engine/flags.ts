@@ -63,8 +63,8 @@ export function buildFlags(c: FlagContext): Flag[] {
     tdg.worst === null
       ? 'The units never run, so they add no dissolved gas.'
       : tdg.share > 0
-        ? `For ${pct(tdg.share)} of the year water leaving the units carries more than ${fmt(st.tdgLimit * 100, 0)} % total dissolved gas; worst ${fmt(tdg.worst.value, 0)} % at ${when(tdg.worst)}. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
-        : `Water leaving the units carries at most ${fmt(tdg.worst.value, 0)} % total dissolved gas (at ${when(tdg.worst)}), within the ${fmt(st.tdgLimit * 100, 0)} % limit.`))
+        ? `For ${pct(tdg.share)} of the year water leaving the units carries more dissolved gas than ${fmt(st.tdgLimit * 100, 0)} % of saturation or ${fmt(st.tdgExcessLimit_mmHg, 0)} mmHg above the air's pressure (whichever is stricter); worst ${fmt(tdg.worst.value, 0)} % at ${when(tdg.worst)}, up to ${fmt(y.maxGasExcess_mmHg, 0)} mmHg. Air forced into water under pressure can give fish gas-bubble disease: set the throat shallower or take less air.`
+        : `Water leaving the units carries at most ${fmt(tdg.worst.value, 0)} % total dissolved gas (at ${when(tdg.worst)}) and ${fmt(y.maxGasExcess_mmHg, 0)} mmHg above the air's pressure, within the ${fmt(st.tdgLimit * 100, 0)} % and ${fmt(st.tdgExcessLimit_mmHg, 0)} mmHg limits.`))
 
   const pushed = t['scheme-below-target']
   flags.push(flag('scheme-below-target', 'safety', pushed.share > 0, pushed.share, pushed.worst,

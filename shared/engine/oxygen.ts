@@ -1,6 +1,7 @@
-// Oxygen: transfer in the units, aeration over the existing weir, mixing downstream, total dissolved gas.
-import { G, N2_AR_MOLE_FRACTION, O2_MASS_FRACTION, O2_MOLE_FRACTION, P_STD, T_ZERO_C } from './constants'
-import { nitrogenSaturation, oxygenSaturation, vapourPressureAtm } from './oxygenSaturation'
+// Oxygen: the per-metre field transfer in the units (the cross-check beside the bubble model),
+// aeration over the existing weir (Butts & Evans), film-theory helpers, mixing downstream.
+import { G, O2_MASS_FRACTION, P_STD, T_ZERO_C } from './constants'
+import { oxygenSaturation } from './oxygenSaturation'
 import { waterViscosity } from './water'
 
 /** A tabulated coefficient with its origin. */
@@ -76,6 +77,8 @@ export interface FieldTransferInput {
   airMassFlow_kgs: number
   submergence_m: number
   sotePerMetre: number
+  /** Depth-independent share of the O₂ supplied that the device itself transfers (SOTE at zero submergence). */
+  inDeviceTransfer: number
   alpha: number
   beta: number
   theta: number
@@ -96,12 +99,12 @@ export interface TransferResult {
   transfer_kgs: number
 }
 
-/** Field transfer as an exponential approach, φ = SOTR·α·θ^(T−20)/(C*₂₀·Q_u), SOTR = SOTE·ṁ_O₂ (ASCE/EWRI 2-06 field correction). */
+/** Field transfer as an exponential approach, φ = SOTR·α·θ^(T−20)/(C*₂₀·Q_u), SOTR = SOTE·ṁ_O₂ with SOTE = per-metre efficiency × submergence + in-device term (ASCE/EWRI 2-06 field correction). */
 export function fieldTransfer(f: FieldTransferInput): TransferResult {
   const cStar = unitSaturation(f.tC, f.p_atm, f.rho, f.submergence_m, f.beta, f.salinity_gkg)
   if (!(f.unitFlow_m3s > 0)) return { cStar_mgL: cStar, cOut_mgL: f.cIn_mgL, exponent: 0, fractionApproached: 0, transfer_kgs: 0 }
   const cStar20 = oxygenSaturation(20, P_STD + (f.rho * G * Math.max(0, f.submergence_m)) / 2, f.salinity_gkg) * 1e-3
-  const sote = Math.min(1, Math.max(0, f.sotePerMetre * f.submergence_m))
+  const sote = Math.min(1, Math.max(0, f.sotePerMetre * f.submergence_m + f.inDeviceTransfer))
   const sotr = sote * oxygenSupply(f.airMassFlow_kgs)
   // A unit flow so small that C*₂₀·Q underflows to 0 takes up no oxygen (and would give 0/0 = NaN).
   const carried = cStar20 * f.unitFlow_m3s
@@ -127,48 +130,6 @@ export function higbieFilmCoefficient(diffusivity: number, bubbleDiameter_m: num
   return 2 * Math.sqrt(diffusivity / (Math.PI * tc))
 }
 
-/** Inputs of the bubble-contact method. */
-export interface BubbleContactInput {
-  cIn_mgL: number
-  cStar_mgL: number
-  tC: number
-  unitFlow_m3s: number
-  /** Free-air flow, m³/s. */
-  airFlow_m3s: number
-  airMassFlow_kgs: number
-  bubbleDiameter_m: number
-  slipVelocity_ms: number
-  diffusivity20: number
-  contactTime_s: number
-}
-
-/** Bubble-contact transfer C_out = C* − (C* − C_in)·e^(−K_L·a·t), a = 6ε/d_b, ε = Q_a/(Q_a + Q_u), capped at the O₂ supplied (Higbie 1935). */
-export function bubbleContact(b: BubbleContactInput): TransferResult & { voidFraction: number, interfacialArea_m2m3: number, filmCoefficient_ms: number } {
-  const zero = { cStar_mgL: b.cStar_mgL, cOut_mgL: b.cIn_mgL, exponent: 0, fractionApproached: 0, transfer_kgs: 0, voidFraction: 0, interfacialArea_m2m3: 0, filmCoefficient_ms: 0 }
-  if (!(b.unitFlow_m3s > 0) || !(b.airFlow_m3s > 0) || !(b.bubbleDiameter_m > 0)) return zero
-  const eps = b.airFlow_m3s / (b.airFlow_m3s + b.unitFlow_m3s)
-  const a = (6 * eps) / b.bubbleDiameter_m
-  const kl = higbieFilmCoefficient(oxygenDiffusivity(b.tC, b.diffusivity20), b.bubbleDiameter_m, b.slipVelocity_ms)
-  const x = kl * a * Math.max(0, b.contactTime_s)
-  let cOut = exponentialApproach(b.cStar_mgL, b.cIn_mgL, x)
-  const maxRise = (oxygenSupply(b.airMassFlow_kgs) / b.unitFlow_m3s) * 1e3
-  if (cOut - b.cIn_mgL > maxRise) cOut = b.cIn_mgL + maxRise
-  const deficit = b.cStar_mgL - b.cIn_mgL
-  return {
-    cStar_mgL: b.cStar_mgL, cOut_mgL: cOut, exponent: x,
-    fractionApproached: deficit !== 0 ? (cOut - b.cIn_mgL) / deficit : 1 - Math.exp(-x),
-    transfer_kgs: (cOut - b.cIn_mgL) * 1e-3 * b.unitFlow_m3s,
-    voidFraction: eps, interfacialArea_m2m3: a, filmCoefficient_ms: kl,
-  }
-}
-
-/** Contact time in the diffuser and the tail-pool plume, t = L_d/(Q_u/Ā) + t_plume, s, with Ā the mean of throat and outlet areas. */
-export function contactTime(diffuserLength_m: number, unitFlow_m3s: number, throatArea_m2: number, outletArea_m2: number, plumeTime_s: number): number {
-  const aMean = (throatArea_m2 + outletArea_m2) / 2
-  const inDiffuser = unitFlow_m3s > 0 && aMean > 0 ? Math.max(0, diffuserLength_m) / (unitFlow_m3s / aMean) : 0
-  return inDiffuser + Math.max(0, plumeTime_s)
-}
-
 /** Length of a conical diffuser L = (D_o − D_t)/(2·tan θ_half), m (geometry). */
 export function diffuserLength(throatDiameter_m: number, outletDiameter_m: number, halfAngle_deg: number): number {
   const t = Math.tan((halfAngle_deg * Math.PI) / 180)
@@ -192,24 +153,4 @@ export function mixStreams(streams: ReadonlyArray<Stream>, fallback_mgL: number)
     }
   }
   return q > 0 ? m / q : fallback_mgL
-}
-
-/** Total dissolved gas as a fraction of barometric pressure, [(P − p_wv)(x_O₂σ_O₂ + x_N₂σ_N₂) + p_wv]/P with σ = C/C_s at the surface (Dalton's and Henry's laws; N₂ + Ar lumped, from memory). */
-export function totalDissolvedGas(tC: number, p_atm: number, o2Saturation: number, n2Saturation: number): number {
-  const P = p_atm / P_STD
-  if (!(P > 0)) return 0
-  const pwv = Math.min(vapourPressureAtm(tC), P)
-  return ((P - pwv) * (O2_MOLE_FRACTION * o2Saturation + N2_AR_MOLE_FRACTION * n2Saturation) + pwv) / P
-}
-
-/** Dissolved N₂ in a unit's discharge, treated like O₂: the same fraction of the deficit to β·C_s,N₂ at mid-submergence is removed, mg/L. */
-export function unitNitrogen(
-  tC: number, p_atm: number, rho: number, submergence_m: number, beta: number, salinity_gkg: number,
-  upstreamSaturation: number, fractionApproached: number,
-): { cIn_mgL: number, cOut_mgL: number, surfaceSaturation_mgL: number } {
-  const sat = nitrogenSaturation(tC, p_atm, salinity_gkg)
-  const cIn = upstreamSaturation * sat
-  const cStar = beta * nitrogenSaturation(tC, p_atm + (rho * G * Math.max(0, submergence_m)) / 2, salinity_gkg)
-  const f = Math.min(1, Math.max(0, fractionApproached))
-  return { cIn_mgL: cIn, cOut_mgL: cIn + (cStar - cIn) * f, surfaceSaturation_mgL: sat }
 }

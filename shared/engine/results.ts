@@ -65,6 +65,9 @@ export interface PerFlowRow {
   downstreamOxygenWith_mgL: number
   netOxygenGain_mgL: number
   unitTotalDissolvedGas: number
+  unitGasExcess_mmHg: number
+  /** Total dissolved gas below the weir after full mixing, fraction. */
+  mixedTotalDissolvedGas: number
 }
 
 /** One row of the month table. */
@@ -82,11 +85,17 @@ export interface MonthRow {
   upstreamOxygen_mgL: number
   downstreamWithout_mgL: number
   downstreamWith_mgL: number
+  /** Lowest and highest oxygen below the weir without the scheme across the weir aeration models, mg/L. */
+  downstreamWithoutRange_mgL: { min_mgL: number, max_mgL: number }
   downstreamFieldTransfer_mgL: number
-  downstreamBubbleContact_mgL: number
+  downstreamBubbleModel_mgL: number
+  /** Upstream water above saturation: the units can only degas it (a net loss here is that, not a failure). */
+  upstreamSupersaturated: boolean
   netGain_mgL: number
   target_mgL: number
   unitTotalDissolvedGas: number
+  /** Excess gas pressure of the unit discharge over the barometric pressure, mmHg (0 when stopped). */
+  unitGasExcess_mmHg: number
   cavitationMargin_m: number | null
   /** Flags raised at any flow of the month's curve. */
   flags: FlagId[]
@@ -151,6 +160,8 @@ export interface AssessSummary {
   /** Smallest throat cavitation index σ where units run; null when they never run. */
   minCavitationIndex: number | null
   maxUnitTotalDissolvedGas: number
+  /** Largest excess gas pressure of the unit discharge over the barometric pressure, mmHg. */
+  maxUnitGasExcess_mmHg: number
   netOxygenGainSummerLowFlow_mgL: number
   /** Time-weighted mean net oxygen change over the year, mg/L. */
   meanNetOxygenGain_mgL: number
@@ -163,11 +174,13 @@ export interface AssessSummary {
   flags: Flag[]
 }
 
-/** Both oxygen methods side by side. */
+/** Both oxygen methods side by side, and the weir model behind the "without" figure. */
 export interface MethodsComparison {
-  summaryUses: 'field-transfer' | 'bubble-contact'
+  summaryUses: 'bubble-model' | 'field-transfer'
   note: string
-  atSummerLowFlow: Record<'fieldTransfer' | 'bubbleContact', { unitOutlet_mgL: number, downstream_mgL: number, netGain_mgL: number }>
+  atSummerLowFlow: Record<'fieldTransfer' | 'bubbleModel', { unitOutlet_mgL: number, downstream_mgL: number, netGain_mgL: number }>
+  /** The weir aeration model used for the water over the weir, what it stands on, and the range between models at summer low flow. */
+  weir: { model: 'butts-evans' | 'avery-novak' | 'measured', note: string, withoutRange_mgL: { min_mgL: number, max_mgL: number } }
 }
 
 /** Result of one assessment. */

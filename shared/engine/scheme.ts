@@ -2,6 +2,7 @@
 // inner loop that computes it is in schemeKernel.ts, the oxygen side in schemeOxygen.ts.
 import type { AssessInput } from '../schemas/assess'
 import { isaPressure } from './atmosphere'
+import { G } from './constants'
 import type { TurbineState } from './airPath'
 import { diffuserLength } from './oxygen'
 import { NET_LOSS_TOLERANCE_mgL } from './flags'
@@ -43,7 +44,10 @@ export interface PowerState {
   reserved_m3s: number
   workingHead_m: number
   throatVelocity_ms: number
+  /** Suction head with the air valve shut (the vacuum the throat could hold), m. */
   suction_m: number
+  /** Vacuum at the throat with the air flowing (the pressure the air path holds), m of water; 0 when stopped. */
+  operatingSuction_m: number
   cavitationMargin_m: number
   cavitationIndex: number | null
   /** Free-air flow of all units, m³/s. */
@@ -61,17 +65,29 @@ export interface PowerState {
 export interface OxygenState {
   saturation_mgL: number
   upstream_mgL: number
+  /** Below the weir without the scheme, by the site's chosen weir model. */
   withoutScheme_mgL: number
+  /** The same by every applicable weir model: the spread between them. */
+  withoutSchemeRange_mgL: { min_mgL: number, max_mgL: number }
+  weirModel: 'butts-evans' | 'avery-novak' | 'measured'
+  /** What the chosen weir figure stands on (e.g. a drowned weir taken as a submerged sluice). */
+  weirModelNote: string
+  /** The water still falling over the weir with the scheme, after its fall. */
   weirStream_mgL: number
   unitFieldTransfer_mgL: number
-  unitBubbleContact_mgL: number
+  unitBubbleModel_mgL: number
   withSchemeFieldTransfer_mgL: number
-  withSchemeBubbleContact_mgL: number
+  withSchemeBubbleModel_mgL: number
   /** With the method the summary uses. */
   withScheme_mgL: number
   netGain_mgL: number
-  /** Total dissolved gas of the unit discharge at the surface, fraction of barometric pressure. */
+  /** Total dissolved gas of the unit discharge before mixing, fraction of barometric pressure (bubble model). */
   unitTdg: number
+  /** Its excess pressure over the barometric pressure ΔP, mmHg. */
+  unitGasExcess_mmHg: number
+  /** Total dissolved gas below the weir after full mixing, fraction, and its ΔP, mmHg. */
+  mixedTdg: number
+  mixedGasExcess_mmHg: number
 }
 
 /** Everything at one river flow. */
@@ -110,12 +126,13 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
 function riverCheckOf(s: Scheme, c: Conditions): RiverCheck | null {
   if (s.input.option.operation.mode !== 'river-first') return null
   const st = s.input.settings
-  return (cand, p, river, H) => {
+  return (cand, p, river, H, w) => {
     const n = cand.units
     const ps: PowerState = {
       riverFlow_m3s: river, grossHead_m: H, regime: cand.regime, shutReason: null, unitsRunning: n,
       unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: Math.min(river, s.reserved_m3s),
       workingHead_m: p.workingHead_m, throatVelocity_ms: p.throatVelocity_ms, suction_m: p.suction_m,
+      operatingSuction_m: p.air.pumpPressure_Pa / (w.rho * G),
       cavitationMargin_m: p.cavitationMargin_m, cavitationIndex: p.cavitationIndex,
       airFlow_m3s: n * p.air.airFlow_m3s, airMassFlowPerUnit_kgs: p.air.airMassFlow_kgs,
       electricalPower_W: n * p.air.electricalPower_W, hydraulicPower_W: n * p.air.hydraulicPower_W,
@@ -138,6 +155,7 @@ export function powerState(s: Scheme, flow_m3s: number, c: Conditions): PowerSta
     workingHead_m: n > 0 ? p.workingHead_m : 0,
     throatVelocity_ms: p.throatVelocity_ms,
     suction_m: n > 0 ? p.suction_m : 0,
+    operatingSuction_m: n > 0 ? p.air.pumpPressure_Pa / (w.rho * G) : 0,
     cavitationMargin_m: n > 0 ? p.cavitationMargin_m : w.suctionLimit_m,
     cavitationIndex: n > 0 ? p.cavitationIndex : null,
     airFlow_m3s: n * p.air.airFlow_m3s,

@@ -1,24 +1,14 @@
-// Oxygen below the scheme at one power state: the units' transfer (field transfer or bubble
-// contact), the weir's own aeration of the water passing over it, the mix, and the total dissolved
-// gas of the units' discharge.
-import {
-  bubbleContact, contactTime, downstreamFromDeficitRatio, fieldTransfer, mixStreams, totalDissolvedGas,
-  unitNitrogen, WATER_QUALITY_A, WEIR_SHAPE_B, weirDeficitRatio, type TransferResult,
-} from './oxygen'
+// The river stage at one power state: the units' oxygen and dissolved gas from the discrete-bubble
+// model (bubbles.ts, the primary method) with the per-metre field transfer beside it as a cross-check,
+// the weir's own aeration of the water still passing over it (weirAeration.ts: the chosen model and
+// the range between models), the mix below the weir, and the total dissolved gas before and after it.
+import { dissolvedGasState, bubbleTransfer, mixDissolvedGas, type BubbleTransferResult } from './bubbles'
+import { downstreamFromDeficitRatio, fieldTransfer, mixStreams, WATER_QUALITY_A, WEIR_SHAPE_B, type TransferResult } from './oxygen'
 import { nitrogenSaturation, oxygenSaturation } from './oxygenSaturation'
 import { circleArea } from './venturi'
 import { waterDensity } from './water'
+import { crestDischargePerMetre, crestFormOf, headOverCrest, WEIR_DISCHARGE_COEFFICIENT, weirAerationModels, type WeirAerationModels } from './weirAeration'
 import type { Conditions, OxygenState, PowerState, Scheme } from './scheme'
-
-/** Oxygen below a weir of fall `fall` m from the upstream oxygen (Butts & Evans deficit ratio). */
-function overWeir(cs: number, c: Conditions, a: number, b: number, fall: number): number {
-  return downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(a, b, fall, c.tC))
-}
-
-/** The units' discharge mixed with the water passing over the weir. */
-function mixWithWeir(unitsQ: number, unitC: number, weirQ: number, weirC: number, fallback: number): number {
-  return mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirC }], fallback)
-}
 
 /** The units' side of the last oxygen state of a scheme, reused while its inputs repeat. */
 interface UnitSide {
@@ -27,10 +17,9 @@ interface UnitSide {
   unitFlow: number
   airMass: number
   air: number
-  units: number
+  suction: number
   field: TransferResult
-  bubble: TransferResult
-  tdg: number
+  bubble: BubbleTransferResult
 }
 
 // Across a month's flows the units often run in the same state (every unit at full capacity while the
@@ -38,75 +27,114 @@ interface UnitSide {
 // figures are those of computing afresh (tests/unit/engine/speedups.test.ts checks the state).
 const lastUnitSide = new WeakMap<Scheme, UnitSide>()
 
-function unitSide(s: Scheme, ps: PowerState, c: Conditions, cs: number): UnitSide {
+function unitSide(s: Scheme, ps: PowerState, c: Conditions, n2In: number): UnitSide {
   const last = lastUnitSide.get(s)
   const air = ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0
-  const running = ps.unitsRunning > 0 ? 1 : 0
+  const suction = ps.unitsRunning > 0 ? ps.operatingSuction_m : 0
   if (last && Object.is(last.tC, c.tC) && Object.is(last.upstream, c.upstreamO2_mgL) && Object.is(last.unitFlow, ps.unitFlow_m3s)
-    && Object.is(last.airMass, ps.airMassFlowPerUnit_kgs) && Object.is(last.air, air) && last.units === running) return last
-  const field = unitFieldTransfer(s, ps, c)
-  const bubble = unitBubbleContact(s, ps, c, field)
+    && Object.is(last.airMass, ps.airMassFlowPerUnit_kgs) && Object.is(last.air, air) && Object.is(last.suction, suction)) return last
   const side: UnitSide = {
-    tC: c.tC, upstream: c.upstreamO2_mgL, unitFlow: ps.unitFlow_m3s, airMass: ps.airMassFlowPerUnit_kgs, air, units: running,
-    field, bubble, tdg: tdgOf(s, ps, c, cs, s.input.settings.oxygenMethod === 'bubble-contact' ? bubble : field),
+    tC: c.tC, upstream: c.upstreamO2_mgL, unitFlow: ps.unitFlow_m3s, airMass: ps.airMassFlowPerUnit_kgs, air, suction,
+    field: unitFieldTransfer(s, ps, c),
+    bubble: unitBubbles(s, ps, c, air, suction, n2In),
   }
   lastUnitSide.set(s, side)
   return side
 }
 
-/** Oxygen below the scheme at one power state: units, weir streams, mix, net gain, total dissolved gas. */
+/**
+ * Whether the weir is drowned at this state: the head over the crest needed to pass what goes over it
+ * (weir equation, C_d by crest form) reaches past the fall, so the tail stands above the crest
+ * (ENGINE.md §13). Needs the crest length; a site without one is taken as free.
+ */
+function drownedAt(s: Scheme, overWeir_m3s: number, fall_m: number): boolean {
+  const L = s.input.site.crestLength_m
+  const form = crestFormOf(s.input.site.weirShape)
+  if (L === undefined || !(L > 0) || form === null || !(overWeir_m3s > 0)) return false
+  return headOverCrest(overWeir_m3s, L, WEIR_DISCHARGE_COEFFICIENT[form].value) > fall_m
+}
+
+/** Deficit ratios of the water falling over the weir (the chosen model, every model, the range). */
+function weirModels(s: Scheme, overWeir_m3s: number, fall_m: number, tC: number): WeirAerationModels {
+  const site = s.input.site
+  const L = site.crestLength_m
+  const chosen = site.weirAeration.model === 'avery-novak' && !(L !== undefined && L > 0) ? 'butts-evans' : site.weirAeration.model
+  return weirAerationModels({
+    fall_m, q_m2s: L !== undefined && L > 0 ? crestDischargePerMetre(overWeir_m3s, L) : 0, tC,
+    a: WATER_QUALITY_A[site.waterQuality].value, b: WEIR_SHAPE_B[site.weirShape].value,
+    measured: site.weirAeration.measured, drowned: drownedAt(s, overWeir_m3s, fall_m), chosen,
+  })
+}
+
+/** Oxygen and dissolved gas below the scheme at one power state: units, weir, mix, net gain. */
 export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
   const site = s.input.site
+  const st = s.input.settings
   const cs = oxygenSaturation(c.tC, s.p_atm, site.salinity_gkg)
-  const a = WATER_QUALITY_A[site.waterQuality].value
-  const b = WEIR_SHAPE_B[site.weirShape].value
-  // Level control holds the head pool, so the reserved flow and the spill fall the full gross head:
-  // the water over the weir is aerated as all of it is without the scheme.
-  const weirStream = overWeir(cs, c, a, b, ps.grossHead_m)
-  const without = ps.riverFlow_m3s > 0 ? weirStream : c.upstreamO2_mgL
-  const { field, bubble, tdg } = unitSide(s, ps, c, cs)
-  const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
+  const n2Sat = nitrogenSaturation(c.tC, s.p_atm, site.salinity_gkg)
+  const n2Up = st.upstreamNitrogenSaturation * n2Sat
+  const H = ps.grossHead_m
   const weirQ = ps.reserved_m3s + ps.spill_m3s
-  const withField = mixWithWeir(unitsQ, field.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
-  const withBubble = mixWithWeir(unitsQ, bubble.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
-  const withScheme = s.input.settings.oxygenMethod === 'bubble-contact' ? withBubble : withField
+  const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
+  // Without the scheme the whole river falls over the weir; with it, what the units leave. Level
+  // control holds the head pool, so both fall the full gross head; a flow-dependent model (Avery &
+  // Novak) aerates the smaller overfall differently.
+  const alone = weirModels(s, ps.riverFlow_m3s, H, c.tC)
+  const rest = unitsQ > 0 ? weirModels(s, weirQ, H, c.tC) : alone
+  const overWeir = (r: number, sat: number, up: number): number => downstreamFromDeficitRatio(sat, up, r)
+  const without = ps.riverFlow_m3s > 0 ? overWeir(alone.chosen.r, cs, c.upstreamO2_mgL) : c.upstreamO2_mgL
+  const weirStream = overWeir(rest.chosen.r, cs, c.upstreamO2_mgL)
+  const weirN2 = overWeir(rest.chosen.r, n2Sat, n2Up)
+  const { field, bubble } = unitSide(s, ps, c, n2Up)
+  const unitBubbleO2 = unitsQ > 0 ? bubble.surface.o2_mgL : c.upstreamO2_mgL
+  const unitBubbleN2 = unitsQ > 0 ? bubble.surface.n2_mgL : n2Up
+  const mix = (unitC: number): number => mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirStream }], c.upstreamO2_mgL)
+  const withField = mix(field.cOut_mgL)
+  const withBubble = mix(unitBubbleO2)
+  const withScheme = st.oxygenMethod === 'field-transfer' ? withField : withBubble
+  const unitGas = unitsQ > 0 ? bubble.surface : dissolvedGasState(c.upstreamO2_mgL, n2Up, c.tC, s.p_atm, site.salinity_gkg)
+  const mixed = mixDissolvedGas([
+    { flow_m3s: unitsQ, o2_mgL: unitBubbleO2, n2_mgL: unitBubbleN2 },
+    { flow_m3s: weirQ, o2_mgL: weirStream, n2_mgL: weirN2 },
+  ], c.tC, s.p_atm, site.salinity_gkg)
+  const range = ps.riverFlow_m3s > 0
+    ? { min_mgL: Math.min(overWeir(alone.rMin, cs, c.upstreamO2_mgL), overWeir(alone.rMax, cs, c.upstreamO2_mgL)), max_mgL: Math.max(overWeir(alone.rMin, cs, c.upstreamO2_mgL), overWeir(alone.rMax, cs, c.upstreamO2_mgL)) }
+    : { min_mgL: c.upstreamO2_mgL, max_mgL: c.upstreamO2_mgL }
   return {
-    saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, weirStream_mgL: weirStream,
-    unitFieldTransfer_mgL: field.cOut_mgL, unitBubbleContact_mgL: bubble.cOut_mgL,
-    withSchemeFieldTransfer_mgL: withField, withSchemeBubbleContact_mgL: withBubble, withScheme_mgL: withScheme,
-    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0, unitTdg: tdg,
+    saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, withoutSchemeRange_mgL: range,
+    weirModel: alone.chosen.model, weirModelNote: alone.chosen.note, weirStream_mgL: weirStream,
+    unitFieldTransfer_mgL: field.cOut_mgL, unitBubbleModel_mgL: unitBubbleO2,
+    withSchemeFieldTransfer_mgL: withField, withSchemeBubbleModel_mgL: withBubble, withScheme_mgL: withScheme,
+    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0,
+    unitTdg: unitGas.tdgFraction, unitGasExcess_mmHg: unitGas.tdgExcess_mmHg,
+    mixedTdg: mixed.tdgFraction, mixedGasExcess_mmHg: mixed.tdgExcess_mmHg,
   }
 }
 
-/** Field transfer in one unit (ASCE/EWRI 2-06). */
+/** Field transfer in one unit (ASCE/EWRI 2-06 form, per metre of submergence plus an in-device term): the cross-check. */
 function unitFieldTransfer(s: Scheme, ps: PowerState, c: Conditions): TransferResult {
   const st = s.input.settings
   return fieldTransfer({
     cIn_mgL: c.upstreamO2_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airMassFlow_kgs: ps.airMassFlowPerUnit_kgs,
-    submergence_m: s.input.option.throatDepth_m, sotePerMetre: st.sotePerMetre, alpha: st.alpha, beta: st.beta, theta: st.theta,
-    p_atm: s.p_atm, rho: waterDensity(c.tC), salinity_gkg: s.input.site.salinity_gkg,
+    submergence_m: s.input.option.throatDepth_m, sotePerMetre: st.sotePerMetre, inDeviceTransfer: st.inDeviceTransfer,
+    alpha: st.alpha, beta: st.beta, theta: st.theta, p_atm: s.p_atm, rho: waterDensity(c.tC), salinity_gkg: s.input.site.salinity_gkg,
   })
 }
 
-/** Bubble contact in one unit (Higbie 1935), toward field transfer's C*. */
-function unitBubbleContact(s: Scheme, ps: PowerState, c: Conditions, field: TransferResult): TransferResult {
+/**
+ * The discrete-bubble model in one unit: bubbles form at the throat's operating pressure (the
+ * atmosphere less what the air path holds), travel with the water through the diffuser, which is
+ * taken as level so they leave at the throat's depth, then rise through the tail pool.
+ */
+function unitBubbles(s: Scheme, ps: PowerState, c: Conditions, perUnitAir: number, suction_m: number, n2In: number): BubbleTransferResult {
   const st = s.input.settings
-  const perUnitAir = ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0
-  return bubbleContact({
-    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: field.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airFlow_m3s: perUnitAir,
-    airMassFlow_kgs: ps.airMassFlowPerUnit_kgs, bubbleDiameter_m: st.bubbleDiameter_m, slipVelocity_ms: st.slipVelocity_ms,
-    diffusivity20: st.oxygenDiffusivity20,
-    contactTime_s: contactTime(s.diffuserLength_m, ps.unitFlow_m3s, circleArea(s.geometry.throatDiameter_m), circleArea(s.geometry.outletDiameter_m), st.plumeTime_s),
-  })
-}
-
-/** Total dissolved gas of the unit discharge from the transfer the summary uses (`used`), O₂ saturation `cs` at the surface. */
-function tdgOf(s: Scheme, ps: PowerState, c: Conditions, cs: number, used: TransferResult): number {
-  const st = s.input.settings
-  const site = s.input.site
-  const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
-  const fraction = unitsQ > 0 ? used.fractionApproached : 0
-  const n2 = unitNitrogen(c.tC, s.p_atm, waterDensity(c.tC), s.input.option.throatDepth_m, st.beta, site.salinity_gkg, st.upstreamNitrogenSaturation, fraction)
-  const n2Sat = nitrogenSaturation(c.tC, s.p_atm, site.salinity_gkg)
-  return totalDissolvedGas(c.tC, s.p_atm, cs > 0 ? used.cOut_mgL / cs : 0, n2Sat > 0 ? n2.cOut_mgL / n2Sat : 0)
+  const o = s.input.option
+  return bubbleTransfer({
+    tC: c.tC, airTemperatureC: c.tC + st.airTemperatureOffset_K, p_atm: s.p_atm, salinity_gkg: s.input.site.salinity_gkg,
+    unitFlow_m3s: ps.unitsRunning > 0 ? ps.unitFlow_m3s : 0, airFlow_m3s: perUnitAir,
+    // bubbles.ts counts suction below the local hydrostatic pressure: the venturi's vacuum against the atmosphere plus the depth
+    suction_m: o.throatDepth_m + Math.max(0, suction_m), throatDepth_m: o.throatDepth_m, outletDepth_m: o.throatDepth_m,
+    throatArea_m2: circleArea(s.geometry.throatDiameter_m), outletArea_m2: circleArea(s.geometry.outletDiameter_m),
+    diffuserLength_m: s.diffuserLength_m, o2In_mgL: c.upstreamO2_mgL, n2In_mgL: n2In,
+  }, { bubbleDiameter_m: st.bubbleDiameter_m, plumeVelocity_ms: st.plumeVelocity_ms, filmModel: st.filmModel, oxygenDiffusivity20: st.oxygenDiffusivity20 })
 }

@@ -130,6 +130,8 @@ export interface YearJudgement {
   worstCavitation: FlowState | null
   /** Largest unit total dissolved gas where units run, and its state. */
   worstTdg: FlowState | null
+  /** Largest excess gas pressure of the unit discharge where units run, mmHg. */
+  maxGasExcess_mmHg: number
   /** Throat cavitation indices where units run (for the smallest). */
   minCavitationIndex: number | null
   /** Mean and peak air flow over the year, m³/s. */
@@ -167,6 +169,7 @@ export function judgeYear(s: Scheme, months: readonly Conditions[], curves: read
   let worstCavitation: FlowState | null = null
   let worstTdg: FlowState | null = null
   let minSigma: number | null = null
+  let maxExcess = 0
   const monthOut: YearJudgement['months'] = []
   curves.forEach((mc, k) => {
     const month = k + 1
@@ -195,7 +198,9 @@ export function judgeYear(s: Scheme, months: readonly Conditions[], curves: read
         track(tallies['cavitation'], f.cavitationMargin_m, 'm', true, month, f, p)
         if (f.cavitationMargin_m < st.minCavitationMargin_m) raise('cavitation')
         track(tallies['gas-supersaturation'], o.unitTdg * 100, '%', false, month, f, p)
-        if (o.unitTdg > st.tdgLimit) raise('gas-supersaturation')
+        maxExcess = Math.max(maxExcess, o.unitGasExcess_mmHg)
+        // the stricter of the two limits: % of saturation, or excess pressure ΔP (REFERENCES §13)
+        if (o.unitTdg > st.tdgLimit || o.unitGasExcess_mmHg > st.tdgExcessLimit_mmHg) raise('gas-supersaturation')
       }
       track(tallies['net-oxygen-loss'], o.netGain_mgL, 'mg/L', true, month, f, p)
       if (o.netGain_mgL < -st.acceptableOxygenLoss_mgL) {
@@ -215,7 +220,7 @@ export function judgeYear(s: Scheme, months: readonly Conditions[], curves: read
   })
   return {
     tallies, runningShare, meanNetGain_mgL: meanGain, months: monthOut, worstCavitation, worstTdg,
-    minCavitationIndex: minSigma, meanAirFlow_m3s: airSum, peakAirFlow_m3s: airPeak,
+    minCavitationIndex: minSigma, maxGasExcess_mmHg: maxExcess, meanAirFlow_m3s: airSum, peakAirFlow_m3s: airPeak,
     basis: `Judged at ${YEAR_GRID_CELLS} flows in each month (each the middle of an equal share of the month's time, from ${
       curves.some((c) => c.basis === 'record') ? "the record's days in that month" : curves.some((c) => c.basis === 'seasonal-profile') ? 'the curve scaled by the seasonal profile' : 'the annual curve'
     }), at that month's temperature and upstream oxygen.`,

@@ -86,6 +86,19 @@ export const ReservedFlowInputSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('percentile'), exceedance: num.min(0).max(100) }),
 ])
 
+/** How the existing weir aerates what falls over it: the model the figures use, and a measured deficit ratio if there is one. */
+export const WeirAerationInputSchema = z.object({
+  model: z.enum(['butts-evans', 'avery-novak', 'measured']).default('butts-evans'),
+  measured: z.object({
+    /** Deficit ratio r = (C_s − C_u)/(C_s − C_d) measured below the weir. */
+    r: num.min(1, 'must be 1 or more (1 means no aeration)').max(100, 'must be 100 or less'),
+    /** Water temperature when it was measured, °C. */
+    tC: num.min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
+    /** True when it was measured with the weir drowned. */
+    drowned: z.boolean().default(false),
+  }).nullable().default(null),
+}).refine((w) => w.model !== 'measured' || w.measured !== null, { path: ['measured'], message: 'is needed when the weir model is "measured"' })
+
 /** The site: head, altitude, water and its months. */
 export const EngineSiteSchema = z.object({
   altitude_m: num.min(-100).max(5000, 'must be 5000 m or less').default(0),
@@ -97,6 +110,9 @@ export const EngineSiteSchema = z.object({
   months: z.array(MonthInputSchema).length(12, 'needs 12 months, January first'),
   waterQuality: z.enum(WATER_QUALITY).default('clean'),
   weirShape: z.enum(WEIR_SHAPE).default('sharp-crested-vertical-face'),
+  /** Crest length of the weir, m: the discharge per metre for Avery & Novak and whether the weir drowns. */
+  crestLength_m: positive.max(1000, 'must be 1000 m or less').optional(),
+  weirAeration: WeirAerationInputSchema.prefault({}),
 })
 
 /** The air pipe of each unit. */
@@ -161,6 +177,7 @@ export const SettingsInputSchema = z.object({
   availability: fraction.default(d('availability')),
   minCavitationMargin_m: nonNegative.max(10).default(d('minCavitationMargin')),
   sotePerMetre: nonNegative.max(0.3).default(d('sotePerMetre')),
+  inDeviceTransfer: nonNegative.max(0.5, 'must be 0.5 or less').default(d('inDeviceTransfer')),
   alpha: fraction.default(d('alpha')),
   beta: fraction.default(d('beta')),
   theta: num.min(1).max(1.1).default(d('theta')),
@@ -168,14 +185,18 @@ export const SettingsInputSchema = z.object({
   /** A net oxygen loss beyond this is a river caution, and river-first mode shuts units to avoid it. */
   acceptableOxygenLoss_mgL: nonNegative.max(5, 'must be 5 mg/L or less').default(d('acceptableOxygenLoss')),
   tdgLimit: num.min(1).max(2).default(d('tdgLimit')),
+  /** Excess of total gas pressure over the barometric pressure ΔP flagged above, mmHg; the stricter of the two limits applies. */
+  tdgExcessLimit_mmHg: nonNegative.max(760, 'must be 760 mmHg or less').default(d('tdgExcessLimit')),
   upstreamNitrogenSaturation: nonNegative.max(2).default(d('upstreamNitrogenSaturation')),
-  bubbleDiameter_m: positive.max(0.05).default(d('bubbleDiameter')),
-  slipVelocity_ms: positive.max(2).default(d('slipVelocity')),
+  /** Initial bubble diameter of the bubble model, m (1–6 mm, the range it is meant for). */
+  bubbleDiameter_m: num.min(0.001, 'must be 1 mm (0.001 m) or more').max(0.006, 'must be 6 mm (0.006 m) or less').default(d('bubbleDiameter')),
+  plumeVelocity_ms: nonNegative.max(2).default(d('plumeVelocity')),
+  filmModel: z.enum(['mcginnis-little', 'higbie', 'frossling']).default('mcginnis-little'),
   oxygenDiffusivity20: positive.max(1e-8).default(d('oxygenDiffusivity20')),
-  plumeTime_s: nonNegative.max(600).default(d('plumeTime')),
   diffuserHalfAngle_deg: num.positive().max(45).default(d('diffuserHalfAngle')),
   airTemperatureOffset_K: num.min(-30).max(30).default(d('airTemperatureOffset')),
-  oxygenMethod: z.enum(['field-transfer', 'bubble-contact']).default('field-transfer'),
+  /** The method the summary's oxygen figures use: the bubble model (primary) or the per-metre field transfer (cross-check). */
+  oxygenMethod: z.enum(['bubble-model', 'field-transfer']).default('bubble-model'),
   discountRate: num.min(0).max(0.5).default(MONEY_DEFAULTS.discountRate.value),
   life_yr: num.min(1, 'must be 1 year or more').max(100).default(MONEY_DEFAULTS.life_yr.value),
   opexFraction: fraction.default(MONEY_DEFAULTS.opexFraction.value),

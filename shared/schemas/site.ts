@@ -63,7 +63,17 @@ export const WeirSchema = z.object({
   crestWidth_m: positive.max(1000, 'must be 1000 m or less'),
   shape: z.enum(WEIR_SHAPES, { error: `must be one of ${WEIR_SHAPES.join(', ')}` }),
   waterQuality: z.enum(WATER_QUALITIES, { error: `must be one of ${WATER_QUALITIES.join(', ')}` }),
-})
+  /** Which weir aeration model the figures use (the others are shown as a range beside it); left out: Butts & Evans. */
+  aerationModel: z.enum(['butts-evans', 'avery-novak', 'measured'], { error: 'must be one of butts-evans, avery-novak, measured' }).optional(),
+  /** A deficit ratio measured below this weir, with the water temperature and whether the weir was drowned then. */
+  measuredDeficitRatio: z.object({
+    r: z.number({ error: 'must be a number' }).min(1, 'must be 1 or more (1 means no aeration)').max(100, 'must be 100 or less'),
+    temperature_C: z.number({ error: 'must be a number' }).min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
+    drowned: z.boolean({ error: 'must be true or false' }).default(false),
+    /** When and how it was measured, in the user's words. */
+    note: z.string({ error: 'must be text' }).max(500, 'is too long (500 characters at most)').default(''),
+  }).nullable().optional(),
+}).refine((w) => w.aerationModel !== 'measured' || !!w.measuredDeficitRatio, { path: ['measuredDeficitRatio'], message: 'is needed when the aeration model is "measured"' })
 
 /** One row of the gross head against river flow (tailwater rises in floods). */
 export const HeadRowSchema = z.object({

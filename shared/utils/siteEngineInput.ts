@@ -79,6 +79,14 @@ export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null
       })),
       waterQuality: site.weir.waterQuality,
       weirShape: site.weir.shape,
+      crestLength_m: site.weir.crestWidth_m,
+      // Sites stored before the weir models came have neither field: Butts & Evans, nothing measured.
+      weirAeration: {
+        model: site.weir.aerationModel ?? 'butts-evans',
+        measured: site.weir.measuredDeficitRatio
+          ? { r: site.weir.measuredDeficitRatio.r, tC: site.weir.measuredDeficitRatio.temperature_C, drowned: site.weir.measuredDeficitRatio.drowned }
+          : null,
+      },
     },
     hydrology,
     gaugeScaling,

@@ -18,7 +18,7 @@ const signIn = async (role: 'viewer' | 'engineer') => {
 }
 
 describe('demo options and assessments (npm run db:seed)', () => {
-  it('gives every demo site an assessed option, two at Hollin Mill weir, and adds none twice', async () => {
+  it('gives every demo site an assessed option, three at Hollin Mill weir, and adds none twice', async () => {
     seed()
     seed()
     const { client, orgId } = await signIn('viewer')
@@ -36,7 +36,7 @@ describe('demo options and assessments (npm run db:seed)', () => {
         expect(list.body.total, o.name).toBe(1)
       }
     }
-    expect(DEMO_OPTIONS.filter((o) => o.siteName === 'Hollin Mill weir')).toHaveLength(2)
+    expect(DEMO_OPTIONS.filter((o) => o.siteName === 'Hollin Mill weir')).toHaveLength(3)
   })
 
   it('stores what the server itself would compute: a fresh assessment of each demo option has the same input and figures', async () => {

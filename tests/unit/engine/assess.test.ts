@@ -46,16 +46,19 @@ describe('assess: shape and bookkeeping', () => {
       expect(p.waterToWire).toBeLessThan(0.25)
     }
   })
-  it('shows both oxygen methods and uses the chosen one in the summary', () => {
-    expect(r.methods.summaryUses).toBe('field-transfer')
-    expect(r.summary.netOxygenGainSummerLowFlow_mgL).toBeCloseTo(r.methods.atSummerLowFlow.fieldTransfer.netGain_mgL, 12)
-    const b = assess(parse({ ...draft(), settings: { oxygenMethod: 'bubble-contact' } }))
-    expect(b.methods.summaryUses).toBe('bubble-contact')
-    expect(b.summary.netOxygenGainSummerLowFlow_mgL).toBeCloseTo(b.methods.atSummerLowFlow.bubbleContact.netGain_mgL, 12)
+  it('shows both oxygen methods and uses the chosen one in the summary (the bubble model by default)', () => {
+    expect(r.methods.summaryUses).toBe('bubble-model')
+    expect(r.summary.netOxygenGainSummerLowFlow_mgL).toBeCloseTo(r.methods.atSummerLowFlow.bubbleModel.netGain_mgL, 12)
+    const f = assess(parse({ ...draft(), settings: { oxygenMethod: 'field-transfer' } }))
+    expect(f.methods.summaryUses).toBe('field-transfer')
+    expect(f.summary.netOxygenGainSummerLowFlow_mgL).toBeCloseTo(f.methods.atSummerLowFlow.fieldTransfer.netGain_mgL, 12)
     for (const m of r.months) {
-      expect(m.downstreamWith_mgL).toBeCloseTo(m.downstreamFieldTransfer_mgL, 12)
+      expect(m.downstreamWith_mgL).toBeCloseTo(m.downstreamBubbleModel_mgL, 12)
       expect(m.netGain_mgL).toBeCloseTo(m.downstreamWith_mgL - m.downstreamWithout_mgL, 12)
+      expect(m.downstreamWithoutRange_mgL.min_mgL).toBeLessThanOrEqual(m.downstreamWithout_mgL + 1e-12)
+      expect(m.downstreamWithoutRange_mgL.max_mgL).toBeGreaterThanOrEqual(m.downstreamWithout_mgL - 1e-12)
     }
+    expect(r.methods.weir.model).toBe('butts-evans')
   })
   it('says plainly when the scheme leaves less oxygen than the weir alone', () => {
     const f = r.summary.flags.find((x) => x.id === 'net-oxygen-loss')
@@ -155,16 +158,22 @@ describe('assess: flags', () => {
     const d = draft()
     d.site = { ...d.site, grossHead_m: 3.5 }
     d.option = { ...d.option, throatDepth_m: 5 }
-    // fine bubbles held long in a deep plume: the water nears saturation at depth
-    d.settings = { oxygenMethod: 'bubble-contact', bubbleDiameter_m: 0.0005, plumeTime_s: 30 }
+    // fine bubbles on a clean surface released 5 m down: the discharge carries gas above the air's pressure;
+    // with a 20 mmHg limit (stricter than 110 %) the flag is raised on ΔP alone
+    d.settings = { bubbleDiameter_m: 0.001, filmModel: 'higbie', plumeVelocity_ms: 0, tdgExcessLimit_mmHg: 20 }
     const r = assess(parse(d))
     const f = Object.fromEntries(r.summary.flags.map((x) => [x.id, x]))
     // s = η_d(1 − r²)H/K − d_t = 0.88·0.9375·3.5/0.215 − 5 = 8.43 m; margin ≈ 10.0 − 8.43 < 2.5 m
     expect(f.cavitation?.raised).toBe(true)
     expect(f.cavitation?.reason).toMatch(/cavitate/)
-    // Henry's law: saturation at mid-depth 2.5 m is about 1.24 atm-equivalent, so the discharge can pass 110 %
+    // Henry's law: gas taken up at 5 m (up to 1.48 atm-equivalent at equilibrium, REFERENCES §13) stays
+    // above the air's pressure at the surface: the excess pressure passes 20 mmHg while TDG stays under 110 %
+    expect(r.summary.maxUnitGasExcess_mmHg).toBeGreaterThan(20)
+    expect(r.summary.maxUnitTotalDissolvedGas).toBeLessThan(1.1)
     expect(f['gas-supersaturation']?.raised).toBe(true)
-    expect(r.summary.maxUnitTotalDissolvedGas).toBeGreaterThan(1.1)
+    expect(f['gas-supersaturation']?.reason).toMatch(/mmHg/)
+    const relaxed = assess(parse({ ...d, settings: { ...d.settings, tdgExcessLimit_mmHg: 76 } }))
+    expect(relaxed.summary.flags.find((x) => x.id === 'gas-supersaturation')?.raised).toBe(false)
     expectAllFinite(r)
   })
   it('a throat too deep for its head never draws air and says why', () => {

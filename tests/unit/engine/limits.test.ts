@@ -33,7 +33,7 @@ function record(): AssessInputDraft {
   d.hydrology = { kind: 'record', days: yearOfDays((m) => (m === 3 ? null : 1 + m / 2)) }
   d.reservedFlow = { kind: 'fixed', flow: 0.3 }
   d.site.months = d.site.months.map((m, i) => ({ ...m, flow_m3s: 1 + i }))
-  d.settings = { oxygenMethod: 'bubble-contact', discountRate: 0 }
+  d.settings = { oxygenMethod: 'field-transfer', discountRate: 0 }
   return d
 }
 

@@ -18,7 +18,7 @@ describe('AssessInputSchema', () => {
   it('every default carries a unit and an origin', () => {
     for (const [k, v] of Object.entries(DEFAULTS)) {
       expect(v.unit.length, k).toBeGreaterThan(0)
-      expect(v.source, k).toMatch(/ISO|ASCE|Butts|common practice|from memory|illustrative/)
+      expect(v.source, k).toMatch(/ISO|ASCE|Butts|common practice|from memory|illustrative|judgement|WAC|\b(19|20)\d{2}\b/)
     }
   })
   const bad = (mutate: (d: ReturnType<typeof draft>) => void): boolean => {

@@ -19,16 +19,11 @@ import { G } from '../../../shared/engine/constants'
 import { annualEnergyFromFdc } from '../../../shared/engine/energy'
 import { exceedanceGrid, fdcFromPoints, flowAtExceedance, sortFlows } from '../../../shared/engine/hydrology'
 import { rememberRecent } from '../../../shared/engine/memo'
-import {
-  bubbleContact, contactTime, downstreamFromDeficitRatio, fieldTransfer, mixStreams, totalDissolvedGas, unitNitrogen,
-  WATER_QUALITY_A, WEIR_SHAPE_B, weirDeficitRatio,
-} from '../../../shared/engine/oxygen'
-import { nitrogenSaturation, oxygenSaturation } from '../../../shared/engine/oxygenSaturation'
 import { buildScheme, flowState, powerSample, powerState, type Conditions, type OxygenState, type PowerState, type Scheme } from '../../../shared/engine/scheme'
 import { oxygenState } from '../../../shared/engine/schemeOxygen'
 import { NET_LOSS_TOLERANCE_mgL } from '../../../shared/engine/flags'
 import { operate, type Candidate, type ShutReason } from '../../../shared/engine/operation'
-import { circleArea, headAtFlow, headForUnitFlow, unitCapacity, unitHydraulics, type HeadPoint } from '../../../shared/engine/venturi'
+import { headAtFlow, headForUnitFlow, unitCapacity, unitHydraulics, type HeadPoint } from '../../../shared/engine/venturi'
 import { vapourPressure, waterDensity } from '../../../shared/engine/water'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
 import { draft } from './fixtures'
@@ -119,6 +114,7 @@ function directStateOf(s: Scheme, river: number, H: number, c: Conditions, split
     riverFlow_m3s: river, grossHead_m: H, regime: split.regime, shutReason: split.shutReason, unitsRunning: n,
     unitFlow_m3s: split.unitFlow_m3s, spill_m3s: split.spill_m3s, reserved_m3s: split.reserved_m3s,
     workingHead_m: n > 0 ? hyd.workingHead_m : 0, throatVelocity_ms: hyd.throatVelocity_ms, suction_m: n > 0 ? hyd.suction_m : 0,
+    operatingSuction_m: n > 0 ? p.pumpPressure_Pa / (waterDensity(c.tC) * G) : 0,
     cavitationMargin_m: n > 0 ? hyd.cavitationMargin_m : Math.max(0, (s.p_atm - vapourPressure(c.tC)) / (waterDensity(c.tC) * G)),
     cavitationIndex: n > 0 ? hyd.cavitationIndex : null,
     airFlow_m3s: n * p.airFlow_m3s, airMassFlowPerUnit_kgs: n > 0 ? p.airMassFlow_kgs : 0,
@@ -150,46 +146,9 @@ function directPowerState(s: Scheme, flow: number, c: Conditions): PowerState {
   return directStateOf(s, river, H, c, split)
 }
 
-/** The oxygen state in one go: weir, both transfer methods, mixing and total dissolved gas. */
+/** The oxygen state worked out afresh: a scheme built anew for each call has nothing remembered from an earlier state. */
 function directOxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
-  const st = s.input.settings
-  const site = s.input.site
-  const rho = waterDensity(c.tC)
-  const cs = oxygenSaturation(c.tC, s.p_atm, site.salinity_gkg)
-  const a = WATER_QUALITY_A[site.waterQuality].value
-  const b = WEIR_SHAPE_B[site.weirShape].value
-  const overWeir = (fall: number): number => downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(a, b, fall, c.tC))
-  const without = ps.riverFlow_m3s > 0 ? overWeir(ps.grossHead_m) : c.upstreamO2_mgL
-  const weirStream = overWeir(ps.grossHead_m)
-  const d = s.input.option.throatDepth_m
-  const field = fieldTransfer({
-    cIn_mgL: c.upstreamO2_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airMassFlow_kgs: ps.airMassFlowPerUnit_kgs,
-    submergence_m: d, sotePerMetre: st.sotePerMetre, alpha: st.alpha, beta: st.beta, theta: st.theta,
-    p_atm: s.p_atm, rho, salinity_gkg: site.salinity_gkg,
-  })
-  const bubble = bubbleContact({
-    cIn_mgL: c.upstreamO2_mgL, cStar_mgL: field.cStar_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s,
-    airFlow_m3s: ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0,
-    airMassFlow_kgs: ps.airMassFlowPerUnit_kgs, bubbleDiameter_m: st.bubbleDiameter_m, slipVelocity_ms: st.slipVelocity_ms,
-    diffusivity20: st.oxygenDiffusivity20,
-    contactTime_s: contactTime(s.diffuserLength_m, ps.unitFlow_m3s, circleArea(s.geometry.throatDiameter_m), circleArea(s.geometry.outletDiameter_m), st.plumeTime_s),
-  })
-  const unitsQ = ps.unitsRunning * ps.unitFlow_m3s
-  const weirQ = ps.reserved_m3s + ps.spill_m3s
-  const mix = (unitC: number): number => mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirStream }], c.upstreamO2_mgL)
-  const useBubble = st.oxygenMethod === 'bubble-contact'
-  const withScheme = useBubble ? mix(bubble.cOut_mgL) : mix(field.cOut_mgL)
-  const fraction = unitsQ > 0 ? (useBubble ? bubble.fractionApproached : field.fractionApproached) : 0
-  const n2 = unitNitrogen(c.tC, s.p_atm, rho, d, st.beta, site.salinity_gkg, st.upstreamNitrogenSaturation, fraction)
-  const n2Sat = nitrogenSaturation(c.tC, s.p_atm, site.salinity_gkg)
-  const unitO2 = useBubble ? bubble.cOut_mgL : field.cOut_mgL
-  return {
-    saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, weirStream_mgL: weirStream,
-    unitFieldTransfer_mgL: field.cOut_mgL, unitBubbleContact_mgL: bubble.cOut_mgL,
-    withSchemeFieldTransfer_mgL: mix(field.cOut_mgL), withSchemeBubbleContact_mgL: mix(bubble.cOut_mgL), withScheme_mgL: withScheme,
-    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0,
-    unitTdg: totalDissolvedGas(c.tC, s.p_atm, cs > 0 ? unitO2 / cs : 0, n2Sat > 0 ? n2.cOut_mgL / n2Sat : 0),
-  }
+  return oxygenState(buildScheme(s.input, s.reserved_m3s, { month: 0, tC: c.tC, upstreamO2_mgL: c.upstreamO2_mgL }), ps, c)
 }
 
 // ——— random inputs ———
@@ -215,7 +174,7 @@ const inputArb: fc.Arbitrary<AssessInput> = fc.record({
   cutIn: num(0, 0.5),
   pipeDiameter: num(0.05, 1),
   pipeLength: num(0, 50),
-  method: fc.constantFrom('field-transfer', 'bubble-contact'),
+  method: fc.constantFrom('field-transfer', 'bubble-model'),
   offset: num(-5, 5),
   quality: fc.constantFrom('clean', 'moderately-polluted'),
   weir: fc.constantFrom('sharp-crested-vertical-face', 'flat-broad-crested-regular-step'),

@@ -26,8 +26,8 @@ describe('sweep', () => {
     // the outlet keeps the area ratio of the option
     expect(p.outletDiameter_m / p.throatDiameter_m).toBeCloseTo(1.2 / 0.6, 12)
   })
-  it('picks the most energy among points with every safety flag clear', () => {
-    const clear = r.points.filter((p) => p.safe && p.annualEnergy_MWh > 0)
+  it('picks the most energy among points with every safety flag and the river caution clear', () => {
+    const clear = r.points.filter((p) => p.acceptable && p.annualEnergy_MWh > 0)
     expect(clear.length).toBeGreaterThan(0)
     expect(r.best).not.toBeNull()
     const max = Math.max(...clear.map((p) => p.annualEnergy_MWh))
@@ -36,12 +36,20 @@ describe('sweep', () => {
     expect(r.best?.raisedFlags).not.toContain('gas-supersaturation')
     expect(r.best?.raisedFlags).not.toContain('net-oxygen-loss')
   })
-  it('gives no best option when every point loses oxygen, and says so', () => {
-    // a sharp-crested weir with a 2 m fall aerates well; the units lose that aeration
-    const none = sweep(parse(draft()), grid)
+  it('gives no best option when every point costs the river too much oxygen, and says why', () => {
+    // a sharp-crested weir with a 2 m fall aerates well; shallow throats lose that aeration
+    const shallow = SweepGridSchema.parse({ throatDiameters_m: [0.4, 0.6, 0.8], units: [1, 2], throatDepths_m: [0.5, 1.5] })
+    const none = sweep(parse(draft()), shallow)
     expect(none.points.every((p) => p.raisedFlags.includes('net-oxygen-loss'))).toBe(true)
     expect(none.best).toBeNull()
-    expect(none.reason).toMatch(/None of the 18 options/)
+    expect(none.reason).toMatch(/None of the 12 options qualifies: 12 cost the river more oxygen than is acceptable/)
+  })
+  it('finds an acceptable best at the same weir where one exists (a deep throat: bubbles held longer under pressure)', () => {
+    const some = sweep(parse(draft()), grid)
+    expect(some.best).not.toBeNull()
+    expect(some.best?.acceptable).toBe(true)
+    expect(some.best?.throatDepth_m).toBe(4)
+    expect(some.reason).toMatch(/cost the river no more oxygen than is acceptable/)
   })
   it('the deepest throat never makes more energy than the shallowest', () => {
     // more submergence → less suction (Bernoulli), and less useful compression: energy falls
