@@ -131,6 +131,9 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow): Review
       reason: gas?.reason ?? 'The stored result has no gas-supersaturation check.',
       maxUnitTotalDissolvedGas: result.summary.maxUnitTotalDissolvedGas,
     },
-    flags: result.summary.flags.map((f) => ({ id: f.id, raised: f.raised, safety: f.safety, reason: f.reason })),
+    // A result stored by an older engine has no level or share of time: its safety flag says which it was.
+    flags: result.summary.flags.map((f) => ({
+      id: f.id, raised: f.raised, level: f.level ?? (f.safety ? 'safety' : 'note'), safety: f.safety, shareOfTime: f.shareOfTime ?? null, reason: f.reason,
+    })),
   }
 }
