@@ -55,7 +55,8 @@ export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headlin
   const worst = (s as Partial<AssessSummary>).worstNetOxygenGain_mgL
   if (isNumber(mean) && isNumber(worst)) {
     figures.push({
-      key: 'oxygen-year', label: 'Net oxygen change over the year', value: signedMgL(mean), unit: 'mg/L', warn: mean < 0,
+      // A worry only when it shows as a loss (a mean of −0.001 shows as 0.00).
+      key: 'oxygen-year', label: 'Net oxygen change over the year', value: signedMgL(mean), unit: 'mg/L', warn: signedMgL(mean).startsWith('−'),
       note: `mean over the year; worst ${signedMgL(worst)} mg/L at any flow`,
     })
   }
