@@ -1,7 +1,8 @@
 import type { Config } from 'tailwindcss'
 
 // Gillwatt's own palette: peaty neutrals, gill (river teal) for action, lichen for focus and
-// highlights, ember for safety flags. Names describe the river, not another program.
+// highlights, ember for safety flags, ochre (the iron stain of a tired stream) for river cautions.
+// Names describe the river, not another program.
 export default {
   content: [
     './components/**/*.{vue,ts}',
@@ -30,6 +31,9 @@ export default {
         },
         ember: {
           50: '#fdf3ef', 100: '#fbe2d8', 300: '#f0a283', 500: '#d9613a', 600: '#bb4a26', 700: '#953a1f',
+        },
+        ochre: {
+          50: '#fdf8ec', 100: '#faeecd', 300: '#ebc463', 500: '#c78d1f', 700: '#805713', 800: '#5f4112',
         },
       },
       spacing: { 'gutter': '1.25rem', 'panel': '1.75rem' },

@@ -1,6 +1,10 @@
-// How a stored assessment is shown: its headline figures, flag titles and method names.
-import { MONTH_SHORT } from '~~/shared/utils/months'
-import type { AssessResult, AssessSummary, FlagId } from '~~/shared/engine/results'
+// How a stored assessment is shown: its headline figures, flag titles, levels and facts, the words
+// for regimes, shut reasons and month bases, and the operating modes' names. Results stored by an
+// older engine may lack the newer fields (a flag's level, share and worst value; a row's shut reason),
+// so every helper here takes them as possibly missing.
+import { MONTH_NAMES, MONTH_SHORT } from '~~/shared/utils/months'
+import type { OperatingMode, Regime, ShutReason } from '~~/shared/engine/operation'
+import type { AssessSummary, Flag, FlagId, FlagLevel, MonthRow } from '~~/shared/engine/results'
 import { formatNumber } from './format'
 
 /** One headline figure. */
@@ -16,10 +20,25 @@ export interface Headline {
   warn?: boolean
 }
 
-/** The six headline figures of a summary, each with its unit. */
+/** A net oxygen change with its sign ("+0.12", "−0.30", "0.00"), or a dash when missing. */
+export function signedMgL(x: number, digits = 2): string {
+  if (!Number.isFinite(x)) return '–'
+  const text = formatNumber(Math.abs(x), digits)
+  if (Number(text.replace(/,/g, '')) === 0) return formatNumber(0, digits)
+  return `${x > 0 ? '+' : '−'}${text}`
+}
+
+/** A share (0–1) as a whole percentage, "under 1" for a small share that is not none. */
+export function percentText(share: number): string {
+  return share > 0 && share < 0.005 ? 'under 1' : formatNumber(share * 100, 0)
+}
+
+const isNumber = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x)
+
+/** The headline figures of a summary, each with its unit (the year's oxygen and the diffuser's recovery only when the run has them). */
 export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headline[] {
   const margin = s.minCavitationMargin_m
-  return [
+  const figures: Headline[] = [
     { key: 'energy', label: 'Annual energy', value: formatNumber(s.annualEnergy_MWh, 1), unit: 'MWh/yr', warn: !(s.annualEnergy_MWh > 0) },
     { key: 'cf', label: 'Capacity factor', value: formatNumber(s.capacityFactor * 100, 1), unit: '%', note: `${formatNumber(s.annualFullLoad_h, 0)} full-load h/yr` },
     { key: 'rated', label: 'Rated power', value: formatNumber(s.ratedPower_kW, 1), unit: 'kW', note: s.ratingSizedToDesign ? 'sized to the design point' : 'as entered' },
@@ -28,13 +47,28 @@ export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headlin
       warn: margin !== null && minMargin_m !== undefined && margin < minMargin_m, note: minMargin_m !== undefined ? `keep at least ${formatNumber(minMargin_m, 1)} m` : undefined,
     },
     {
-      key: 'oxygen', label: 'Net oxygen gain, summer low flow', value: `${s.netOxygenGainSummerLowFlow_mgL > 0 ? '+' : ''}${formatNumber(s.netOxygenGainSummerLowFlow_mgL, 2)}`, unit: 'mg/L',
+      key: 'oxygen', label: 'Net oxygen gain, summer low flow', value: signedMgL(s.netOxygenGainSummerLowFlow_mgL), unit: 'mg/L',
       warn: s.netOxygenGainSummerLowFlow_mgL < 0, note: s.netOxygenGainSummerLowFlow_mgL < 0 ? 'a loss: the river is worse off with the scheme' : `${MONTH_SHORT[s.summerLowFlow.month - 1] ?? ''} at ${formatNumber(s.summerLowFlow.flow_m3s, 2)} m³/s`,
     },
-    { key: 'lcoe', label: 'LCOE', value: s.lcoe === null ? 'no energy' : formatNumber(s.lcoe, 0), unit: s.lcoe === null ? '' : 'currency/MWh' },
   ]
+  const mean = (s as Partial<AssessSummary>).meanNetOxygenGain_mgL
+  const worst = (s as Partial<AssessSummary>).worstNetOxygenGain_mgL
+  if (isNumber(mean) && isNumber(worst)) {
+    figures.push({
+      // A worry only when it shows as a loss (a mean of −0.001 shows as 0.00).
+      key: 'oxygen-year', label: 'Net oxygen change over the year', value: signedMgL(mean), unit: 'mg/L', warn: signedMgL(mean).startsWith('−'),
+      note: `mean over the year; worst ${signedMgL(worst)} mg/L at any flow`,
+    })
+  }
+  const recovered = (s as Partial<AssessSummary>).recoveredFraction
+  if (isNumber(recovered)) {
+    figures.push({ key: 'recovery', label: 'Diffuser recovery', value: formatNumber(recovered * 100, 0), unit: '%', note: 'pressure recovered by the diffuser' })
+  }
+  figures.push({ key: 'lcoe', label: 'LCOE', value: s.lcoe === null ? 'no energy' : formatNumber(s.lcoe, 0), unit: s.lcoe === null ? '' : 'currency/MWh' })
+  return figures
 }
 
+// ——— flags ———
 
 /** Plain titles of the flags. */
 export const FLAG_TITLES: Record<FlagId, string> = {
@@ -46,10 +80,119 @@ export const FLAG_TITLES: Record<FlagId, string> = {
   'never-runs': 'Units never run',
 }
 
+/** Titles of flags only older engines raised. */
+const OLDER_FLAG_TITLES: Record<string, string> = { 'head-limited-never-runs': 'Units never run' }
+
+/** The plain title of a flag, also of one an older engine named. */
+export function flagTitle(id: string): string {
+  return FLAG_TITLES[id as FlagId] ?? OLDER_FLAG_TITLES[id] ?? id
+}
+
+/** How each level of flag is named on screen (beside its colour, never instead of it). */
+export const FLAG_LEVEL_LABELS: Record<FlagLevel, string> = { safety: 'Safety', river: 'River caution', note: 'Note' }
+
+const LEVEL_ORDER: Record<FlagLevel, number> = { safety: 0, river: 1, note: 2 }
+
+/** A flag as an older engine may have stored it: without a level, share of time or worst value. */
+export type StoredFlag = Pick<Flag, 'id' | 'raised' | 'safety' | 'reason'> & Partial<Pick<Flag, 'level' | 'shareOfTime' | 'worst'>>
+
+/** A flag's level; a flag stored without one is a safety flag when it says so, else a note. */
+export function flagLevel(f: Pick<StoredFlag, 'safety' | 'level'>): FlagLevel {
+  return f.level ?? (f.safety ? 'safety' : 'note')
+}
+
+/** The result's flags: raised first, then safety, river cautions and notes, each in the engine's order. */
+export function orderedFlags(result: { summary: { flags: StoredFlag[] } }): StoredFlag[] {
+  return [...result.summary.flags].sort((a, b) => Number(b.raised) - Number(a.raised) || LEVEL_ORDER[flagLevel(a)] - LEVEL_ORDER[flagLevel(b)])
+}
+
+/**
+ * A flag's share of the year and worst value in a few words ("raised 12 % of the year · worst −0.31
+ * mg/L in Aug at 0.62 m³/s"); empty when the run stored neither.
+ */
+export function flagFacts(f: StoredFlag): string {
+  const parts: string[] = []
+  if (f.raised && isNumber(f.shareOfTime)) parts.push(`raised ${percentText(f.shareOfTime)} % of the year`)
+  const w = f.worst
+  if (w && isNumber(w.value)) {
+    const value = w.unit === 'mg/L' && f.id === 'net-oxygen-loss' ? signedMgL(w.value) : formatNumber(w.value, w.unit === '%' ? 0 : 2)
+    parts.push(`worst ${value} ${w.unit} in ${w.monthName} at ${formatNumber(w.flow_m3s, 2)} m³/s`)
+  }
+  return parts.join(' · ')
+}
+
 /** Plain names of the oxygen methods. */
 export const METHOD_NAMES = { 'bubble-model': 'Bubble model', 'field-transfer': 'Field transfer (cross-check)' } as const
 
-/** The result's flags, raised first, safety before the rest. */
-export function orderedFlags(result: Pick<AssessResult, 'summary'>) {
-  return [...result.summary.flags].sort((a, b) => Number(b.raised) - Number(a.raised) || Number(b.safety) - Number(a.safety))
+// ——— the operating rule ———
+
+/** Plain names of the operating modes. */
+export const MODE_NAMES: Record<OperatingMode, string> = { 'energy-first': 'Energy first', 'river-first': 'River first' }
+
+/** How the units share the flow at one river flow, in plain words. */
+export const REGIME_WORDS: Record<Regime, string> = {
+  'stopped': 'stopped',
+  'spilling': 'units full, the rest spills',
+  'taking-all': 'units take all they may, pool held',
+}
+
+/** Regimes only older engines stored. */
+const OLDER_REGIME_WORDS: Record<string, string> = { 'head-limited': 'units full, the rest spills', 'flow-limited': 'units take all the flow' }
+
+/** A per-flow row's regime in plain words, also one an older engine stored. */
+export function regimeText(regime: string): string {
+  return REGIME_WORDS[regime as Regime] ?? OLDER_REGIME_WORDS[regime] ?? regime
+}
+
+/** Why units stay shut at a flow, in plain words. */
+export const SHUT_REASON_WORDS: Record<ShutReason, string> = {
+  'too-little-flow': 'not enough water to feed a unit at the pool level',
+  'no-suction': 'would draw no air',
+  'below-cut-in': 'below turbine cut-in',
+  'closed-month': 'closed month',
+  'river-first': 'shut for the river',
+  'no-head': 'no head',
+}
+
+/** A shut reason in plain words; '–' when every unit the water can feed runs (or the run did not say). */
+export function shutReasonText(reason: ShutReason | null | undefined): string {
+  return reason ? (SHUT_REASON_WORDS[reason] ?? reason) : '–'
+}
+
+/** Months (1–12) by name, in calendar order ("June, July and August"); "none" for none. */
+export function monthsNamed(months: readonly number[]): string {
+  const names = [...new Set(months)].sort((a, b) => a - b).map((m) => MONTH_NAMES[m - 1] ?? String(m))
+  if (!names.length) return 'none'
+  return names.length === 1 ? names[0]! : `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`
+}
+
+// ——— the month table's bases ———
+
+/** Where a month's flow comes from: a short tag for a cell, and a sentence for under the table. */
+export const FLOW_BASIS_WORDS: Record<MonthRow['flowBasis'], { tag: string; sentence: string }> = {
+  'record-mean': { tag: 'record mean', sentence: "the mean of the record's days in that month" },
+  'profile-median': { tag: 'profile median', sentence: "the median of the annual curve scaled by that month's entered flow (the seasonal profile)" },
+  'annual-q50': { tag: 'annual median', sentence: 'the annual median flow (Q50), as there is no seasonal profile' },
+}
+
+/** Where a month's energy comes from: a short tag and a sentence. */
+export const ENERGY_BASIS_WORDS: Record<MonthRow['energyBasis'], { tag: string; sentence: string }> = {
+  'record': { tag: 'record', sentence: "the record's days in that month" },
+  'month-curve': { tag: 'month curve', sentence: "the annual curve scaled by that month's entered flow" },
+  'annual-curve': { tag: 'annual curve', sentence: "the annual curve at that month's temperature and oxygen" },
+}
+
+/** A basis in words (a stored value an older engine wrote is shown as stored). */
+export function basisWords<K extends string>(table: Record<K, { tag: string; sentence: string }>, basis: string): { tag: string; sentence: string } {
+  return table[basis as K] ?? { tag: basis, sentence: basis }
+}
+
+/** The distinct values of a month-row field, in order of first appearance. */
+export function distinctOf<K extends 'flowBasis' | 'energyBasis'>(rows: readonly Pick<MonthRow, K>[], key: K): MonthRow[K][] {
+  return [...new Set(rows.map((r) => r[key]))]
+}
+
+/** True when a curve site's months all read the annual curve (no seasonal profile to shape them). */
+export function needsSeasonalProfile(rows: readonly Partial<Pick<MonthRow, 'curveBasis'>>[], hydrologyBasis: 'fdc' | 'record'): boolean {
+  return hydrologyBasis === 'fdc' && rows.some((r) => r.curveBasis === 'annual-curve')
 }

@@ -46,6 +46,8 @@ export interface OptionField {
   choices?: readonly FieldChoice[]
   /** A short line under the field. */
   hint?: string
+  /** A caution beside the field, in plain words, where the choice has a cost or needs someone else's word. */
+  caution?: string
   /** Shown under "more settings" (closed at first). */
   advanced?: boolean
 }
@@ -89,9 +91,12 @@ export const OPTION_FIELDS: readonly OptionField[] = [
     path: 'design.operation.mode', label: 'Operating mode', unit: '–', group: 'operation', kind: 'select',
     choices: [{ value: 'energy-first', label: 'Energy first: every unit that can run does' }, { value: 'river-first', label: 'River first: never at the river\'s oxygen cost' }],
     hint: 'river first shuts a unit wherever running it would cost the river more oxygen than the acceptable loss, or lower it while the river is below its target',
+    caution: 'River first may cost energy: a unit kept shut for the river makes nothing meanwhile. The results show both modes side by side, with the energy given up.',
   },
   { path: 'design.operation.allowedDrawdown_m', label: 'Allowed head-pool drawdown', unit: 'm', group: 'operation', kind: 'number', defaultOf: fixed(DEFAULTS.allowedDrawdown), hint: 'how far below its ordinary level the head pool may fall while units run' },
-  { path: 'design.operation.closedMonths', label: 'Closed months', unit: '–', group: 'operation', kind: 'months', blankMeans: 'no closed month', hint: 'every unit stays shut in these months' },
+  { path: 'design.operation.closedMonths', label: 'Closed months', unit: '–', group: 'operation', kind: 'months', blankMeans: 'no closed month', hint: 'every unit stays shut in these months',
+    caution: 'Closed months are usually a condition of a consent (fish migration, low summer oxygen): take them from the regulator, not from this screening.',
+  },
   { path: 'design.costs.fixedCost', label: 'Fixed cost', unit: 'currency', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.fixedCost), hint: 'connection, design, consents' },
   { path: 'design.costs.ratedPowerPrice', label: 'Cost per kW of rating', unit: 'currency/kW', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.ratedPowerPrice) },
   { path: 'design.costs.civilsPerUnit', label: 'Civil works per unit', unit: 'currency/unit', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.civilsPerUnit) },

@@ -1,4 +1,4 @@
-// The design sweep's ranges and grid, the best safe point, and the messages of its Web Worker.
+// The design sweep's ranges and grid, and the messages of its Web Worker (the best acceptable point is the engine's bestPoint).
 import type { SweepPoint } from '~~/shared/engine/sweep'
 import type { AssessInput, SweepGrid } from '~~/shared/schemas/assess'
 

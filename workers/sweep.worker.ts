@@ -1,5 +1,5 @@
 // Web Worker of the sweep page: runs the engine's sweep one grid point at a time so the page can show
-// progress per point. Pure shared/engine code; the page picks the best safe point from the points.
+// progress per point. Pure shared/engine code; the page picks the best acceptable point from the points.
 import { sweep } from '../shared/engine/sweep'
 import type { SweepWorkerMessage, SweepWorkerRequest } from '../utils/sweep'
 

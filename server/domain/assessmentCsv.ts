@@ -10,6 +10,7 @@ const PER_FLOW: Column<PerFlowRow>[] = [
   ['River flow (m³/s)', (r) => r.riverFlow_m3s],
   ['Regime (-)', (r) => r.regime],
   ['Units running (-)', (r) => r.unitsRunning],
+  ['Shut reason (-)', (r) => r.shutReason ?? null],
   ['Flow per unit (m³/s)', (r) => r.unitFlow_m3s],
   ['Spill (m³/s)', (r) => r.spill_m3s],
   ['Reserved flow (m³/s)', (r) => r.reservedFlow_m3s],
@@ -33,13 +34,18 @@ const MONTHS: Column<MonthRow>[] = [
   ['Water temperature (°C)', (r) => r.temperature_C],
   ['Flow (m³/s)', (r) => r.flow_m3s],
   ['Flow basis (-)', (r) => r.flowBasis],
+  ['Curve basis (-)', (r) => r.curveBasis ?? null],
+  ['Closed month (-)', (r) => (r.closed === undefined ? null : r.closed ? 'closed' : 'open')],
   ['Upstream oxygen (mg/L)', (r) => r.upstreamOxygen_mgL],
   ['Downstream oxygen without scheme (mg/L)', (r) => r.downstreamWithout_mgL],
   ['Downstream oxygen with scheme (mg/L)', (r) => r.downstreamWith_mgL],
   ['Downstream oxygen, field-transfer method (mg/L)', (r) => r.downstreamFieldTransfer_mgL],
   ['Downstream oxygen, bubble model (mg/L)', (r) => r.downstreamBubbleModel_mgL],
   ['Net oxygen gain (mg/L)', (r) => r.netGain_mgL],
+  ['Worst net oxygen change in the month (mg/L)', (r) => r.worstNetGain_mgL ?? null],
   ['Oxygen target (mg/L)', (r) => r.target_mgL],
+  ['Share of the month units run (fraction)', (r) => r.runningShare ?? null],
+  ['Share of the month with an oxygen loss beyond the acceptable one (fraction)', (r) => r.lossShare ?? null],
   ['Unit total dissolved gas (fraction of saturation)', (r) => r.unitTotalDissolvedGas],
   ['Cavitation margin (m)', (r) => r.cavitationMargin_m],
   ['Flags raised (-)', (r) => r.flags.join(' ')],
@@ -47,10 +53,11 @@ const MONTHS: Column<MonthRow>[] = [
   ['Energy basis (-)', (r) => r.energyBasis],
 ]
 
-/** The summary as figure / value / unit rows. */
+/** The summary as figure / value / unit rows (a run stored by an older engine leaves the newer figures blank). */
 function summaryRows(result: AssessResult): (string | number | null)[][] {
   const s = result.summary
   const m = result.money
+  const op = result.operation as AssessResult['operation'] | undefined
   return [
     ['Annual energy', s.annualEnergy_MWh, 'MWh/yr'],
     ['Capacity factor', s.capacityFactor, '-'],
@@ -63,6 +70,14 @@ function summaryRows(result: AssessResult): (string | number | null)[][] {
     ['Largest unit total dissolved gas', s.maxUnitTotalDissolvedGas, 'fraction of saturation'],
     ['Net oxygen gain at summer low flow', s.netOxygenGainSummerLowFlow_mgL, 'mg/L'],
     ['Summer low flow', s.summerLowFlow.flow_m3s, 'm³/s'],
+    ['Mean net oxygen change over the year', s.meanNetOxygenGain_mgL ?? null, 'mg/L'],
+    ['Worst net oxygen change at any flow', s.worstNetOxygenGain_mgL ?? null, 'mg/L'],
+    ['Pressure recovered by the diffuser', s.recoveredFraction ?? null, 'fraction'],
+    ['Operating mode', op?.mode ?? null, '-'],
+    ['Allowed head-pool drawdown', op?.allowedDrawdown_m ?? null, 'm'],
+    ['Closed months', op ? op.closedMonths.join(' ') : null, 'month numbers'],
+    ['Share of the year units run', op?.runningShare ?? null, 'fraction'],
+    ['Energy given up for the river', op && op.modesCompared ? op.energyGivenUpForRiver_MWh : null, 'MWh/yr'],
     ['Capital cost', m.capex, 'currency'],
     ['Operating cost', m.annualOpex, 'currency/yr'],
     ['Levelised cost of energy', s.lcoe, 'currency/MWh'],

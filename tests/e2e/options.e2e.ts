@@ -5,9 +5,9 @@
 //   PORT=3200 NODE_ENV=production NUXT_SESSION_PASSWORD=… DATABASE_PATH=/tmp/ui.sqlite node <copy of .output>/server/index.mjs
 //   GW_BASE_URL=http://localhost:3200 node --import tsx tests/e2e/options.e2e.ts
 // At Hollin Mill weir (the demo site with a twelve-year daily record) the engineer makes a new option,
-// watches the live preview follow the fields, saves and assesses it, reads the charts, flags and CSV
-// of the stored run, sweeps the design in a Web Worker, saves a picked cell as an option and compares
-// the two. Drives Debian's chromium through playwright-core, saves screenshots to
+// watches the live preview follow the fields, closes July with the keyboard, saves and assesses it,
+// reads the charts, flags, operating rule, closed month and CSV of the stored run, sweeps the design
+// in a Web Worker, saves a picked cell as an option and compares the two. Drives Debian's chromium through playwright-core, saves screenshots to
 // tests/e2e/screenshots/ and exits non-zero on the first failed check or on any console error, page
 // error or failed request.
 import assert from 'node:assert/strict'
@@ -105,11 +105,34 @@ async function engineerJourney(browser: Browser) {
   await page.fill('#opt-design-air-pipeDiameter_m', '0.2')
   const energyLongPipe = await previewMoves(page, 'energy', energyWide)
   assert.ok(numberOf(energyLongPipe) < numberOf(energyWide), `a long thin air pipe costs energy: ${energyWide} → ${energyLongPipe}`)
+  // How the units are run: the mode and the closed months each carry a caution; July is closed with
+  // the keyboard (Tab to its checkbox, Space), as a consent might ask, and the preview follows.
+  const closedField = page.locator('[data-testid="field-design.operation.closedMonths"]')
+  assert.match(await closedField.locator('legend').innerText(), /^Closed months$/)
+  assert.match(await closedField.locator('[role=note]').innerText(), /^Caution: Closed months are usually a condition of a consent[\s\S]*regulator/)
+  assert.match(await page.locator('[data-testid="field-design.operation.mode"] [role=note]').innerText(), /^Caution: River first may cost energy/)
+  assert.equal(await closedField.locator('input[type=checkbox]').count(), 12, 'a checkbox for each month')
+  assert.equal(await closedField.locator('input:checked').count(), 0, 'no month is closed at first')
+  await page.focus('#opt-design-operation-closedMonths-6')
+  await page.keyboard.press('Tab')
+  assert.equal(await page.evaluate(() => document.activeElement?.id), 'opt-design-operation-closedMonths-7', 'Tab moves from June to July')
+  await page.keyboard.press('Space')
+  assert.ok(await page.isChecked('#opt-design-operation-closedMonths-7'), 'Space ticks July')
+  await page.waitForFunction(() => document.querySelector('[data-testid=preview-status]')?.textContent?.trim() === 'Updating…')
+  const energyClosed = await previewFigure(page, 'energy')
+  assert.ok(numberOf(energyClosed) <= numberOf(energyLongPipe), `closing July makes no more energy: ${energyLongPipe} → ${energyClosed}`)
+  assert.deepEqual(await closedField.locator('input:checked').evaluateAll((bs) => bs.map((b) => b.id)), ['opt-design-operation-closedMonths-7'])
   await shot(page, 'o03-editor-preview')
   await page.click('[data-testid=option-save]')
   await page.waitForSelector('[data-testid=option-saved]')
-  const stored = await page.evaluate(async (id) => (await (await fetch(`/api/options/${id}`)).json()) as { design: { air: { pipeLength_m: number; pipeDiameter_m: number } } }, optionId)
+  const stored = await page.evaluate(async (id) => (await (await fetch(`/api/options/${id}`)).json()) as { design: { air: { pipeLength_m: number; pipeDiameter_m: number }; operation: { closedMonths: number[] } } }, optionId)
   assert.deepEqual([stored.design.air.pipeLength_m, stored.design.air.pipeDiameter_m], [60, 0.2])
+  assert.deepEqual(stored.design.operation.closedMonths, [7], 'July is stored as a closed month')
+  // Loaded afresh (the server renders the form, the browser fills it), July alone shows closed.
+  await page.goto(page.url())
+  await page.waitForSelector('[data-testid=preview-figures]')
+  assert.ok(await page.isChecked('#opt-design-operation-closedMonths-7') && !(await page.isChecked('#opt-design-operation-closedMonths-8')), 'the stored option shows July alone closed')
+  assert.equal(await page.evaluate(() => getComputedStyle(document.querySelector('label[for=opt-design-operation-closedMonths-7]')!).color), 'rgb(255, 255, 255)', 'the ticked month looks ticked')
   assert.equal(await page.innerText('[data-testid=save-assessment]'), 'Save assessment')
   await page.click('[data-testid=save-assessment]')
   await page.waitForURL(/\/assessments\/\d+$/)
@@ -119,7 +142,9 @@ async function engineerJourney(browser: Browser) {
   await page.waitForSelector('[data-testid=headline-cards]')
   assert.match(await page.innerText('[data-testid=assessment-title]'), new RegExp(`Assessment ${assessmentId} · ${NEW_OPTION}`))
   const cardEnergy = (await page.innerText('[data-testid=card-energy] dd >> nth=0')).trim()
-  assert.equal(cardEnergy, energyLongPipe, 'the server computes what the browser previewed')
+  assert.equal(cardEnergy, energyClosed, 'the server computes what the browser previewed')
+  assert.match(await page.innerText('[data-testid=card-oxygen-year]'), /Net oxygen change over the year[\s\S]*[+−]?\d\.\d\d mg\/L[\s\S]*worst [+−]?\d\.\d\d mg\/L at any flow/i)
+  assert.match(await page.innerText('[data-testid=card-recovery]'), /\d+ %[\s\S]*pressure recovered by the diffuser/)
   for (const chart of ['chart-fdc', 'chart-power-air', 'chart-suction', 'chart-energy-months', 'chart-oxygen-months', 'chart-tornado-energy']) {
     const painted = await waitForChart(page, `[data-testid=${chart}]`)
     assert.ok(painted > 500, `${chart} is drawn (${painted} painted pixels)`)
@@ -129,11 +154,43 @@ async function engineerJourney(browser: Browser) {
 
   // 5. Flags, each in words, raised or clear; then the cautions every screening carries.
   const flags = page.locator('[data-testid=assessment-flags] li[data-testid^=flag-]')
-  assert.equal(await flags.count(), 5, 'every flag is listed, raised or clear')
-  for (const text of await flags.allInnerTexts()) assert.match(text, /^(Raised · safety|Raised|Clear)\s+\S[\s\S]*\n\S/, 'each flag says its state and its reason')
+  assert.equal(await flags.count(), 6, 'every flag is listed, raised or clear')
+  for (const text of await flags.allInnerTexts()) assert.match(text, /^(Safety|River caution|Note|Clear)\s+\S[\s\S]*\n\S/, 'each flag says its level or that it is clear, and its reason')
+  const states = await flags.evaluateAll((ls) => ls.map((l) => ({ raised: l.getAttribute('data-raised') === 'true', level: l.getAttribute('data-level') ?? '', facts: l.querySelector('[data-testid=flag-facts]')?.textContent ?? '' })))
+  const rank = (f: { raised: boolean; level: string }) => (f.raised ? 0 : 3) + ['safety', 'river', 'note'].indexOf(f.level)
+  assert.deepEqual(states.map(rank), [...states.map(rank)].sort((a, b) => a - b), 'raised flags first, then safety, river cautions and notes')
+  const loss = states[await flags.evaluateAll((ls) => ls.findIndex((l) => l.getAttribute('data-testid') === 'flag-net-oxygen-loss'))]!
+  assert.equal(loss.level, 'river', 'the oxygen cost to the river is a river caution')
+  assert.ok(loss.raised, 'a long thin air pipe in the leat costs the river some oxygen')
+  assert.match(loss.facts, /^raised (under )?\d+ % of the year · worst −\d\.\d\d mg\/L in [A-Z][a-z]{2} at [\d.]+ m³\/s$/, 'the raised flag gives its share of the year, its worst value and when')
+  assert.ok(states.every((f) => f.raised || f.facts === ''), 'a clear flag says it in its reason alone')
+
+  // The operating rule: energy first, July closed, both modes side by side.
+  const operation = page.locator('[data-testid=assessment-operation]')
+  const opText = await operation.innerText()
+  assert.match(opText, /Mode in use\s+Energy first/)
+  assert.match(opText, /Closed months\s+July/)
+  assert.match(opText, /Units run\s+(under )?\d+ % of the year/)
+  assert.deepEqual((await operation.locator('thead th').allInnerTexts()).map((t) => t.trim()), ['Figure', 'Energy first in use', 'River first'])
+  assert.equal(await operation.locator('tbody tr').count(), 4, 'energy, worst month, worst at any flow and mean net O₂ change')
+  const energyFirstCell = (await operation.locator('tbody tr >> nth=0').locator('td >> nth=0').innerText()).trim()
+  assert.equal(energyFirstCell, cardEnergy.replace(/ MWh\/yr$/, ''), 'the mode in use gives the headline energy')
+  assert.match(await page.innerText('[data-testid=energy-given-up]'), /^Energy given up for the river: [\d,]+\.\d MWh\/yr/)
+  assert.match(await page.innerText('[data-testid=operation-basis]'), /^Judged at \d+ flows in each month/)
   const cautions = await page.innerText('[data-testid=assessment-cautions]')
   for (const c of CAUTIONS) assert.ok(cautions.includes(c.title) && cautions.includes(c.text), `the caution "${c.title}" is shown`)
   assert.equal(await page.locator('[data-testid=month-table] tbody tr').count(), 12)
+  // July is closed: marked in words, no unit runs, no energy.
+  assert.equal(await page.locator('[data-testid=month-table] tbody tr[data-closed=true]').count(), 1)
+  const july = (await page.locator('[data-testid=month-row-7] td').allInnerTexts()).map((t) => t.trim())
+  assert.match(july[0]!, /^Jul\s+closed$/)
+  assert.equal(july[9], '0', 'no unit runs in a closed month')
+  assert.equal(july[13], '0.0', 'a closed month makes no energy')
+  assert.match(await page.innerText('[data-testid=month-bases]'), /Each month's flow is the mean of the record's days in that month\.[\s\S]*Each month's energy comes from the record's days in that month\./)
+  assert.equal(await page.locator('[data-testid=month-profile-note]').count(), 0, 'a site with a record needs no seasonal profile')
+  const shut = await page.locator('[data-testid=perflow-table] [data-testid=shut-reason]').allInnerTexts()
+  assert.equal(shut.length, 13, 'a reason (or a dash) at each flow of the table')
+  assert.ok(shut.every((t) => ['–', 'not enough water to feed a unit at the pool level', 'would draw no air', 'below turbine cut-in', 'shut for the river', 'no head', 'closed month'].includes(t.trim())), `shut reasons in words: ${shut.join(' | ')}`)
   await shot(page, 'o04-results')
 
   // 6. CSV: the server's response is text/csv with units in the header; the browser downloads it.
@@ -146,7 +203,9 @@ async function engineerJourney(browser: Browser) {
   const months = (await res.text()).split('\r\n')
   assert.equal(months.length, 13, 'a header and twelve months')
   assert.match(months[0]!, /^Month \(-\),Water temperature \(°C\),Flow \(m³\/s\),/)
+  assert.ok(months[0]!.includes('Closed month (-)') && months[0]!.includes('Share of the month units run (fraction)'))
   assert.match(months[1]!, /^Jan,/)
+  assert.match(months[7]!, /^Jul,[^\r\n]*,closed,/)
   assert.match(months[12]!, /^Dec,/)
   const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid=csv-summary]')])
   assert.equal(download.suggestedFilename(), `gillwatt-assessment-${assessmentId}-Wide-throat-in-the-leat-summary.csv`)
@@ -157,7 +216,8 @@ async function engineerJourney(browser: Browser) {
   const energyRow = summary.find((l) => l.startsWith('Annual energy,')) ?? ''
   assert.ok(energyRow.endsWith(',MWh/yr'), 'the summary CSV gives the energy with its unit')
   assert.equal(Number(energyRow.split(',')[1]).toFixed(1), numberOf(cardEnergy).toFixed(1), 'the CSV holds the figure on the card')
-  assert.equal(summary.filter((l) => l.startsWith('Flag: ')).length, 5)
+  assert.equal(summary.filter((l) => l.startsWith('Flag: ')).length, 6)
+  assert.ok(summary.includes('Closed months,7,month numbers'), 'the summary CSV names the closed month')
 
   // 7. The sweep of the option runs in a Web Worker (no server sweep), then draws the heatmap.
   await page.goto(`${BASE}/sites/${siteId}/options/${optionId}`)
@@ -192,21 +252,28 @@ async function engineerJourney(browser: Browser) {
   const cells = page.locator('[data-testid=sweep-heatmap] button[data-safe]')
   assert.equal(await cells.count(), 45, 'one heatmap cell a point')
   assert.equal(await page.locator('[data-testid=sweep-heatmap] caption').count(), 3, 'one table per number of units')
-  const points = (await cells.evaluateAll((bs) => bs.map((b) => ({ label: b.getAttribute('aria-label') ?? '', safe: b.getAttribute('data-safe') === 'true', text: b.textContent ?? '' })))).map((c) => ({
+  const points = (await cells.evaluateAll((bs) => bs.map((b) => ({
+    label: b.getAttribute('aria-label') ?? '', safe: b.getAttribute('data-safe') === 'true', acceptable: b.getAttribute('data-acceptable') === 'true', text: b.textContent ?? '',
+  })))).map((c) => ({
     ...c,
     energy: Number(/: ([\d,]+\.\d) MWh\/yr/.exec(c.label)?.[1]?.replace(/,/g, '')),
   }))
   assert.ok(points.every((c) => Number.isFinite(c.energy) && /\d/.test(c.text)), 'every cell shows its energy')
   assert.ok(points.every((c) => c.safe === !c.text.includes('unsafe:')), 'unsafe cells say so in words, not colour alone')
-  const safe = points.filter((c) => c.safe && c.energy > 0)
-  assert.ok(safe.length >= 1, 'the grid reaches a safe design')
-  assert.match(await page.innerText('[data-testid=sweep-summary]'), new RegExp(`^45 points; ${safe.length} make energy with every safety flag clear\\.`))
-  // The best safe point is starred, is the most energy among the safe cells, and has its panel.
-  const starred = points.filter((c) => c.label.endsWith(', best safe point'))
-  assert.equal(starred.length, 1, 'one cell is the best safe point')
-  assert.equal(starred[0]!.energy, Math.max(...safe.map((c) => c.energy)))
+  assert.ok(points.every((c) => (c.safe && !c.acceptable) === c.text.includes('river cost')), 'safe cells that cost the river too much oxygen say so in words')
+  assert.ok(points.every((c) => c.label.includes(!c.safe ? ', unsafe (' : !c.acceptable ? ', safe but a river cost' : ', acceptable')), 'each cell\'s label says which it is')
+  const acceptable = points.filter((c) => c.acceptable && c.energy > 0)
+  assert.ok(acceptable.length >= 1, 'the grid reaches an acceptable design')
+  assert.match(await page.innerText('[data-testid=sweep-summary]'), new RegExp(`^Of 45 options, ${acceptable.length} make energy with every safety flag clear and cost the river no more oxygen than is acceptable;`))
+  // The best acceptable point is starred, is the most energy among the acceptable cells, and has its panel.
+  const starred = points.filter((c) => c.label.endsWith(', best acceptable point'))
+  assert.equal(starred.length, 1, 'one cell is the best acceptable point')
+  assert.equal(starred[0]!.energy, Math.max(...acceptable.map((c) => c.energy)))
   assert.ok(starred[0]!.text.startsWith('★'))
-  await page.waitForSelector('section[aria-label="Best safe point"]')
+  const bestPanel = page.locator('section[aria-label="Best acceptable point"]')
+  await bestPanel.waitFor()
+  assert.match(await bestPanel.locator('[role=note]').innerText(), /^Acceptable: every safety flag clear/)
+  assert.match(await bestPanel.innerText(), /Net O₂ change, mean over the year\s+[+−]?\d\.\d\d mg\/L[\s\S]*Net O₂ change, worst at any flow\s+[+−]?\d\.\d\d mg\/L/)
   await shot(page, 'o05-sweep')
 
   // 8. Pick the cell with the most energy (an unsafe one at this weir), and save it as a new option.
@@ -220,7 +287,7 @@ async function engineerJourney(browser: Browser) {
   await panel.waitFor()
   assert.equal(await panel.locator('h2').innerText(), `Picked point: ${units} × ${throat} m throat at ${depth} m`)
   assert.match(await panel.innerText(), new RegExp(`Annual energy\\s+${chosen.energy.toLocaleString('en-GB', { minimumFractionDigits: 1 }).replace('.', '\\.')} MWh/yr`))
-  if (!chosen.safe) assert.match(await panel.locator('[role=note]').innerText(), /^Unsafe: .+\.$/, 'an unsafe pick says which flags it raises')
+  assert.match(await panel.locator('[role=note]').innerText(), !chosen.safe ? /^Unsafe: .+\.$/ : !chosen.acceptable ? /^River cost: safe, but/ : /^Acceptable:/, 'the pick says whether it is unsafe, a river cost or acceptable')
   await panel.locator('input').fill(SWEPT_OPTION)
   await shot(page, 'o06-sweep-picked')
   await panel.locator('[data-testid=sweep-save]').click()

@@ -3,7 +3,7 @@ import { describe, expect, it, vi } from 'vitest'
 import { DEFAULTS, DIFFUSER_EFFICIENCY } from '../../../shared/engine/defaults'
 import { OptionInputSchema } from '../../../shared/schemas/option'
 import { useFormState } from '../../../composables/useFormState'
-import { blankOptionDraft, bodyFromDraft, draftFromOption, OPTION_FIELDS, OPTION_FORM, OPTION_GROUPS, type OptionDraft, sameDraft, starterDraft } from '../../../utils/optionFields'
+import { blankOptionDraft, bodyFromDraft, draftFromOption, monthsOfText, monthsText, OPTION_FIELDS, OPTION_FORM, OPTION_GROUPS, type OptionDraft, sameDraft, starterDraft } from '../../../utils/optionFields'
 
 /** The draft checked as the new-option form checks it: the body, or null with the messages by field path. */
 function checkOptionDraft(draft: OptionDraft) {
@@ -81,5 +81,53 @@ describe('option draft', () => {
     const changed = draftFromOption(stored)
     changed.values['design.units'] = 5
     expect(sameDraft(changed, draftFromOption(stored))).toBe(false)
+  })
+})
+
+describe('closed months in the draft', () => {
+  const CLOSED = 'design.operation.closedMonths'
+
+  it('holds a set of months as sorted text without repeats, and reads it back', () => {
+    expect(monthsText([9, 6, 7, 6])).toBe('6,7,9')
+    expect(monthsText([])).toBe('')
+    expect(monthsOfText('6,7,9')).toEqual([6, 7, 9])
+    expect(monthsOfText(' 6 , 7,,')).toEqual([6, 7])
+    expect(monthsOfText('')).toEqual([])
+    // Not a month is kept for the schema to refuse, never dropped.
+    expect(monthsOfText('6,x')).toEqual([6, Number.NaN])
+  })
+
+  it('starts with no closed month and sends an empty list', () => {
+    const d = starterDraft('Open all year')
+    expect(d.values[CLOSED]).toBe('')
+    expect(checkOptionDraft(d).input!.design.operation.closedMonths).toEqual([])
+  })
+
+  it('sends the ticked months as numbers, stores them, and shows a stored option\'s months as the draft text', () => {
+    const d = starterDraft('Closed in summer')
+    d.values[CLOSED] = monthsText([8, 7])
+    const { input } = checkOptionDraft(d)
+    expect(input!.design.operation.closedMonths).toEqual([7, 8])
+    const back = draftFromOption(input!)
+    expect(back.values[CLOSED]).toBe('7,8')
+    const other = draftFromOption(input!)
+    expect(sameDraft(back, other)).toBe(true)
+    other.values[CLOSED] = '7'
+    expect(sameDraft(back, other)).toBe(false)
+  })
+
+  it('refuses a month that is not 1–12, naming the field', () => {
+    const d = starterDraft('Bad month')
+    d.values[CLOSED] = '6,13'
+    expect(checkOptionDraft(d).errors[`${CLOSED}.1`]).toBe('must be a month 1–12')
+  })
+
+  it('gives the operating mode and the closed months a caution, in the operation group', () => {
+    const byPath = (p: string) => OPTION_FIELDS.find((f) => f.path === p)!
+    expect(byPath('design.operation.mode').caution).toMatch(/River first may cost energy/)
+    expect(byPath(CLOSED).caution).toMatch(/consent[\s\S]*regulator/)
+    expect(byPath(CLOSED).kind).toBe('months')
+    expect(OPTION_GROUPS.map((g) => g.id)).toContain('operation')
+    expect(OPTION_FIELDS.filter((f) => f.group === 'operation').map((f) => f.path)).toEqual(['design.operation.mode', 'design.operation.allowedDrawdown_m', CLOSED])
   })
 })
