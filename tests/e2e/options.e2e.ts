@@ -45,7 +45,7 @@ async function engineerJourney(browser: Browser) {
   const page = await openPage(browser)
   await signIn(page, ENGINEER)
 
-  // 1. The demo site with a record, its options tab: the two demo options with their figures.
+  // 1. The demo site with a record, its options tab: the three demo options with their figures.
   await page.locator('[data-testid=site-table] tbody tr', { hasText: SITE }).locator('a').first().click()
   await page.waitForURL(/\/sites\/\d+$/)
   const siteId = Number(new URL(page.url()).pathname.split('/').pop())
@@ -66,7 +66,7 @@ async function engineerJourney(browser: Browser) {
   await page.click('[data-testid=tab-options]')
   await page.waitForSelector('[data-testid=option-list] tbody tr')
   const demoRows = page.locator('[data-testid=option-list] tbody tr')
-  assert.equal(await demoRows.count(), 2, 'Hollin Mill weir has two demo options')
+  assert.equal(await demoRows.count(), 3, 'Hollin Mill weir has three demo options')
   assert.match(await demoRows.filter({ hasText: 'Two units in the old leat' }).innerText(), /2 × 0\.55 m throat[\s\S]*\d[\d,]*\.\d/)
   await shot(page, 'o01-site-options')
 
@@ -303,7 +303,7 @@ async function engineerJourney(browser: Browser) {
   // 9. Both new options are on the site's list; ticked, they open side by side.
   await page.goto(`${BASE}/sites/${siteId}?tab=options`)
   await page.waitForSelector(`[data-testid=option-row-${sweptId}]`)
-  assert.equal(await page.locator('[data-testid=option-list] tbody tr').count(), 4, 'two demo options and the two new ones')
+  assert.equal(await page.locator('[data-testid=option-list] tbody tr').count(), 5, 'three demo options and the two new ones')
   assert.match(await page.innerText(`[data-testid=option-row-${optionId}]`), new RegExp(`${NEW_OPTION}[\\s\\S]*2 × 0\\.65 m throat`))
   assert.match(await page.innerText(`[data-testid=option-row-${sweptId}]`), /Not assessed yet/)
   await page.check(`[aria-label="Pick ${NEW_OPTION} to compare"]`)

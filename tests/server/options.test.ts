@@ -19,7 +19,7 @@ describe('POST /api/sites/[id]/options', () => {
       expect(res.status, who).toBe(201)
       expect(res.body).toMatchObject({ name: `By ${who}`, siteId, orgId: team.orgId, version: 1, latestAssessment: null })
       // Defaults of the engine's option and settings are stored with it (shared/engine/defaults.ts).
-      expect(res.body.design).toMatchObject({ units: 2, constriction: 'venturi', staging: 'sequential' })
+      expect(res.body.design).toMatchObject({ units: 2, constriction: 'venturi', operation: { mode: 'energy-first', allowedDrawdown_m: 0.05, closedMonths: [] } })
       expect(typeof res.body.design.air.jetPumpEfficiency).toBe('number')
       expect(typeof res.body.settings.availability).toBe('number')
       expect(res.body.createdBy.name).toContain(who)
