@@ -83,15 +83,20 @@ async function sessionFrom(res: Response, what: string, expected: number): Promi
 }
 
 let people = 0
-/** Signs up a new person with an organisation of their own (they are its admin). */
+/**
+ * Signs up a new person with an organisation of their own (they are its admin), then signs them in:
+ * sign-up answers 202 with no session whether or not the address was new, so a stranger learns nothing.
+ */
 export async function signUpSession(baseURL: string, tag: string): Promise<BenchSession> {
   const email = `bench-${tag}-${Date.now().toString(36)}-${people++}@bench.example`
+  const password = 'bench only password 2026'
   const res = await fetch(`${baseURL}/api/auth/signup`, {
     method: 'POST',
     headers: { 'content-type': 'application/json', accept: 'application/json' },
-    body: JSON.stringify({ name: `Bench ${tag}`, email, password: 'bench only password 2026', organisationName: `Bench organisation ${tag} (invented)` }),
+    body: JSON.stringify({ name: `Bench ${tag}`, email, password, organisationName: `Bench organisation ${tag} (invented)` }),
   })
-  return sessionFrom(res, `POST /api/auth/signup for ${email}`, 201)
+  if (res.status !== 202) throw new Error(`POST /api/auth/signup for ${email} answered ${res.status}: ${await res.text()}`)
+  return signInSession(baseURL, email, password)
 }
 
 /** Signs in an existing account (e.g. a demo account). */

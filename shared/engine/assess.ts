@@ -141,7 +141,8 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   const closed = new Set(o.operation.closedMonths)
 
   const perFlow = PER_FLOW_EXCEEDANCES.map((p) => perFlowRow(p, flowState(s, flowAtExceedance(h.fdc, p), annual)))
-  const grid = exceedanceGrid(SUMMARY_GRID).map((p) => powerState(s, flowAtExceedance(h.fdc, p), annual))
+  // The states across the annual curve explain why units never run; only worked out when they do not.
+  const grid = () => exceedanceGrid(SUMMARY_GRID).map((p) => powerState(s, flowAtExceedance(h.fdc, p), annual))
 
   const months: MonthRow[] = monthStates.map((fs, m) => {
     const c = monthCond[m] ?? annual

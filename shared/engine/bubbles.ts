@@ -19,6 +19,7 @@
 //   so water at surface saturation has a total dissolved gas of exactly 100 %.
 import { G, N2_AR_MOLE_FRACTION, O2_MOLE_FRACTION, P_STD, T_ZERO_C } from './constants'
 import { DEFAULTS, type SourcedValue } from './defaults'
+import { rememberRecent } from './memo'
 import { filmCoefficientOf, filmParameters, riseVelocity, type FilmModel, type FilmParameters } from './bubbleFilm'
 import { oxygenDiffusivity } from './oxygen'
 import { nitrogenSaturation, oxygenSaturation, vapourPressureAtm } from './oxygenSaturation'
@@ -74,6 +75,14 @@ export interface HenryConstants {
  * p falls back to 1 atm where it is not above the vapour pressure.
  */
 export function henryConstants(tC: number, p_Pa: number, salinity_gkg: number): HenryConstants {
+  return recentHenry(tC, p_Pa, salinity_gkg)
+}
+
+// One assessment asks the same few (temperature, pressure, salinity) thousands of times: remember the
+// last few (memo.ts; the answers are those of computing afresh).
+const recentHenry = rememberRecent((tC: number, p_Pa = P_STD, salinity_gkg = 0): HenryConstants => freshHenryConstants(tC, p_Pa, salinity_gkg), 4)
+
+function freshHenryConstants(tC: number, p_Pa: number, salinity_gkg: number): HenryConstants {
   const pv = vapourPressureAtm(tC) * P_STD
   const p = p_Pa > pv + MIN_DRY_PRESSURE ? p_Pa : P_STD
   const dry = Math.max(p - pv, MIN_DRY_PRESSURE)

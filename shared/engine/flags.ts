@@ -33,8 +33,8 @@ export interface FlagContext {
   s: Scheme
   year: YearJudgement
   energy: AnnualEnergy
-  /** Power states at the year's mean conditions over the annual curve, for the never-runs reason. */
-  grid: PowerState[]
+  /** Power states at the year's mean conditions over the annual curve, for the never-runs reason (asked only when the units never run). */
+  grid: () => PowerState[]
 }
 
 function flag(id: FlagId, level: FlagLevel, raised: boolean, shareOfTime: number | null, worst: FlagWorst | null, reason: string): Flag {
@@ -86,6 +86,6 @@ export function buildFlags(c: FlagContext): Flag[] {
       : `Below the weir the river meets the ${fmt(st.oxygenTarget_mgL, 1)} mg/L target all year${below.worst ? ` (lowest ${fmt(below.worst.value)} mg/L, at ${when(below.worst)})` : ''}.`))
 
   flags.push(flag('never-runs', 'note', never, null, null,
-    never ? neverRunsReason(c.s, c.grid) : `The units run ${pct(y.runningShare)} of the year and make ${fmt(c.energy.annualEnergy_MWh, 1)} MWh in an average year.`))
+    never ? neverRunsReason(c.s, c.grid()) : `The units run ${pct(y.runningShare)} of the year and make ${fmt(c.energy.annualEnergy_MWh, 1)} MWh in an average year.`))
   return flags
 }

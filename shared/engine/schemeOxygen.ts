@@ -3,7 +3,7 @@
 // the weir's own aeration of the water still passing over it (weirAeration.ts: the chosen model and
 // the range between models), the mix below the weir, and the total dissolved gas before and after it.
 import { dissolvedGasState, bubbleTransfer, mixDissolvedGas, type BubbleTransferResult } from './bubbles'
-import { downstreamFromDeficitRatio, fieldTransfer, mixStreams, WATER_QUALITY_A, WEIR_SHAPE_B, type TransferResult } from './oxygen'
+import { downstreamFromDeficitRatio, fieldTransfer, WATER_QUALITY_A, WEIR_SHAPE_B, type TransferResult } from './oxygen'
 import { nitrogenSaturation, oxygenSaturation } from './oxygenSaturation'
 import { circleArea } from './venturi'
 import { waterDensity } from './water'
@@ -66,6 +66,13 @@ function weirModels(s: Scheme, overWeir_m3s: number, fall_m: number, tC: number)
   })
 }
 
+/** Two streams mixed by flow weight, mg/L (mass balance; mixStreams for two without building a list). */
+function mixTwo(q1: number, c1: number, q2: number, c2: number, fallback: number): number {
+  const a = q1 > 0 ? q1 : 0
+  const b = q2 > 0 ? q2 : 0
+  return a + b > 0 ? (a * c1 + b * c2) / (a + b) : fallback
+}
+
 /** Oxygen and dissolved gas below the scheme at one power state: units, weir, mix, net gain. */
 export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
   const site = s.input.site
@@ -81,24 +88,24 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
   // Novak) aerates the smaller overfall differently.
   const alone = weirModels(s, ps.riverFlow_m3s, H, c.tC)
   const rest = unitsQ > 0 ? weirModels(s, weirQ, H, c.tC) : alone
-  const overWeir = (r: number, sat: number, up: number): number => downstreamFromDeficitRatio(sat, up, r)
-  const without = ps.riverFlow_m3s > 0 ? overWeir(alone.chosen.r, cs, c.upstreamO2_mgL) : c.upstreamO2_mgL
-  const weirStream = overWeir(rest.chosen.r, cs, c.upstreamO2_mgL)
-  const weirN2 = overWeir(rest.chosen.r, n2Sat, n2Up)
+  const without = ps.riverFlow_m3s > 0 ? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, alone.chosen.r) : c.upstreamO2_mgL
+  const weirStream = downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, rest.chosen.r)
+  const weirN2 = downstreamFromDeficitRatio(n2Sat, n2Up, rest.chosen.r)
   const { field, bubble } = unitSide(s, ps, c, n2Up)
   const unitBubbleO2 = unitsQ > 0 ? bubble.surface.o2_mgL : c.upstreamO2_mgL
   const unitBubbleN2 = unitsQ > 0 ? bubble.surface.n2_mgL : n2Up
-  const mix = (unitC: number): number => mixStreams([{ flow_m3s: unitsQ, conc_mgL: unitC }, { flow_m3s: weirQ, conc_mgL: weirStream }], c.upstreamO2_mgL)
-  const withField = mix(field.cOut_mgL)
-  const withBubble = mix(unitBubbleO2)
+  const withField = mixTwo(unitsQ, field.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
+  const withBubble = mixTwo(unitsQ, unitBubbleO2, weirQ, weirStream, c.upstreamO2_mgL)
   const withScheme = st.oxygenMethod === 'field-transfer' ? withField : withBubble
   const unitGas = unitsQ > 0 ? bubble.surface : dissolvedGasState(c.upstreamO2_mgL, n2Up, c.tC, s.p_atm, site.salinity_gkg)
   const mixed = mixDissolvedGas([
     { flow_m3s: unitsQ, o2_mgL: unitBubbleO2, n2_mgL: unitBubbleN2 },
     { flow_m3s: weirQ, o2_mgL: weirStream, n2_mgL: weirN2 },
   ], c.tC, s.p_atm, site.salinity_gkg)
+  const atMin = downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, alone.rMin)
+  const atMax = downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, alone.rMax)
   const range = ps.riverFlow_m3s > 0
-    ? { min_mgL: Math.min(overWeir(alone.rMin, cs, c.upstreamO2_mgL), overWeir(alone.rMax, cs, c.upstreamO2_mgL)), max_mgL: Math.max(overWeir(alone.rMin, cs, c.upstreamO2_mgL), overWeir(alone.rMax, cs, c.upstreamO2_mgL)) }
+    ? { min_mgL: Math.min(atMin, atMax), max_mgL: Math.max(atMin, atMax) }
     : { min_mgL: c.upstreamO2_mgL, max_mgL: c.upstreamO2_mgL }
   return {
     saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, withoutSchemeRange_mgL: range,
