@@ -9,8 +9,8 @@ export default defineConfig({
     outputFile: { json: '.reports/vitest.json' },
     projects: [
       {
-        // App code imports shared/ as `~~/shared/...` (Nuxt externalises shared/ by that path); UI unit tests need the alias too.
-        resolve: { alias: { '~~': fileURLToPath(new URL('.', import.meta.url)) } },
+        // App and route code import shared/ as `#shared/...` (Nuxt's alias) and the root as `~~/`; UI unit tests need both too.
+        resolve: { alias: { '#shared': fileURLToPath(new URL('./shared', import.meta.url)), '~~': fileURLToPath(new URL('.', import.meta.url)) } },
         test: {
           name: 'unit',
           include: ['tests/unit/**/*.test.ts'],

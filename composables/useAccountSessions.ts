@@ -1,4 +1,4 @@
-import type { SessionDto } from '~~/shared/schemas/account'
+import type { SessionDto } from '#shared/schemas/account'
 
 /** The signed-in person's browsers (sessions), newest first. */
 export function useAccountSessions() {

@@ -1,8 +1,8 @@
 // Stored assessments: typed fetch wrappers over the assessment routes. How a result is shown lives in
 // utils/assessment.ts and utils/assessmentCharts.ts.
-import type { SensitivityResult } from '~~/shared/engine/sensitivity'
-import type { AssessInput } from '~~/shared/schemas/assess'
-import type { AssessmentCreate, AssessmentDetailDto, AssessmentListDto, AssessmentTable } from '~~/shared/schemas/assessment'
+import type { SensitivityResult } from '#shared/engine/sensitivity'
+import type { AssessInput } from '#shared/schemas/assess'
+import type { AssessmentCreate, AssessmentDetailDto, AssessmentListDto, AssessmentTable } from '#shared/schemas/assessment'
 
 /** One stored assessment with its exact input and whole result. */
 export function useAssessmentDetail(id: Ref<number>) {

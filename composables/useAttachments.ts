@@ -1,5 +1,5 @@
 // A site's attachments (server/api/sites/[id]/attachments, server/api/attachments).
-import type { AttachmentDto } from '~~/shared/schemas/attachment'
+import type { AttachmentDto } from '#shared/schemas/attachment'
 
 /** The site's attachments, newest first as the server orders them. */
 export function useAttachments(siteId: Ref<number>) {

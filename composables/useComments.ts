@@ -1,6 +1,6 @@
 // The comment thread of a site's review: typed fetch wrappers over server/api/sites/[id]/comments*
 // (the thread's pure helpers are in utils/comments.ts).
-import type { CommentDto, CommentInput, CommentListDto } from '~~/shared/schemas/review'
+import type { CommentDto, CommentInput, CommentListDto } from '#shared/schemas/review'
 
 /** The site's comments, oldest first. */
 export function useComments(siteId: Ref<number>) {

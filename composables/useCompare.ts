@@ -1,6 +1,6 @@
 // The side-by-side comparison of 2–6 options (GET /api/compare).
 import type { Ref } from 'vue'
-import type { CompareDto } from '~~/shared/schemas/compare'
+import type { CompareDto } from '#shared/schemas/compare'
 
 /** The comparison of 2–6 options, in the order asked; null while fewer than 2 are picked. */
 export function useCompare(ids: Ref<number[]>) {

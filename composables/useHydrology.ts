@@ -1,6 +1,6 @@
 // Typed wrappers over a site's hydrology routes: the curve in use and its statistics, the stored
 // daily flow record, and the CSV upload (with progress, see useUpload).
-import type { DateFormat, FlowRecordDto, FlowUploadResult, HydrologyDto } from '~~/shared/schemas/flowRecord'
+import type { DateFormat, FlowRecordDto, FlowUploadResult, HydrologyDto } from '#shared/schemas/flowRecord'
 import { type FlowUploadOutcome, uploadOutcomeFromError } from '../utils/flowUpload'
 import { useUpload } from './useUpload'
 

@@ -1,6 +1,6 @@
 // Invitations and password reset: typed fetch wrappers over server/api/orgs/[orgId]/invitations*,
 // server/api/invitations/** and server/api/auth/password-reset*. Shapes from shared/schemas/invitation.ts.
-import type { InvitationAcceptedDto, InvitationAcceptInput, InvitationCreatedDto, InvitationDto, InvitationInput, InvitationListDto, InvitationPublicDto, InvitationState } from '~~/shared/schemas/invitation'
+import type { InvitationAcceptedDto, InvitationAcceptInput, InvitationCreatedDto, InvitationDto, InvitationInput, InvitationListDto, InvitationPublicDto, InvitationState } from '#shared/schemas/invitation'
 
 /** The organisation's invitations, newest first, optionally of one state (admins). */
 export function useInvitations(orgId: Ref<number>, state: Ref<InvitationState | ''>) {

@@ -1,9 +1,9 @@
 // Live preview of an option while it is edited: the engine from shared/ runs in the browser on the
 // site (as stored) and the draft option, debounced, keeping the last good figures when the draft is
 // not valid. The engine is imported lazily so pages without a preview do not ship it.
-import type { AssessResult } from '~~/shared/engine/results'
-import type { SiteDto } from '~~/shared/schemas/site'
-import type { FlowRecordDto } from '~~/shared/schemas/flowRecord'
+import type { AssessResult } from '#shared/engine/results'
+import type { SiteDto } from '#shared/schemas/site'
+import type { FlowRecordDto } from '#shared/schemas/flowRecord'
 import type { OptionDraft } from '../utils/optionFields'
 import { computePreview, createPreviewRunner, PREVIEW_DELAY_MS, PreviewInputError, type PreviewSite, previewSiteFrom, type PreviewState } from '../utils/preview'
 
@@ -13,10 +13,10 @@ import { computePreview, createPreviewRunner, PREVIEW_DELAY_MS, PreviewInputErro
  */
 export function useLivePreview(site: Ref<PreviewSite | null>, draft: OptionDraft) {
   const state = shallowRef<PreviewState<AssessResult>>({ result: null, error: null, pending: false, runs: 0 })
-  let engine: Promise<typeof import('~~/shared/engine/assess')> | null = null
+  let engine: Promise<typeof import('#shared/engine/assess')> | null = null
   const runner = createPreviewRunner(
     async (snapshot: { site: PreviewSite; draft: OptionDraft }) => {
-      engine ??= import('~~/shared/engine/assess')
+      engine ??= import('#shared/engine/assess')
       const { assess } = await engine
       return computePreview(assess, snapshot.site, snapshot.draft)
     },

@@ -1,4 +1,4 @@
-import type { Role } from '~~/shared/utils/roles'
+import type { Role } from '#shared/utils/roles'
 
 export interface Member {
   userId: number

@@ -2,8 +2,8 @@
 // server/api/sites/[id]/options, server/api/orgs/[orgId]/options). Shapes come from
 // shared/schemas/option.ts, written once.
 import { computed, type Ref } from 'vue'
-import type { OptionDto, OptionInput, OptionListDto, OptionPatch, SweepSave } from '~~/shared/schemas/option'
-import type { OrgOptionsDto, SiteOptions } from '~~/shared/schemas/compare'
+import type { OptionDto, OptionInput, OptionListDto, OptionPatch, SweepSave } from '#shared/schemas/option'
+import type { OrgOptionsDto, SiteOptions } from '#shared/schemas/compare'
 
 /** A site's live options, each with its newest assessment. */
 export function useSiteOptions(siteId: Ref<number>) {

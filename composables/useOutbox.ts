@@ -1,5 +1,5 @@
 // The organisation's local outbox of e-mails (GET /api/orgs/[orgId]/outbox), admins only.
-import type { MailKind, OutboxListDto } from '~~/shared/schemas/admin'
+import type { MailKind, OutboxListDto } from '#shared/schemas/admin'
 
 /** One page of the organisation's outbox, newest first, optionally of one kind (admins). */
 export function useOutbox(orgId: Ref<number>, kind: Ref<MailKind | ''>, page: Ref<number>) {

@@ -1,8 +1,8 @@
 // Typed wrappers over GET /api/orgs/[orgId]/portfolio (server/api/orgs/[orgId]/portfolio.get.ts):
 // the paged table, every site for the map (`format=map`) and the CSV link. The map's colouring is in
 // utils/portfolioMap.ts. Shapes come from shared/schemas/option.ts.
-import type { PortfolioDto, PortfolioSort } from '~~/shared/schemas/portfolio'
-import type { ReviewState } from '~~/shared/schemas/review'
+import type { PortfolioDto, PortfolioSort } from '#shared/schemas/portfolio'
+import type { ReviewState } from '#shared/schemas/review'
 
 /** Paging, sorting and filtering of the portfolio table. */
 export interface PortfolioParams {

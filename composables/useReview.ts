@@ -1,8 +1,8 @@
 // The review of a site: typed fetch wrappers over server/api/sites/[id]/review/** (how it is shown is
 // in utils/review.ts). Shapes come from shared/schemas/review.ts, written once.
-import type { OptionListDto } from '~~/shared/schemas/option'
-import type { AssessmentListDto } from '~~/shared/schemas/assessment'
-import type { ReviewBriefDto, ReviewChangeDto, ReviewDecisionInput, ReviewDto, ReviewSubmitInput } from '~~/shared/schemas/review'
+import type { OptionListDto } from '#shared/schemas/option'
+import type { AssessmentListDto } from '#shared/schemas/assessment'
+import type { ReviewBriefDto, ReviewChangeDto, ReviewDecisionInput, ReviewDto, ReviewSubmitInput } from '#shared/schemas/review'
 import { assessmentChoices } from '../utils/review'
 
 /** The review of a site: state, assessment under review, decision, history and what the caller may do. */

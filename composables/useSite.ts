@@ -1,7 +1,7 @@
 // Typed wrappers over the site routes (server/api/orgs/[orgId]/sites, server/api/sites/[id]).
 // Shapes come from shared/schemas/site.ts, written once.
-import type { SiteDto, SiteInput, SitePatch } from '~~/shared/schemas/site'
-import type { SiteMapPoint } from '~~/shared/schemas/siteList'
+import type { SiteDto, SiteInput, SitePatch } from '#shared/schemas/site'
+import type { SiteMapPoint } from '#shared/schemas/siteList'
 
 /** Every live site of the organisation as a map point (no paging). */
 export function useSiteMapPoints(orgId: Ref<number | null | undefined>) {

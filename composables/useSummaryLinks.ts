@@ -1,7 +1,7 @@
 // Summary links and the landowner summary: typed fetch wrappers over server/api/sites/[id]/summary-links*,
 // server/api/summary-links/**, server/api/orgs/[orgId]/summary-links and server/api/public/summary/[token],
 // (the summary in plain words is in utils/summary.ts).
-import type { PublicSummaryDto, SummaryLinkCreatedDto, SummaryLinkDto, SummaryLinkInput, SummaryLinkListDto, SummaryLinkState } from '~~/shared/schemas/summaryLink'
+import type { PublicSummaryDto, SummaryLinkCreatedDto, SummaryLinkDto, SummaryLinkInput, SummaryLinkListDto, SummaryLinkState } from '#shared/schemas/summaryLink'
 
 /** The summary links of one site, newest first (engineers and admins). */
 export function useSiteSummaryLinks(siteId: Ref<number>, enabled: boolean) {

@@ -1,9 +1,9 @@
 // The design sweep of an option: the grid (utils/sweep.ts) run in a Web Worker from shared/engine
 // with progress per point, or on the server when no worker can start.
 import { ref, shallowRef } from 'vue'
-import type { SweepPoint } from '~~/shared/engine/sweep'
-import type { AssessInput, SweepGrid } from '~~/shared/schemas/assess'
-import type { OptionSweepDto } from '~~/shared/schemas/option'
+import type { SweepPoint } from '#shared/engine/sweep'
+import type { AssessInput, SweepGrid } from '#shared/schemas/assess'
+import type { OptionSweepDto } from '#shared/schemas/option'
 import type { SweepWorkerMessage, SweepWorkerRequest } from '../utils/sweep'
 
 /** Running a sweep: in a worker when the browser can, else on the server (no per-point progress). */

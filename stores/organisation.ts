@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
-import type { Me } from '~~/shared/schemas/auth'
-import { canAdminister, canEdit } from '~~/shared/utils/roles'
+import type { Me } from '#shared/schemas/auth'
+import { canAdminister, canEdit } from '#shared/utils/roles'
 
 /**
  * Who is signed in, their organisations, and which one they are working in: the one chosen in this

@@ -2,9 +2,9 @@
 // for regimes, shut reasons and month bases, and the operating modes' names. Results stored by an
 // older engine may lack the newer fields (a flag's level, share and worst value; a row's shut reason),
 // so every helper here takes them as possibly missing.
-import { MONTH_NAMES, MONTH_SHORT } from '~~/shared/utils/months'
-import type { OperatingMode, Regime, ShutReason } from '~~/shared/engine/operation'
-import type { AssessSummary, Flag, FlagId, FlagLevel, MonthRow } from '~~/shared/engine/results'
+import { MONTH_NAMES, MONTH_SHORT } from '#shared/utils/months'
+import type { OperatingMode, Regime, ShutReason } from '#shared/engine/operation'
+import type { AssessSummary, Flag, FlagId, FlagLevel, MonthRow } from '#shared/engine/results'
 import { formatNumber } from './format'
 
 /** One headline figure. */

@@ -1,6 +1,6 @@
 // Series, colours and ticks of an assessment's charts (no Chart.js here, so they unit-test in node).
-import type { MonthRow, PerFlowRow } from '~~/shared/engine/results'
-import type { SensitivityResult } from '~~/shared/engine/sensitivity'
+import type { MonthRow, PerFlowRow } from '#shared/engine/results'
+import type { SensitivityResult } from '#shared/engine/sensitivity'
 
 // ——— chart series ———
 

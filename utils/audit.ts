@@ -1,6 +1,6 @@
 // The audit trail's search: the filters as a form holds them, their query string, the hints offered,
 // and an entry's before/after details as rows.
-import type { AuditQuery } from '~~/shared/schemas/admin'
+import type { AuditQuery } from '#shared/schemas/admin'
 
 export interface AuditEntry {
   id: number

@@ -1,9 +1,9 @@
 // The review comment thread's pure helpers: the tags a comment may carry, the body the form sends,
 // and @mentions while typing and when shown.
-import { monthName } from '~~/shared/utils/months'
-import type { FlagId } from '~~/shared/engine/results'
-import type { CommentDto, CommentInput } from '~~/shared/schemas/review'
-import { FLAG_IDS } from '~~/shared/schemas/review'
+import { monthName } from '#shared/utils/months'
+import type { FlagId } from '#shared/engine/results'
+import type { CommentDto, CommentInput } from '#shared/schemas/review'
+import { FLAG_IDS } from '#shared/schemas/review'
 import { FLAG_TITLES } from './assessment'
 
 /** The flags offered in the comment form, in the schema's order. */

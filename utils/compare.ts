@@ -1,5 +1,5 @@
 // The comparison table's rows (design, then headline figures, best per row marked) and its CSV.
-import type { CompareItem } from '~~/shared/schemas/compare'
+import type { CompareItem } from '#shared/schemas/compare'
 
 /** One row of the comparison table: a label with its unit, one cell per option, and which is best. */
 export interface CompareRow {

@@ -1,5 +1,5 @@
 // What a flow-record upload's refusal means for the form.
-import type { FlowUploadErrorData, FlowUploadResult } from '~~/shared/schemas/flowRecord'
+import type { FlowUploadErrorData, FlowUploadResult } from '#shared/schemas/flowRecord'
 import { UploadError } from './upload'
 
 /** What an upload came to: stored, refused line by line, or waiting for the user to pick columns. */

@@ -3,7 +3,7 @@
 // time) is shown in the reader's own time zone with its name ("12 Mar 2026, 14:05 BST"), with the
 // UTC time for a `title` on hover; components/app/AppDateTime.vue does both, and shows the UTC time
 // in the server's render so the page the browser hydrates matches it.
-import { MONTH_SHORT } from '~~/shared/utils/months'
+import { MONTH_SHORT } from '#shared/utils/months'
 
 // ——— numbers ———
 

@@ -1,7 +1,7 @@
 // The head-vs-flow table of a site's weir: rows of river flow (m³/s) and gross head (m), edited as
 // text with the table helpers of numberTable.ts and checked as HeadTableSchema (shared/schemas/site.ts)
 // will check them. Pure, so the unit tests can drive it.
-import { MAX_GROSS_HEAD_M, type HeadRow } from '~~/shared/schemas/site'
+import { MAX_GROSS_HEAD_M, type HeadRow } from '#shared/schemas/site'
 import { blankRowOf, cellError, type CellRule, parseTypedNumber, rowErrorsFromIssues, rowsFromValues, rowsText, sortRowsBy, type TableRow, type TableRowErrors } from './numberTable'
 
 export const HEAD_COLUMNS = ['flow', 'head'] as const

@@ -1,7 +1,7 @@
 // Pure helpers of the invitation pages: where to go after accepting, and the words for a link that
 // cannot be used.
 import { httpStatus } from './serverErrors'
-import type { InvitationAcceptedDto } from '~~/shared/schemas/invitation'
+import type { InvitationAcceptedDto } from '#shared/schemas/invitation'
 
 /** Where to go after accepting: the one site for a single-site reviewer, else the portfolio. */
 export function afterAcceptPath(accepted: Pick<InvitationAcceptedDto, 'siteId'>): string {

@@ -2,9 +2,9 @@
 // draft the form holds, with the draft ⇄ body mapping that useFormState checks by the server's own
 // schema (OPTION_FORM). Shapes come from shared/schemas/option.ts, written once; defaults from
 // shared/engine/defaults.ts.
-import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type ConstrictionType, type SourcedValue } from '~~/shared/engine/defaults'
-import { MONEY_DEFAULTS } from '~~/shared/engine/money'
-import type { OptionDto } from '~~/shared/schemas/option'
+import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type ConstrictionType, type SourcedValue } from '#shared/engine/defaults'
+import { MONEY_DEFAULTS } from '#shared/engine/money'
+import type { OptionDto } from '#shared/schemas/option'
 import type { CheckIssue, FormMessages } from './formState'
 
 // ——— the field catalogue ———

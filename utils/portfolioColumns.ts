@@ -1,8 +1,8 @@
 // Columns of the portfolio's site table, typed on PortfolioRow (GET /api/orgs/[orgId]/portfolio).
 // The table takes a list of these, so a new headline figure needs no change to the page or table.
 import { formatUpTo } from './format'
-import type { PortfolioLatest, PortfolioRow, PortfolioSort } from '~~/shared/schemas/portfolio'
-import { REVIEW_STATE_LABELS } from '~~/shared/schemas/review'
+import type { PortfolioLatest, PortfolioRow, PortfolioSort } from '#shared/schemas/portfolio'
+import { REVIEW_STATE_LABELS } from '#shared/schemas/review'
 
 /** One column of the site table. */
 export interface PortfolioColumn {

@@ -1,6 +1,6 @@
 // How the portfolio map colours its sites: the figure chosen, its scale and legend.
-import type { PortfolioRow } from '~~/shared/schemas/portfolio'
-import { REVIEW_STATE_LABELS, REVIEW_STATES, type ReviewState } from '~~/shared/schemas/review'
+import type { PortfolioRow } from '#shared/schemas/portfolio'
+import { REVIEW_STATE_LABELS, REVIEW_STATES, type ReviewState } from '#shared/schemas/review'
 
 // ——— the map's colouring ———
 

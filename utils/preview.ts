@@ -1,9 +1,9 @@
 // The live preview's pure parts: the engine input from the stored site and the draft option, the
 // engine run (imported lazily so pages without a preview do not ship it), and a debounced runner
 // that keeps the last good figures while the draft is not valid.
-import type { AssessResult } from '~~/shared/engine/results'
-import { AssessInputSchema, EngineOptionSchema, SettingsInputSchema, type AssessInput } from '~~/shared/schemas/assess'
-import { siteToEngine, SiteNotReadyError, type EngineSitePart, type SiteForEngine } from '~~/shared/utils/siteEngineInput'
+import type { AssessResult } from '#shared/engine/results'
+import { AssessInputSchema, EngineOptionSchema, SettingsInputSchema, type AssessInput } from '#shared/schemas/assess'
+import { siteToEngine, SiteNotReadyError, type EngineSitePart, type SiteForEngine } from '#shared/utils/siteEngineInput'
 import { bodyFromDraft, type OptionDraft } from './optionFields'
 
 /** Debounce of the live preview, ms. */

@@ -1,11 +1,11 @@
 // How the review is shown: state labels and tones, the decisions, the assessments a submission may
 // name, and the oxygen by month from the brief or the summary.
-import { monthName } from '~~/shared/utils/months'
+import { monthName } from '#shared/utils/months'
 import { formatDay, formatNumber } from './format'
-import type { AssessmentListDto } from '~~/shared/schemas/assessment'
-import type { ReviewBriefDto, ReviewDecision, ReviewState } from '~~/shared/schemas/review'
-import { REVIEW_STATE_LABELS } from '~~/shared/schemas/review'
-import type { PublicSummaryDto } from '~~/shared/schemas/summaryLink'
+import type { AssessmentListDto } from '#shared/schemas/assessment'
+import type { ReviewBriefDto, ReviewDecision, ReviewState } from '#shared/schemas/review'
+import { REVIEW_STATE_LABELS } from '#shared/schemas/review'
+import type { PublicSummaryDto } from '#shared/schemas/summaryLink'
 
 // ——— states ———
 

@@ -1,8 +1,8 @@
 // The site form's draft: a blank one, one from a stored site, the bodies it sends, and the schema's
 // issues by field path in plain words; with these, useFormState runs the site's forms (SITE_FORM).
-import { MONTH_NAMES } from '~~/shared/utils/months'
-import type { OxygenUnit, Reach, SiteDto } from '~~/shared/schemas/site'
-import type { WaterQualityClass, WeirShapeClass } from '~~/shared/engine/oxygen'
+import { MONTH_NAMES } from '#shared/utils/months'
+import type { OxygenUnit, Reach, SiteDto } from '#shared/schemas/site'
+import type { WaterQualityClass, WeirShapeClass } from '#shared/engine/oxygen'
 import { type CheckIssue, type FormMessages, samePlain } from './formState'
 import { checkHeadRows, headRowsFrom, headTableText, type HeadTableRow } from './headTable'
 

@@ -1,7 +1,7 @@
 // The landowner summary in plain words, and the summary links' states.
 import { formatNumber } from './format'
 import type { OxygenRow } from './review'
-import type { SummaryLinkState } from '~~/shared/schemas/summaryLink'
+import type { SummaryLinkState } from '#shared/schemas/summaryLink'
 
 // ——— link states ———
 

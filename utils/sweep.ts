@@ -1,6 +1,6 @@
 // The design sweep's ranges and grid, and the messages of its Web Worker (the best acceptable point is the engine's bestPoint).
-import type { SweepPoint } from '~~/shared/engine/sweep'
-import type { AssessInput, SweepGrid } from '~~/shared/schemas/assess'
+import type { SweepPoint } from '#shared/engine/sweep'
+import type { AssessInput, SweepGrid } from '#shared/schemas/assess'
 
 /** Most points one sweep may hold (the server's SweepGridSchema says the same). */
 export const MAX_SWEEP_POINTS = 400

@@ -1,5 +1,5 @@
-import { compareOptions } from '../domain/options'
-import { CompareQuerySchema, type CompareDto } from '../../shared/schemas/compare'
+import { compareOptions } from '~~/server/domain/options'
+import { CompareQuerySchema, type CompareDto } from '#shared/schemas/compare'
 
 // 2 to 6 options side by side, from any sites of any organisations the user belongs to (any role):
 // each option's design and settings, its site and its latest assessment. 404 naming the first option

@@ -1,6 +1,6 @@
-import { LATEST_MIGRATION } from '../../db/migrations'
-import { currentMigration, pingDatabase } from '../../db/connection'
-import { ENGINE_VERSION } from '../../shared/engine/version'
+import { LATEST_MIGRATION } from '~~/db/migrations'
+import { currentMigration, pingDatabase } from '~~/db/connection'
+import { ENGINE_VERSION } from '#shared/engine/version'
 
 // Liveness for operators: the database answers, its migration level, and the engine version.
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
-import { rememberLastOrganisation } from '../domain/accounts'
-import { MePatchSchema } from '../../shared/schemas/account'
+import { rememberLastOrganisation } from '~~/server/domain/accounts'
+import { MePatchSchema } from '#shared/schemas/account'
 
 // Remembers the organisation the person chose, so the app opens it next time (on any browser).
 // Signed-in only; only an organisation they belong to (404 otherwise, naming nothing).

@@ -1,5 +1,5 @@
-import { accountById, changePassword } from '../../domain/accounts'
-import { PasswordChangeSchema } from '../../../shared/schemas/account'
+import { accountById, changePassword } from '~~/server/domain/accounts'
+import { PasswordChangeSchema } from '#shared/schemas/account'
 
 // Changes the signed-in person's password, given the current one. Every session of the account
 // ends (a cookie copied earlier is worth nothing) and this browser gets a fresh one.

@@ -1,4 +1,4 @@
-import { isVerified, resendVerification } from '../../domain/verification'
+import { isVerified, resendVerification } from '~~/server/domain/verification'
 
 // Sends the signed-in person a new link to confirm their address. Signed-in only, no body,
 // throttled per account.

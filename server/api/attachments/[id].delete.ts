@@ -1,6 +1,6 @@
-import { deleteAttachment } from '../../domain/attachments'
-import { SiteParamsSchema } from '../../../shared/schemas/site'
-import { EDITOR_ROLES } from '../../../shared/utils/roles'
+import { deleteAttachment } from '~~/server/domain/attachments'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins remove an attachment. Nothing restores one, so its file is removed with it;
 // the row stays, marked deleted (404 from then on), as the record of what was uploaded and by whom.

@@ -1,5 +1,5 @@
-import { SiteParamsSchema } from '../../../shared/schemas/site'
-import { READER_ROLES } from '../../../shared/utils/roles'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // Downloads an attachment for members of its site's organisation. Type, disposition and name come
 // from the stored bytes, sniffed again here (never the uploader's claim): JPEG, PNG and WebP inline,

@@ -1,5 +1,5 @@
-import { accountByEmail } from '../../domain/accounts'
-import { LoginSchema } from '../../../shared/schemas/auth'
+import { accountByEmail } from '~~/server/domain/accounts'
+import { LoginSchema } from '#shared/schemas/auth'
 
 // Signs a person in and starts a server-side session. A wrong e-mail or password answer the same
 // 401 after the same work (an unknown e-mail is checked against a dummy hash); repeated failures for

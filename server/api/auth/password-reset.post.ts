@@ -1,5 +1,5 @@
-import { requestPasswordReset } from '../../domain/passwordResets'
-import { PASSWORD_RESET_TTL_MINUTES, PasswordResetRequestSchema } from '../../../shared/schemas/invitation'
+import { requestPasswordReset } from '~~/server/domain/passwordResets'
+import { PASSWORD_RESET_TTL_MINUTES, PasswordResetRequestSchema } from '#shared/schemas/invitation'
 
 const MESSAGE = `If an account uses that e-mail, we have sent it a link to choose a new password. The link works once, for ${PASSWORD_RESET_TTL_MINUTES} minutes.`
 

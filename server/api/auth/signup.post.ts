@@ -1,7 +1,7 @@
-import { signUp } from '../../domain/accounts'
-import { sendVerification } from '../../domain/verification'
-import { SignupSchema } from '../../../shared/schemas/auth'
-import type { SignupAnswer } from '../../../shared/schemas/account'
+import { signUp } from '~~/server/domain/accounts'
+import { sendVerification } from '~~/server/domain/verification'
+import { SignupSchema } from '#shared/schemas/auth'
+import type { SignupAnswer } from '#shared/schemas/account'
 
 const MESSAGE = 'Check your e-mail: we have sent a message to that address. To confirm it is yours, open the link in it. You can sign in now with the password you chose.'
 

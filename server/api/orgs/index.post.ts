@@ -1,5 +1,5 @@
-import { createOrganisation } from '../../domain/organisations'
-import { NewOrganisationSchema } from '../../../shared/schemas/auth'
+import { createOrganisation } from '~~/server/domain/organisations'
+import { NewOrganisationSchema } from '#shared/schemas/auth'
 
 // A signed-in person starts a further organisation and becomes its admin.
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
-import { revokeSummaryLink, summaryLinkById } from '../../domain/summaryLinks'
-import { SummaryLinkParamsSchema, type SummaryLinkDto } from '../../../shared/schemas/summaryLink'
-import { EDITOR_ROLES } from '../../../shared/utils/roles'
+import { revokeSummaryLink, summaryLinkById } from '~~/server/domain/summaryLinks'
+import { SummaryLinkParamsSchema, type SummaryLinkDto } from '#shared/schemas/summaryLink'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins of the link's organisation revoke it; it stops working at once and stays in
 // the list as revoked. Revoking twice answers 409.

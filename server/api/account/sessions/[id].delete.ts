@@ -1,5 +1,5 @@
-import { endSessionOf } from '../../../domain/sessions'
-import { SessionParamsSchema } from '../../../../shared/schemas/account'
+import { endSessionOf } from '~~/server/domain/sessions'
+import { SessionParamsSchema } from '#shared/schemas/account'
 
 // Signs one of the person's browsers out. Signed-in only; someone else's session answers 404.
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { endSessionsOf } from '../../../domain/sessions'
+import { endSessionsOf } from '~~/server/domain/sessions'
 
 // "Sign out everywhere else": ends every session of the person but this one. Signed-in only, no body.
 export default defineEventHandler(async (event) => {

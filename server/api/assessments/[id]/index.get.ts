@@ -1,6 +1,6 @@
-import { loadAssessmentDetail } from '../../../domain/options'
-import { AssessmentParamsSchema } from '../../../../shared/schemas/assessment'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { loadAssessmentDetail } from '~~/server/domain/options'
+import { AssessmentParamsSchema } from '#shared/schemas/assessment'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // One stored assessment: its exact input and whole result as stored, never recomputed, with `stale`
 // set when it was computed by another engine version than this server's.

@@ -1,5 +1,5 @@
-import { assertPasswordResetOpen, completePasswordReset, passwordResetByToken } from '../../../domain/passwordResets'
-import { PasswordResetParamsSchema, PasswordResetSchema } from '../../../../shared/schemas/invitation'
+import { assertPasswordResetOpen, completePasswordReset, passwordResetByToken } from '~~/server/domain/passwordResets'
+import { PasswordResetParamsSchema, PasswordResetSchema } from '#shared/schemas/invitation'
 
 const unknown = () => createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This reset link is not known. Check that the whole link was copied, or ask for a new one.' })
 

@@ -1,5 +1,5 @@
-import { confirmEmail, verificationByToken } from '../../../domain/verification'
-import { PasswordResetParamsSchema } from '../../../../shared/schemas/invitation'
+import { confirmEmail, verificationByToken } from '~~/server/domain/verification'
+import { PasswordResetParamsSchema } from '#shared/schemas/invitation'
 
 const unknown = () => createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This confirmation link is not known. Check that the whole link was copied, or ask for a new one from your account page.' })
 

@@ -1,5 +1,5 @@
-import { acceptInvitation, assertInvitationOpen } from '../../../domain/invitations'
-import { InvitationAcceptSchema, InvitationTokenParamsSchema, type InvitationAcceptedDto } from '../../../../shared/schemas/invitation'
+import { acceptInvitation, assertInvitationOpen } from '~~/server/domain/invitations'
+import { InvitationAcceptSchema, InvitationTokenParamsSchema, type InvitationAcceptedDto } from '#shared/schemas/invitation'
 
 // POST /api/invitations/[token]/accept. Signed in: the signed-in account joins, only when its
 // address is the invited one and confirmed (403 naming the invited address otherwise). Signed out:

@@ -1,5 +1,5 @@
-import { invitationById, revokeInvitation } from '../../../domain/invitations'
-import { InvitationIdParamsSchema, type InvitationDto } from '../../../../shared/schemas/invitation'
+import { invitationById, revokeInvitation } from '~~/server/domain/invitations'
+import { InvitationIdParamsSchema, type InvitationDto } from '#shared/schemas/invitation'
 
 // DELETE /api/invitations/[id]: an admin of the invitation's organisation withdraws a pending
 // invitation; its link then answers 410. One that is no longer pending answers 409 naming its state.

@@ -1,5 +1,5 @@
-import { assertInvitationOpen, publicInvitation } from '../../../domain/invitations'
-import { InvitationTokenParamsSchema, type InvitationPublicDto } from '../../../../shared/schemas/invitation'
+import { assertInvitationOpen, publicInvitation } from '~~/server/domain/invitations'
+import { InvitationTokenParamsSchema, type InvitationPublicDto } from '#shared/schemas/invitation'
 
 // GET /api/invitations/[token], no sign-in: what a pending invitation is for (organisation, role,
 // the one site if any, who sent it), and nothing else. Unknown: 404; used, withdrawn or expired: 410.

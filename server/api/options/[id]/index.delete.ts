@@ -1,6 +1,6 @@
-import { deleteOption } from '../../../domain/options'
-import { OptionParamsSchema } from '../../../../shared/schemas/option'
-import { EDITOR_ROLES } from '../../../../shared/utils/roles'
+import { deleteOption } from '~~/server/domain/options'
+import { OptionParamsSchema } from '#shared/schemas/option'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins delete an option softly: it and its assessments answer 404 from then on and
 // leave the portfolio, but nothing is erased.

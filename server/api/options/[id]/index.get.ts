@@ -1,6 +1,6 @@
-import { loadOptionDto } from '../../../domain/options'
-import { OptionParamsSchema } from '../../../../shared/schemas/option'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { loadOptionDto } from '~~/server/domain/options'
+import { OptionParamsSchema } from '#shared/schemas/option'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // One design option with its newest assessment, for every role of its organisation; 404 for anyone else.
 export default defineEventHandler(async (event) => {

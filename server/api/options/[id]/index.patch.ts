@@ -1,6 +1,6 @@
-import { loadOptionDto, updateOption } from '../../../domain/options'
-import { OptionParamsSchema, OptionPatchSchema } from '../../../../shared/schemas/option'
-import { EDITOR_ROLES } from '../../../../shared/utils/roles'
+import { loadOptionDto, updateOption } from '~~/server/domain/options'
+import { OptionParamsSchema, OptionPatchSchema } from '#shared/schemas/option'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins change an option. The body carries the version they last read: when someone
 // else has saved since, 409 with the current version and nothing is changed. Stored assessments keep

@@ -1,6 +1,6 @@
-import { listAuditEntries } from '../../../domain/audit'
-import { AuditQuerySchema } from '../../../../shared/schemas/admin'
-import { OrgParamsSchema } from '../../../../shared/schemas/common'
+import { listAuditEntries } from '~~/server/domain/audit'
+import { AuditQuerySchema } from '#shared/schemas/admin'
+import { OrgParamsSchema } from '#shared/schemas/common'
 
 // The organisation's audit trail, newest first, paged; admins only. Filters: `action` (exact, or a
 // prefix ending in a dot such as `review.`), `userId`, `targetType`, `from` and `to` (inclusive; a

@@ -1,7 +1,7 @@
-import { listOrgOptions } from '../../../domain/options'
-import { OrgParamsSchema } from '../../../../shared/schemas/common'
-import { OrgOptionsQuerySchema, type OrgOptionsDto } from '../../../../shared/schemas/compare'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { listOrgOptions } from '~~/server/domain/options'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { OrgOptionsQuerySchema, type OrgOptionsDto } from '#shared/schemas/compare'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // The organisation's live sites, by name and paged (200 at most a page), each with its live options
 // and their newest assessments: what the comparison's picker shows, in one request rather than one

@@ -1,6 +1,6 @@
-import { listOutbox } from '../../../domain/mail/outbox'
-import { OutboxQuerySchema, type OutboxListDto } from '../../../../shared/schemas/admin'
-import { OrgParamsSchema } from '../../../../shared/schemas/common'
+import { listOutbox } from '~~/server/domain/mail/outbox'
+import { OutboxQuerySchema, type OutboxListDto } from '#shared/schemas/admin'
+import { OrgParamsSchema } from '#shared/schemas/common'
 
 // The organisation's e-mails, newest first, paged; admins only. Without SMTP_URL this is where
 // they all are; with it, each shows when it was sent or why it failed. Password-reset e-mails

@@ -1,7 +1,7 @@
-import { allPortfolioRows, loadPortfolio, portfolioCsv } from '../../../domain/portfolio'
-import { OrgParamsSchema } from '../../../../shared/schemas/common'
-import { PortfolioQuerySchema } from '../../../../shared/schemas/portfolio'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { allPortfolioRows, loadPortfolio, portfolioCsv } from '~~/server/domain/portfolio'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { PortfolioQuerySchema } from '#shared/schemas/portfolio'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // The organisation's live sites with the headline figures of each one's latest assessment and its
 // location for the map: paged, sorted by an allow-listed column (sites never assessed sort last),

@@ -1,6 +1,6 @@
-import { listSummaryLinks } from '../../../domain/summaryLinks'
-import { OrgParamsSchema } from '../../../../shared/schemas/common'
-import { SummaryLinkListQuerySchema, type SummaryLinkListDto } from '../../../../shared/schemas/summaryLink'
+import { listSummaryLinks } from '~~/server/domain/summaryLinks'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { SummaryLinkListQuerySchema, type SummaryLinkListDto } from '#shared/schemas/summaryLink'
 
 // Every summary link of the organisation's sites (live or deleted), newest first; admins only.
 export default defineEventHandler(async (event): Promise<SummaryLinkListDto> => {

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { openSummary, summaryLinkByToken } from '../../../domain/summaryLinks'
-import type { PublicSummaryDto } from '../../../../shared/schemas/summaryLink'
+import { openSummary, summaryLinkByToken } from '~~/server/domain/summaryLinks'
+import type { PublicSummaryDto } from '#shared/schemas/summaryLink'
 
 // GET /api/public/summary/[token]: the landowner summary behind a summary link: no sign-in,
 // read-only, only what PublicSummaryDto lists. An unknown, malformed, expired or revoked token, or a

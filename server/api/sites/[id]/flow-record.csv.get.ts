@@ -1,7 +1,7 @@
 import { Readable } from 'node:stream'
-import { requireFlowRecord, siteDaysCsv } from '../../../domain/flowRecords'
-import { SiteParamsSchema } from '../../../../shared/schemas/site'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { requireFlowRecord, siteDaysCsv } from '~~/server/domain/flowRecords'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // GET /api/sites/[id]/flow-record.csv: the stored daily record as site flows (after any area-ratio
 // scaling), `date,flow_m3s`, one line a stored day, gaps as empty cells, as a download named after

@@ -1,6 +1,6 @@
-import { deleteFlowRecord } from '../../../domain/flowRecords'
-import { SiteParamsSchema } from '../../../../shared/schemas/site'
-import { EDITOR_ROLES } from '../../../../shared/utils/roles'
+import { deleteFlowRecord } from '~~/server/domain/flowRecords'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins remove a site's flow record (all its days) in one transaction; 404 when there is none.
 export default defineEventHandler(async (event) => {

@@ -1,7 +1,7 @@
-import { loadSiteDays, requireFlowRecord } from '../../../domain/flowRecords'
-import { SiteParamsSchema } from '../../../../shared/schemas/site'
-import { FlowRecordQuerySchema, type FlowRecordDto } from '../../../../shared/schemas/flowRecord'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { loadSiteDays, requireFlowRecord } from '~~/server/domain/flowRecords'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { FlowRecordQuerySchema, type FlowRecordDto } from '#shared/schemas/flowRecord'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // The stored daily flow record: its summary and the days (site flows after any scaling), optionally
 // from/to inclusive. 404 when the site has no record.

@@ -1,8 +1,8 @@
-import { flowRecordSummary, uploadFlowRecord } from '../../../domain/flowRecords'
-import type { FlowUploadResult } from '../../../../shared/schemas/flowRecord'
-import { SiteParamsSchema } from '../../../../shared/schemas/site'
-import { FlowRecordFormSchema, MAX_FLOW_CSV_BYTES } from '../../../../shared/schemas/flowRecord'
-import { EDITOR_ROLES } from '../../../../shared/utils/roles'
+import { flowRecordSummary, uploadFlowRecord } from '~~/server/domain/flowRecords'
+import type { FlowUploadResult } from '#shared/schemas/flowRecord'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { FlowRecordFormSchema, MAX_FLOW_CSV_BYTES } from '#shared/schemas/flowRecord'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins upload a site's daily flow record as CSV (multipart field `file`), replacing
 // the stored one or appending days to it. The whole file is checked first and every bad line is

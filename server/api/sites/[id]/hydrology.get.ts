@@ -1,9 +1,9 @@
-import { loadFlowRecord, loadSiteDays } from '../../../domain/flowRecords'
-import { fdcFromPoints, fdcStats, reservedFlow, scaleFdcByAreaRatio } from '../../../../shared/engine/hydrology'
-import { SiteParamsSchema, type Catchment, type FdcPointInput, type ReservedFlow } from '../../../../shared/schemas/site'
-import type { HydrologyDto } from '../../../../shared/schemas/flowRecord'
-import { fdcChartPoints } from '../../../../shared/utils/fdcChart'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { loadFlowRecord, loadSiteDays } from '~~/server/domain/flowRecords'
+import { fdcFromPoints, fdcStats, reservedFlow, scaleFdcByAreaRatio } from '#shared/engine/hydrology'
+import { SiteParamsSchema, type Catchment, type FdcPointInput, type ReservedFlow } from '#shared/schemas/site'
+import type { HydrologyDto } from '#shared/schemas/flowRecord'
+import { fdcChartPoints } from '#shared/utils/fdcChart'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // The flow-duration curve the engine uses for this site: from the stored record when there is one,
 // else from the entered points (scaled by the site's catchment when set); its statistics, the monthly

@@ -1,6 +1,6 @@
-import { deleteSite } from '../../../domain/sites'
-import { SiteParamsSchema } from '../../../../shared/schemas/site'
-import { EDITOR_ROLES } from '../../../../shared/utils/roles'
+import { deleteSite } from '~~/server/domain/sites'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins delete a site softly: it answers 404 from then on, and an admin can restore it.
 export default defineEventHandler(async (event) => {

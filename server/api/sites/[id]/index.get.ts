@@ -1,6 +1,6 @@
-import { siteDto } from '../../../domain/sites'
-import { SiteParamsSchema } from '../../../../shared/schemas/site'
-import { READER_ROLES } from '../../../../shared/utils/roles'
+import { siteDto } from '~~/server/domain/sites'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // One site, for every role of its organisation; 404 for anyone else and for a soft-deleted site.
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
-import { siteDto, updateSite } from '../../../domain/sites'
-import { SiteParamsSchema, SitePatchSchema } from '../../../../shared/schemas/site'
-import { EDITOR_ROLES } from '../../../../shared/utils/roles'
+import { siteDto, updateSite } from '~~/server/domain/sites'
+import { SiteParamsSchema, SitePatchSchema } from '#shared/schemas/site'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins change a site. The body carries the version they last read: when someone else
 // has saved since, 409 with the current version and nothing is changed. Each field given replaces the stored one.

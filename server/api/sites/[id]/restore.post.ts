@@ -1,5 +1,5 @@
-import { restoreSite, siteDto } from '../../../domain/sites'
-import { SiteParamsSchema } from '../../../../shared/schemas/site'
+import { restoreSite, siteDto } from '~~/server/domain/sites'
+import { SiteParamsSchema } from '#shared/schemas/site'
 
 // Admins bring back a soft-deleted site (409 when it is not deleted).
 export default defineEventHandler(async (event) => {

@@ -1,7 +1,7 @@
-import { storedResult } from '../../../../domain/assessments'
-import { assessmentCsv } from '../../../../domain/assessmentCsv'
-import { AssessmentExportParamsSchema } from '../../../../../shared/schemas/assessment'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { storedResult } from '~~/server/domain/assessments'
+import { assessmentCsv } from '~~/server/domain/assessmentCsv'
+import { AssessmentExportParamsSchema } from '#shared/schemas/assessment'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // GET /api/assessments/[id]/export/perFlow.csv | months.csv | summary.csv: one table of the stored
 // result as CSV with units in the header, as a download. Every role of the organisation may export.

@@ -1,8 +1,8 @@
-import { assessmentInputFor, rerunBasis, storeAssessment } from '../../../../domain/assessments'
-import { loadAssessmentDetail } from '../../../../domain/options'
-import { OptionParamsSchema } from '../../../../../shared/schemas/option'
-import { AssessmentCreateSchema } from '../../../../../shared/schemas/assessment'
-import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+import { assessmentInputFor, rerunBasis, storeAssessment } from '~~/server/domain/assessments'
+import { loadAssessmentDetail } from '~~/server/domain/options'
+import { OptionParamsSchema } from '#shared/schemas/option'
+import { AssessmentCreateSchema } from '#shared/schemas/assessment'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins run the engine on the server for an option at its site and store the run: the
 // exact input (defaults filled in), the engine version, the headline figures and the whole result.

@@ -1,7 +1,7 @@
-import { assessmentInputFor } from '../../../../domain/assessments'
-import { ENGINE_VERSION } from '../../../../../shared/engine/version'
-import { OptionParamsSchema, OptionSweepSchema, type OptionSweepDto } from '../../../../../shared/schemas/option'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { assessmentInputFor } from '~~/server/domain/assessments'
+import { ENGINE_VERSION } from '#shared/engine/version'
+import { OptionParamsSchema, OptionSweepSchema, type OptionSweepDto } from '#shared/schemas/option'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // A design sweep of an option at its site (throat diameter × units × submergence), run on the server
 // and answered whole; nothing is stored. Every role may look, within their sweep allowance (shared

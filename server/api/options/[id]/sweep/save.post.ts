@@ -1,8 +1,8 @@
-import { assessmentInputFor } from '../../../../domain/assessments'
-import { unprocessable } from '../../../../domain/errors'
-import { createOption, optionDto } from '../../../../domain/options'
-import { EngineOptionSchema, OptionParamsSchema, SweepSaveSchema } from '../../../../../shared/schemas/option'
-import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+import { assessmentInputFor } from '~~/server/domain/assessments'
+import { unprocessable } from '~~/server/domain/errors'
+import { createOption, optionDto } from '~~/server/domain/options'
+import { EngineOptionSchema, OptionParamsSchema, SweepSaveSchema } from '#shared/schemas/option'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins save one point of a sweep as a new option at the same site: the option's design
 // with that throat diameter (outlet scaled to keep the area ratio, as the sweep does), units and

@@ -1,6 +1,6 @@
-import { listInvitations } from '../../../../domain/invitations'
-import { OrgParamsSchema } from '../../../../../shared/schemas/common'
-import { InvitationListQuerySchema, type InvitationListDto } from '../../../../../shared/schemas/invitation'
+import { listInvitations } from '~~/server/domain/invitations'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { InvitationListQuerySchema, type InvitationListDto } from '#shared/schemas/invitation'
 
 // The organisation's invitations with their state, newest first; admins only.
 export default defineEventHandler(async (event): Promise<InvitationListDto> => {

@@ -1,6 +1,6 @@
-import { createInvitation } from '../../../../domain/invitations'
-import { OrgParamsSchema } from '../../../../../shared/schemas/common'
-import { InvitationInputSchema, type InvitationCreatedDto } from '../../../../../shared/schemas/invitation'
+import { createInvitation } from '~~/server/domain/invitations'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { InvitationInputSchema, type InvitationCreatedDto } from '#shared/schemas/invitation'
 
 // Admins invite a person by e-mail to the organisation with a role, or (with siteId) as reviewer
 // of that one site only. The link goes out by e-mail; the database keeps only its hash.

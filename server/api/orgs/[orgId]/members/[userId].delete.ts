@@ -1,7 +1,7 @@
 import { z } from 'zod'
-import { removeMember } from '../../../../domain/members'
-import { IdSchema } from '../../../../../shared/schemas/common'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { removeMember } from '~~/server/domain/members'
+import { IdSchema } from '#shared/schemas/common'
+import { READER_ROLES } from '#shared/utils/roles'
 
 const Params = z.object({ orgId: IdSchema, userId: IdSchema })
 

@@ -1,7 +1,7 @@
 import { z } from 'zod'
-import { changeMemberRole } from '../../../../domain/members'
-import { MemberRoleSchema } from '../../../../../shared/schemas/auth'
-import { IdSchema } from '../../../../../shared/schemas/common'
+import { changeMemberRole } from '~~/server/domain/members'
+import { MemberRoleSchema } from '#shared/schemas/auth'
+import { IdSchema } from '#shared/schemas/common'
 
 const Params = z.object({ orgId: IdSchema, userId: IdSchema })
 

@@ -1,6 +1,6 @@
-import { listMembers } from '../../../../domain/members'
-import { OrgParamsSchema } from '../../../../../shared/schemas/common'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { listMembers } from '~~/server/domain/members'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // Everyone in the organisation may see who else is in it and in what role.
 export default defineEventHandler(async (event) => {

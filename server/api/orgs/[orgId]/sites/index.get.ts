@@ -1,7 +1,7 @@
-import { listSites } from '../../../../domain/sites'
-import { OrgParamsSchema } from '../../../../../shared/schemas/common'
-import { SiteListQuerySchema, type SiteListDto } from '../../../../../shared/schemas/siteList'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { listSites } from '~~/server/domain/sites'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { SiteListQuerySchema, type SiteListDto } from '#shared/schemas/siteList'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // One page of an organisation's sites, sorted by an allow-listed column, filtered by text and river;
 // `deleted=only` lists the soft-deleted ones instead (admins only, so they can restore them).

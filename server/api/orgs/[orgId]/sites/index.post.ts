@@ -1,7 +1,7 @@
-import { createSite, siteDto } from '../../../../domain/sites'
-import { OrgParamsSchema } from '../../../../../shared/schemas/common'
-import { SiteInputSchema } from '../../../../../shared/schemas/site'
-import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+import { createSite, siteDto } from '~~/server/domain/sites'
+import { OrgParamsSchema } from '#shared/schemas/common'
+import { SiteInputSchema } from '#shared/schemas/site'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins add a site to their organisation; answers 201 with the stored site.
 export default defineEventHandler(async (event) => {

@@ -1,8 +1,8 @@
 import { randomBytes } from 'node:crypto'
-import { attachmentDto, forgetAttachment, storeAttachment } from '../../../../domain/attachments'
-import { SiteParamsSchema } from '../../../../../shared/schemas/site'
-import { ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, type AttachmentDto } from '../../../../../shared/schemas/attachment'
-import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+import { attachmentDto, forgetAttachment, storeAttachment } from '~~/server/domain/attachments'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, type AttachmentDto } from '#shared/schemas/attachment'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins attach a photo or drawing (JPEG, PNG, WebP or PDF, told by its first bytes;
 // 20 MB at most). It is kept under a random key; the client's name is only shown back. The file is

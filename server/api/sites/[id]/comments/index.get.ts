@@ -1,6 +1,6 @@
-import { listComments } from '../../../../domain/reviewRecords'
-import { CommentListQuerySchema, ReviewParamsSchema, type CommentListDto } from '../../../../../shared/schemas/review'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { listComments } from '~~/server/domain/reviewRecords'
+import { CommentListQuerySchema, ReviewParamsSchema, type CommentListDto } from '#shared/schemas/review'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // A site's comment thread, oldest first, paged.
 export default defineEventHandler(async (event): Promise<CommentListDto> => {

@@ -1,5 +1,5 @@
-import { addComment } from '../../../../domain/reviewRecords'
-import { COMMENT_ROLES, CommentInputSchema, ReviewParamsSchema, type CommentDto } from '../../../../../shared/schemas/review'
+import { addComment } from '~~/server/domain/reviewRecords'
+import { COMMENT_ROLES, CommentInputSchema, ReviewParamsSchema, type CommentDto } from '#shared/schemas/review'
 
 // Adds a comment to a site's thread; it may point at one of the site's assessments, a month or a
 // flag. Members and single-site reviewers mentioned as @e-mail or @full name get an e-mail.

@@ -1,7 +1,7 @@
-import { listOptions } from '../../../../domain/options'
-import { SiteParamsSchema } from '../../../../../shared/schemas/site'
-import type { OptionListDto } from '../../../../../shared/schemas/option'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { listOptions } from '~~/server/domain/options'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import type { OptionListDto } from '#shared/schemas/option'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // The live design options of a site, oldest first, each with its newest assessment; every role reads.
 export default defineEventHandler(async (event): Promise<OptionListDto> => {

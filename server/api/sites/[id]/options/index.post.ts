@@ -1,7 +1,7 @@
-import { createOptionFromInput, optionDto } from '../../../../domain/options'
-import { OptionInputSchema } from '../../../../../shared/schemas/option'
-import { SiteParamsSchema } from '../../../../../shared/schemas/site'
-import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+import { createOptionFromInput, optionDto } from '~~/server/domain/options'
+import { OptionInputSchema } from '#shared/schemas/option'
+import { SiteParamsSchema } from '#shared/schemas/site'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins add a design option to a site; answers 201 with the stored option.
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
-import { loadReviewBrief } from '../../../../domain/reviewRecords'
-import { ReviewParamsSchema, type ReviewBriefDto } from '../../../../../shared/schemas/review'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { loadReviewBrief } from '~~/server/domain/reviewRecords'
+import { ReviewParamsSchema, type ReviewBriefDto } from '#shared/schemas/review'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // What the reviewer judges, read from the stored result of the assessment under review (never
 // recomputed): reserved flow kept, oxygen by month with and without the scheme against the target,

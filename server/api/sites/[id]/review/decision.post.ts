@@ -1,5 +1,5 @@
-import { decideReview } from '../../../../domain/reviewRecords'
-import { REVIEW_DECIDE_ROLES, ReviewDecisionSchema, ReviewParamsSchema, type ReviewChangeDto } from '../../../../../shared/schemas/review'
+import { decideReview } from '~~/server/domain/reviewRecords'
+import { REVIEW_DECIDE_ROLES, ReviewDecisionSchema, ReviewParamsSchema, type ReviewChangeDto } from '#shared/schemas/review'
 
 // Reviewers (a single-site reviewer on their site) and admins decide a submitted review with a
 // reason, and conditions when accepting with conditions; the submitter and the site's engineers

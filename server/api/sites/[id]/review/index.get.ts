@@ -1,6 +1,6 @@
-import { loadReview } from '../../../../domain/reviewRecords'
-import { ReviewParamsSchema } from '../../../../../shared/schemas/review'
-import { READER_ROLES } from '../../../../../shared/utils/roles'
+import { loadReview } from '~~/server/domain/reviewRecords'
+import { ReviewParamsSchema } from '#shared/schemas/review'
+import { READER_ROLES } from '#shared/utils/roles'
 
 // A site's review: its state, the assessment under review, the latest decision and every change.
 export default defineEventHandler(async (event) => {

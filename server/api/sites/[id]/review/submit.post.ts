@@ -1,5 +1,5 @@
-import { submitReview } from '../../../../domain/reviewRecords'
-import { REVIEW_SUBMIT_ROLES, ReviewParamsSchema, ReviewSubmitSchema, type ReviewChangeDto } from '../../../../../shared/schemas/review'
+import { submitReview } from '~~/server/domain/reviewRecords'
+import { REVIEW_SUBMIT_ROLES, ReviewParamsSchema, ReviewSubmitSchema, type ReviewChangeDto } from '#shared/schemas/review'
 
 // Engineers and admins submit a site for review with one of its assessments (again after it was
 // returned); its reviewers get an e-mail. Any other state answers 409 naming it.

@@ -1,6 +1,6 @@
-import { listSummaryLinks } from '../../../../domain/summaryLinks'
-import { SummaryLinkListQuerySchema, SummaryLinkParamsSchema, type SummaryLinkListDto } from '../../../../../shared/schemas/summaryLink'
-import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+import { listSummaryLinks } from '~~/server/domain/summaryLinks'
+import { SummaryLinkListQuerySchema, SummaryLinkParamsSchema, type SummaryLinkListDto } from '#shared/schemas/summaryLink'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // A site's summary links, newest first (never their tokens): note, dates, state and views.
 export default defineEventHandler(async (event): Promise<SummaryLinkListDto> => {

@@ -1,6 +1,6 @@
-import { createSummaryLink } from '../../../../domain/summaryLinks'
-import { SummaryLinkInputSchema, SummaryLinkParamsSchema, summaryPath, type SummaryLinkCreatedDto } from '../../../../../shared/schemas/summaryLink'
-import { EDITOR_ROLES } from '../../../../../shared/utils/roles'
+import { createSummaryLink } from '~~/server/domain/summaryLinks'
+import { SummaryLinkInputSchema, SummaryLinkParamsSchema, summaryPath, type SummaryLinkCreatedDto } from '#shared/schemas/summaryLink'
+import { EDITOR_ROLES } from '#shared/utils/roles'
 
 // Engineers and admins make a summary link for a landowner. The token is in this answer only:
 // the database keeps its SHA-256 hash.
