@@ -105,6 +105,22 @@ describe('site draft', () => {
     expect(body!.months?.[1]!.upstreamOxygen.measured).toBe(true)
   })
 
+  it('keeps the weir aeration model and measured ratio in the overview body, and names a bad ratio', () => {
+    const form = sectionForm(storedSite(), overviewBody)
+    expect(form.toBody()!.weir).toMatchObject({ aerationModel: 'butts-evans', measuredDeficitRatio: null })
+    form.draft.aerationModel = 'measured'
+    expect(form.toBody()).toBeNull()
+    expect(form.errors.value['weir.measuredDeficitRatio']).toBe('is needed when the aeration model is "measured"')
+    Object.assign(form.draft, { measuredR: 0.5, measuredTemp_C: 12, measuredDrowned: true, measuredNote: ' June, low flow ' })
+    expect(form.toBody()).toBeNull()
+    expect(form.errors.value['weir.measuredDeficitRatio.r']).toBe('must be 1 or more (1 means no aeration)')
+    form.draft.measuredR = 1.8
+    expect(form.toBody()!.weir).toEqual({
+      grossHead_m: 2.1, crestWidth_m: 14, shape: 'sharp-crested-vertical-face', waterQuality: 'clean',
+      aerationModel: 'measured', measuredDeficitRatio: { r: 1.8, temperature_C: 12, drowned: true, note: 'June, low flow' },
+    })
+  })
+
   it('reads a site stored before month flows and the measured mark as measured, no flows, and unchanged', () => {
     const stored = storedSite()
     const old = { ...stored, months: stored.months.map((m) => ({ waterTemp_C: m.waterTemp_C, upstreamOxygen: { value: m.upstreamOxygen.value, unit: m.upstreamOxygen.unit } })) }
