@@ -56,11 +56,19 @@ export interface DemoRecordSpec {
   outage?: { from: string; to: string }
 }
 
-const months = (temps: number[], oxygen: number[], unit: 'mg/L' | '%sat') =>
-  temps.map((t, i) => ({ waterTemp_C: t, upstreamOxygen: { value: oxygen[i]!, unit } }))
+/** Twelve months; `flows` gives the seasonal profile, `notMeasured` the months (1–12) whose upstream oxygen is a stand-in. */
+const months = (temps: number[], oxygen: number[], unit: 'mg/L' | '%sat', extra: { flows?: number[]; notMeasured?: number[] } = {}) =>
+  temps.map((t, i) => ({
+    waterTemp_C: t,
+    upstreamOxygen: { value: oxygen[i]!, unit, measured: !extra.notMeasured?.includes(i + 1) },
+    ...(extra.flows ? { flow_m3s: extra.flows[i]! } : {}),
+  }))
 
 // An upland river: coldest in January–February, warmest in late July.
 const TEMPS = [4.5, 5.0, 6.5, 8.5, 11.5, 14.5, 16.5, 16.0, 13.5, 10.5, 7.0, 5.0]
+
+/** Mean flow of each month at Skelby gauging weir, m³/s (invented): wetter in winter; the seasonal profile of its FDC. */
+const SKELBY_MONTH_FLOWS = [12, 11, 9, 7, 5, 3.5, 2.8, 2.6, 3.4, 6, 9, 11]
 
 /** FDC of the Brackwin Water at Skelby gauging weir, m³/s (invented). */
 const SKELBY_FDC = [
@@ -113,11 +121,11 @@ export const DEMO_SITES: readonly DemoSite[] = [
       weir: { grossHead_m: 1.6, crestWidth_m: 22, shape: 'sharp-crested-straight-slope', waterQuality: 'clean' },
       headTable: [],
       reservedFlow: { kind: 'fixed', flow: 1.1 },
-      months: months(TEMPS, [99, 99, 98, 97, 95, 91, 86, 85, 89, 94, 97, 98], '%sat'),
+      months: months(TEMPS, [99, 99, 98, 97, 95, 91, 86, 85, 89, 94, 97, 98], '%sat', { flows: SKELBY_MONTH_FLOWS }),
       catchment: null,
       fdcPoints: SKELBY_FDC,
       targetOxygen_mgL: 6,
-      notes: 'Triangular-profile gauging weir of the (invented) Fellside River Agency; its flow-duration curve is published, the daily record is not.',
+      notes: 'Triangular-profile gauging weir of the (invented) Fellside River Agency; its flow-duration curve is published, the daily record is not, but its monthly mean flows are (the seasonal profile).',
     },
   },
   {
@@ -137,12 +145,13 @@ export const DEMO_SITES: readonly DemoSite[] = [
         { flow: 60, head: 0.5 },
       ],
       reservedFlow: { kind: 'percentile', exceedance: 95 },
-      months: months(TEMPS, [11.9, 11.7, 11.1, 10.2, 9.2, 8.3, 7.6, 7.5, 8.4, 9.5, 10.8, 11.6], 'mg/L'),
+      // Nobody sampled the winter months (the outfall survey ran March to November): stand-in values.
+      months: months(TEMPS, [11.9, 11.7, 11.1, 10.2, 9.2, 8.3, 7.6, 7.5, 8.4, 9.5, 10.8, 11.6], 'mg/L', { notMeasured: [12, 1, 2] }),
       // Below the Skelby gauge with a larger catchment: its curve scaled by area ratio.
       catchment: { siteArea_km2: 148, gaugeArea_km2: 121 },
       fdcPoints: SKELBY_FDC,
       targetOxygen_mgL: 6.5,
-      notes: 'Low concrete drop below the village outfall; summer oxygen is the concern. Flows scaled from Skelby gauging weir by catchment area.',
+      notes: 'Low concrete drop below the village outfall; summer oxygen is the concern. Flows scaled from Skelby gauging weir by catchment area. Upstream oxygen for December to February was not measured: the values are stand-ins.',
     },
   },
 ]

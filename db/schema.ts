@@ -90,7 +90,7 @@ export interface SitesTable {
   head_table: ColumnType<string, string | undefined, string>
   /** JSON: { kind: 'fixed', flow } | { kind: 'percentile', exceedance }. */
   reserved_flow: string
-  /** JSON: 12 × { waterTemp_C, upstreamOxygen: { value, unit } }. */
+  /** JSON: 12 × { waterTemp_C, upstreamOxygen: { value, unit, measured? }, flow_m3s? } (older rows lack the optional fields). */
   months: string
   /** JSON: { siteArea_km2, gaugeArea_km2 }, or null. */
   catchment: string | null

@@ -2,6 +2,7 @@
 // issues by field path in plain words; with these, useFormState runs the site's forms (SITE_FORM).
 import { MONTH_NAMES } from '#shared/utils/months'
 import type { OxygenUnit, Reach, SiteDto } from '#shared/schemas/site'
+import type { WeirAerationModel } from '#shared/engine/weirAeration'
 import type { WaterQualityClass, WeirShapeClass } from '#shared/engine/oxygen'
 import { type CheckIssue, type FormMessages, samePlain } from './formState'
 import { checkHeadRows, headRowsFrom, headTableText, type HeadTableRow } from './headTable'
@@ -11,6 +12,10 @@ export interface MonthDraft {
   waterTemp_C: number | null
   oxygenValue: number | null
   oxygenUnit: OxygenUnit
+  /** False when the upstream oxygen was not measured this month (the value stands in). */
+  oxygenMeasured: boolean
+  /** The month's mean flow, m³/s, for the seasonal profile; null when not entered. */
+  flow_m3s: number | null
 }
 
 /** What the site form's inputs hold. */
@@ -25,6 +30,13 @@ export interface SiteDraft {
   crestWidth_m: number | null
   shape: WeirShapeClass
   waterQuality: WaterQualityClass
+  /** The weir aeration model the figures use. */
+  aerationModel: WeirAerationModel
+  /** A measured deficit ratio and its conditions; all blank (and not drowned) sends none. */
+  measuredR: number | null
+  measuredTemp_C: number | null
+  measuredDrowned: boolean
+  measuredNote: string
   reservedKind: 'fixed' | 'percentile'
   reservedFlow: number | null
   reservedExceedance: number | null
@@ -38,7 +50,7 @@ export interface SiteDraft {
 }
 
 /** Starting month values for a new site: 10 °C and water at saturation (common practice, no source; replace with measurements). */
-export const STARTING_MONTH: MonthDraft = { waterTemp_C: 10, oxygenValue: 100, oxygenUnit: '%sat' }
+export const STARTING_MONTH: MonthDraft = { waterTemp_C: 10, oxygenValue: 100, oxygenUnit: '%sat', oxygenMeasured: true, flow_m3s: null }
 
 /** An empty draft for a new site. */
 export function blankSiteDraft(): SiteDraft {
@@ -53,6 +65,11 @@ export function blankSiteDraft(): SiteDraft {
     crestWidth_m: null,
     shape: 'sharp-crested-vertical-face',
     waterQuality: 'clean',
+    aerationModel: 'butts-evans',
+    measuredR: null,
+    measuredTemp_C: null,
+    measuredDrowned: false,
+    measuredNote: '',
     reservedKind: 'percentile',
     reservedFlow: null,
     reservedExceedance: 95,
@@ -78,6 +95,12 @@ export function draftFromSite(site: SiteDto): SiteDraft {
     crestWidth_m: site.weir.crestWidth_m,
     shape: site.weir.shape,
     waterQuality: site.weir.waterQuality,
+    // Stored before the weir models came: Butts & Evans, nothing measured.
+    aerationModel: site.weir.aerationModel ?? 'butts-evans',
+    measuredR: site.weir.measuredDeficitRatio?.r ?? null,
+    measuredTemp_C: site.weir.measuredDeficitRatio?.temperature_C ?? null,
+    measuredDrowned: site.weir.measuredDeficitRatio?.drowned ?? false,
+    measuredNote: site.weir.measuredDeficitRatio?.note ?? '',
     reservedKind: site.reservedFlow.kind,
     reservedFlow: site.reservedFlow.kind === 'fixed' ? site.reservedFlow.flow : null,
     reservedExceedance: site.reservedFlow.kind === 'percentile' ? site.reservedFlow.exceedance : 95,
@@ -85,7 +108,14 @@ export function draftFromSite(site: SiteDto): SiteDraft {
     gaugeArea_km2: site.catchment?.gaugeArea_km2 ?? null,
     targetOxygen_mgL: site.targetOxygen_mgL,
     notes: site.notes,
-    months: site.months.map((m) => ({ waterTemp_C: m.waterTemp_C, oxygenValue: m.upstreamOxygen.value, oxygenUnit: m.upstreamOxygen.unit })),
+    months: site.months.map((m) => ({
+      waterTemp_C: m.waterTemp_C,
+      oxygenValue: m.upstreamOxygen.value,
+      oxygenUnit: m.upstreamOxygen.unit,
+      // Stored before these fields came: measured, and no month flow.
+      oxygenMeasured: m.upstreamOxygen.measured ?? true,
+      flow_m3s: m.flow_m3s ?? null,
+    })),
     headRows: headRowsFrom(site.headTable),
   }
 }
@@ -97,7 +127,17 @@ function sameSiteDraft(a: SiteDraft, b: SiteDraft): boolean {
 
 /** The months as the API takes them (unchecked). */
 export function monthsFromDraft(months: readonly MonthDraft[]) {
-  return months.map((m) => ({ waterTemp_C: m.waterTemp_C, upstreamOxygen: { value: m.oxygenValue, unit: m.oxygenUnit } }))
+  return months.map((m) => ({
+    waterTemp_C: m.waterTemp_C,
+    upstreamOxygen: { value: m.oxygenValue, unit: m.oxygenUnit, measured: m.oxygenMeasured },
+    flow_m3s: m.flow_m3s,
+  }))
+}
+
+/** The measured deficit ratio to send: none while its fields are all blank, else all of them (blanks for the schema to report). */
+function measuredRatioFromDraft(d: SiteDraft) {
+  const blank = d.measuredR === null && d.measuredTemp_C === null && !d.measuredDrowned && d.measuredNote.trim() === ''
+  return blank ? null : { r: d.measuredR, temperature_C: d.measuredTemp_C, drowned: d.measuredDrowned, note: d.measuredNote.trim() }
 }
 
 /** The overview fields as the API takes them (unchecked: blanks stay null for the schema to report). */
@@ -109,7 +149,14 @@ export function overviewFromDraft(d: SiteDraft) {
     location: d.lat === null && d.lng === null ? undefined : { lat: d.lat, lng: d.lng },
     reach: d.reach,
     altitude_m: d.altitude_m,
-    weir: { grossHead_m: d.grossHead_m, crestWidth_m: d.crestWidth_m, shape: d.shape, waterQuality: d.waterQuality },
+    weir: {
+      grossHead_m: d.grossHead_m,
+      crestWidth_m: d.crestWidth_m,
+      shape: d.shape,
+      waterQuality: d.waterQuality,
+      aerationModel: d.aerationModel,
+      measuredDeficitRatio: measuredRatioFromDraft(d),
+    },
     reservedFlow: d.reservedKind === 'fixed' ? { kind: 'fixed' as const, flow: d.reservedFlow } : { kind: 'percentile' as const, exceedance: d.reservedExceedance },
     catchment: bothAreasBlank ? null : { siteArea_km2: d.siteArea_km2, gaugeArea_km2: d.gaugeArea_km2 },
     targetOxygen_mgL: d.targetOxygen_mgL,

@@ -152,7 +152,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
     return {
       month: m + 1, name: MONTH_SHORT[m] ?? String(m + 1), temperature_C: c.tC, flow_m3s: flowInfo.flow, flowBasis: flowInfo.basis,
       curveBasis, closed: closed.has(m + 1),
-      upstreamOxygen_mgL: c.upstreamO2_mgL, downstreamWithout_mgL: fs.oxygen.withoutScheme_mgL, downstreamWith_mgL: fs.oxygen.withScheme_mgL,
+      upstreamOxygen_mgL: c.upstreamO2_mgL, upstreamMeasured: input.site.months[m]?.upstreamMeasured ?? true, downstreamWithout_mgL: fs.oxygen.withoutScheme_mgL, downstreamWith_mgL: fs.oxygen.withScheme_mgL,
       downstreamWithoutRange_mgL: fs.oxygen.withoutSchemeRange_mgL,
       downstreamFieldTransfer_mgL: fs.oxygen.withSchemeFieldTransfer_mgL, downstreamBubbleModel_mgL: fs.oxygen.withSchemeBubbleModel_mgL,
       upstreamSupersaturated: c.upstreamO2_mgL > fs.oxygen.saturation_mgL,

@@ -83,6 +83,8 @@ export interface MonthRow {
   /** True when the option's operating rule shuts every unit this month. */
   closed: boolean
   upstreamOxygen_mgL: number
+  /** False when the site marked this month's upstream oxygen as not measured (the value given was used). */
+  upstreamMeasured: boolean
   downstreamWithout_mgL: number
   downstreamWith_mgL: number
   /** Lowest and highest oxygen below the weir without the scheme across the weir aeration models, mg/L. */

@@ -39,6 +39,8 @@ export const MonthInputSchema = z.object({
   upstreamOxygen_mgL: num.min(0, 'must be 0 or more').max(30, 'must be 30 mg/L or less'),
   /** Month's flow, used with an entered FDC (a record gives its own). */
   flow_m3s: flow.optional(),
+  /** False when the upstream oxygen was not measured this month (the value given stands in). */
+  upstreamMeasured: z.boolean().default(true),
 })
 
 /** One entered FDC point, exceedance in % of time. */

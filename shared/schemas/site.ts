@@ -5,6 +5,7 @@
 // and the site forms. Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
+import type { WeirAerationModel } from '../engine/weirAeration'
 import { MAX_FLOW_M3S, areaRatioProblem } from './assess'
 import { IdSchema, NameSchema } from './common'
 import type { FlowRecordSummary } from './flowRecord'
@@ -28,6 +29,15 @@ export const WEIR_SHAPE_LABELS: Record<WeirShapeClass, string> = Object.fromEntr
 export const WATER_QUALITY_LABELS: Record<WaterQualityClass, string> = Object.fromEntries(
   WATER_QUALITIES.map((k) => [k, WATER_QUALITY_A[k].label]),
 ) as Record<WaterQualityClass, string>
+
+/** The weir aeration models the engine offers (shared/engine/weirAeration.ts). */
+export const WEIR_AERATION_MODELS = ['butts-evans', 'avery-novak', 'measured'] as const satisfies readonly WeirAerationModel[]
+/** Plain labels for the select box and the results. */
+export const WEIR_AERATION_MODEL_LABELS: Record<WeirAerationModel, string> = {
+  'butts-evans': 'Butts & Evans (1983)',
+  'avery-novak': 'Avery & Novak (1978)',
+  'measured': 'Measured deficit ratio',
+}
 
 export const OXYGEN_UNITS = ['mg/L', '%sat'] as const
 export type OxygenUnit = (typeof OXYGEN_UNITS)[number]
@@ -64,7 +74,7 @@ export const WeirSchema = z.object({
   shape: z.enum(WEIR_SHAPES, { error: `must be one of ${WEIR_SHAPES.join(', ')}` }),
   waterQuality: z.enum(WATER_QUALITIES, { error: `must be one of ${WATER_QUALITIES.join(', ')}` }),
   /** Which weir aeration model the figures use (the others are shown as a range beside it); left out: Butts & Evans. */
-  aerationModel: z.enum(['butts-evans', 'avery-novak', 'measured'], { error: 'must be one of butts-evans, avery-novak, measured' }).optional(),
+  aerationModel: z.enum(WEIR_AERATION_MODELS, { error: `must be one of ${WEIR_AERATION_MODELS.join(', ')}` }).optional(),
   /** A deficit ratio measured below this weir, with the water temperature and whether the weir was drowned then. */
   measuredDeficitRatio: z.object({
     r: z.number({ error: 'must be a number' }).min(1, 'must be 1 or more (1 means no aeration)').max(100, 'must be 100 or less'),
@@ -109,6 +119,8 @@ export const OxygenReadingSchema = z
   .object({
     value: nonNegative,
     unit: z.enum(OXYGEN_UNITS, { error: "must be 'mg/L' or '%sat'" }),
+    /** False when nobody measured it this month: the value stands in (and is used) all the same. Left out: measured. */
+    measured: z.boolean({ error: 'must be true or false' }).default(true),
   })
   .superRefine((o, ctx) => {
     const max = o.unit === 'mg/L' ? 30 : 300
@@ -119,6 +131,11 @@ export const OxygenReadingSchema = z
 export const MonthSchema = z.object({
   waterTemp_C: num.min(0, 'must be 0 °C or more').max(40, 'must be 40 °C or less'),
   upstreamOxygen: OxygenReadingSchema,
+  /**
+   * The month's mean flow, m³/s: with the other eleven, the seasonal profile that shapes an entered
+   * FDC month by month (ignored with a daily record). Null or left out: not entered.
+   */
+  flow_m3s: flow.nullable().optional(),
 })
 
 /** Twelve months, January first. */
@@ -217,7 +234,8 @@ export type Reach = z.infer<typeof ReachSchema>
 export type Weir = z.infer<typeof WeirSchema>
 export type HeadRow = z.infer<typeof HeadRowSchema>
 export type ReservedFlow = z.infer<typeof ReservedFlowSchema>
-export type Month = z.infer<typeof MonthSchema>
+/** A stored month: sites stored before a field came lack it (no `measured`: measured; no `flow_m3s`: not entered). */
+export type Month = z.input<typeof MonthSchema>
 export type Catchment = z.infer<typeof CatchmentSchema>
 export type FdcPointInput = z.infer<typeof FdcPointSchema>
 export type HydrologySource = 'record' | 'points' | 'none'

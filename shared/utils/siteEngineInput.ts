@@ -46,6 +46,15 @@ export function upstreamOxygenMgL(reading: Month['upstreamOxygen'], waterTemp_C:
 }
 
 /**
+ * The twelve month flows when every one is entered, else null: the engine shapes an entered curve
+ * only by a whole profile, so a partial one is passed as none.
+ */
+function seasonalProfile(months: readonly Month[]): number[] | null {
+  const flows = months.map((m) => m.flow_m3s)
+  return flows.length === 12 && flows.every((q): q is number => typeof q === 'number') ? flows : null
+}
+
+/**
  * The site's part of the engine input. Hydrology: the daily record when there is one (its own area
  * ratio as gaugeScaling), else the entered FDC points (the site's catchment ratio as gaugeScaling).
  * Throws SiteNotReadyError naming the field when the site cannot be assessed yet.
@@ -67,15 +76,19 @@ export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null
   }
   if (site.months.length !== 12) throw new SiteNotReadyError('site.months', 'needs 12 months, January first')
   const salinity = DEFAULTS.salinity.value
+  const profile = seasonalProfile(site.months)
   return {
     site: {
       altitude_m: site.altitude_m,
       grossHead_m: site.weir.grossHead_m,
       headTable: site.headTable.map((r) => ({ flow_m3s: r.flow, head_m: r.head })),
       salinity_gkg: salinity,
-      months: site.months.map((m) => ({
+      months: site.months.map((m, i) => ({
         temperature_C: m.waterTemp_C,
         upstreamOxygen_mgL: upstreamOxygenMgL(m.upstreamOxygen, m.waterTemp_C, site.altitude_m, salinity),
+        // Sites stored before the flag came have none: their readings count as measured.
+        upstreamMeasured: m.upstreamOxygen.measured ?? true,
+        ...(profile ? { flow_m3s: profile[i] } : {}),
       })),
       waterQuality: site.weir.waterQuality,
       weirShape: site.weir.shape,

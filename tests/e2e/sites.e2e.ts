@@ -299,9 +299,9 @@ async function engineerJourney(browser: Browser) {
   await page.click('[data-testid=site-months-form] [data-testid=save]')
   await page.waitForSelector('[data-testid=site-months-form] [data-testid=saved]')
   const monthsCsv = await downloadOf(page, '[data-testid=months-csv]')
-  assert.equal(monthsCsv.lines[0], 'month,water_temp_c,upstream_oxygen_value,upstream_oxygen_unit')
-  assert.equal(monthsCsv.lines[1], 'January,10,11.2,mg/L')
-  assert.equal(monthsCsv.lines[7], 'July,17.5,100,%sat')
+  assert.equal(monthsCsv.lines[0], 'month,water_temp_c,upstream_oxygen_value,upstream_oxygen_unit,upstream_oxygen_measured,mean_flow_m3s')
+  assert.equal(monthsCsv.lines[1], 'January,10,11.2,mg/L,yes,')
+  assert.equal(monthsCsv.lines[7], 'July,17.5,100,%sat,yes,')
   await shot(page, '10-months')
 
   // Attachments: upload with progress, list, refuse a non-image, remove.
@@ -327,6 +327,45 @@ async function engineerJourney(browser: Browser) {
   assert.equal(await page.locator('[data-testid=site-table] a', { hasText: 'Thornwaite sluice' }).count(), 0)
   await page.context().close()
   return siteId
+}
+
+/** The engineer enters a seasonal profile of 12 month mean flows on a demo FDC site and saves it. */
+async function seasonalProfileJourney(browser: Browser) {
+  const page = await openPage(browser)
+  await signIn(page, ENGINEER)
+  await page.locator('[data-testid=site-table] tbody a', { hasText: 'Skelby gauging weir' }).click()
+  await page.waitForSelector('[data-testid=tab-months]')
+  await page.click('[data-testid=tab-months]')
+  await page.waitForSelector('[data-testid=months-table]')
+  assert.equal(await page.inputValue('#f-months-0-flow_m3s'), '12', 'the demo profile is shown, January first')
+  assert.match(await page.innerText('[data-testid=months-flow-hint]'), /shape an entered flow-duration curve.*ignored when the site has a daily record/s)
+
+  // A gap is said to stop the profile; a negative flow is refused, naming the month's field.
+  await page.fill('#f-months-7-flow_m3s', '')
+  await page.waitForFunction(() => /11 of 12 entered/.test(document.querySelector('[data-testid=months-flow-hint]')?.textContent ?? ''))
+  const flows = [14, 12.5, 10, 7.5, 5, 3.2, 2.5, 2.2, 3, 6.5, 10, 13]
+  for (const [i, q] of flows.entries()) await page.fill(`#f-months-${i}-flow_m3s`, i === 3 ? '-4' : String(q))
+  await page.click('[data-testid=site-months-form] [data-testid=save]')
+  assert.match(await page.innerText('#f-months-3-flow_m3s-error'), /0 or more/)
+  await page.fill('#f-months-3-flow_m3s', '7.5')
+  // One month's oxygen was not measured: the value stands, marked.
+  await page.click('[data-testid=month-measured-0]')
+  await page.waitForSelector('[data-testid=month-not-measured-0]')
+  await page.click('[data-testid=site-months-form] [data-testid=save]')
+  await page.waitForSelector('[data-testid=site-months-form] [data-testid=saved]')
+  await shot(page, '10b-seasonal-profile')
+
+  // Stored as entered, and shown again after a fresh load.
+  const id = Number(/\/sites\/(\d+)/.exec(page.url())?.[1])
+  const stored = await page.evaluate(async (siteId) => (await (await fetch(`/api/sites/${siteId}`)).json()) as { months: { flow_m3s: number, upstreamOxygen: { measured: boolean } }[] }, id)
+  assert.deepEqual(stored.months.map((m) => m.flow_m3s), flows)
+  assert.deepEqual(stored.months.map((m) => m.upstreamOxygen.measured), flows.map((_, i) => i !== 0))
+  await page.goto(page.url())
+  await page.click('[data-testid=tab-months]')
+  await page.waitForSelector('[data-testid=months-table]')
+  assert.equal(await page.inputValue('#f-months-11-flow_m3s'), '13')
+  assert.equal(await page.locator('[data-testid=month-not-measured-0]').count(), 1)
+  await page.context().close()
 }
 
 async function viewerJourney(browser: Browser) {
@@ -370,6 +409,7 @@ async function adminRestores(browser: Browser, siteId: number) {
 
 await runJourney('sites', async (browser) => {
   const siteId = await engineerJourney(browser)
+  await seasonalProfileJourney(browser)
   await viewerJourney(browser)
   await adminRestores(browser, siteId)
 })

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { DEMO_SITES, demoDailyFlows } from '../../../db/demo-scenario'
 import { fdcFromPoints, fdcFromRecord, fdcStats, scaleFdcByAreaRatio } from '../../../shared/engine/hydrology'
 import { SiteInputSchema } from '../../../shared/schemas/site'
+import { siteToEngine } from '../../../shared/utils/siteEngineInput'
 
 describe('demo sites on the Brackwin Water', () => {
   it('are valid site inputs on one invented river, with heads of 1.2–3 m', () => {
@@ -16,6 +17,16 @@ describe('demo sites on the Brackwin Water', () => {
     expect(DEMO_SITES.filter((d) => d.record)).toHaveLength(1)
     expect(DEMO_SITES.filter((d) => !d.record && d.site.fdcPoints.length >= 3)).toHaveLength(2)
     expect(DEMO_SITES.filter((d) => d.site.headTable.length > 0)).toHaveLength(1)
+  })
+
+  it('give Skelby gauging weir a seasonal profile, wetter in winter, and mark Cragg Foot drop\'s winter oxygen as not measured', () => {
+    const bySite = (name: string) => DEMO_SITES.find((d) => d.site.name === name)!.site
+    const skelby = siteToEngine(bySite('Skelby gauging weir'), null).site.months.map((m) => m.flow_m3s!)
+    expect(skelby).toHaveLength(12)
+    expect(Math.min(skelby[0]!, skelby[1]!, skelby[11]!)).toBeGreaterThan(Math.max(skelby[5]!, skelby[6]!, skelby[7]!))
+    const cragg = siteToEngine(bySite('Cragg Foot drop'), null).site.months
+    expect(cragg.map((m) => m.upstreamMeasured)).toEqual([false, false, true, true, true, true, true, true, true, true, true, false])
+    expect(cragg.every((m) => m.flow_m3s === undefined)).toBe(true)
   })
 
   it('have mean flows of 2–12 m³/s', () => {

@@ -88,7 +88,45 @@ describe('site draft', () => {
     form.draft.months[6]!.oxygenValue = 9.5
     const body = form.toBody()
     expect(Object.keys(body!).sort()).toEqual(['months', 'version'])
-    expect(body!.months?.[6]).toEqual({ waterTemp_C: 10, upstreamOxygen: { value: 9.5, unit: 'mg/L' } })
+    expect(body!.months?.[6]).toEqual({ waterTemp_C: 10, upstreamOxygen: { value: 9.5, unit: 'mg/L', measured: true }, flow_m3s: null })
+  })
+
+  it('sends the month flows and a not-measured mark, and names a bad flow months.N.flow_m3s', () => {
+    const form = sectionForm(storedSite(), monthsBody)
+    form.draft.months.forEach((m, i) => { m.flow_m3s = 3 + i })
+    form.draft.months[0]!.oxygenMeasured = false
+    form.draft.months[2]!.flow_m3s = -1
+    expect(form.toBody()).toBeNull()
+    expect(form.errors.value['months.2.flow_m3s']).toBe('must be 0 or more')
+    form.draft.months[2]!.flow_m3s = 5
+    const body = form.toBody()
+    expect(body!.months?.map((m) => m.flow_m3s)).toEqual([3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14])
+    expect(body!.months?.[0]!.upstreamOxygen.measured).toBe(false)
+    expect(body!.months?.[1]!.upstreamOxygen.measured).toBe(true)
+  })
+
+  it('keeps the weir aeration model and measured ratio in the overview body, and names a bad ratio', () => {
+    const form = sectionForm(storedSite(), overviewBody)
+    expect(form.toBody()!.weir).toMatchObject({ aerationModel: 'butts-evans', measuredDeficitRatio: null })
+    form.draft.aerationModel = 'measured'
+    expect(form.toBody()).toBeNull()
+    expect(form.errors.value['weir.measuredDeficitRatio']).toBe('is needed when the aeration model is "measured"')
+    Object.assign(form.draft, { measuredR: 0.5, measuredTemp_C: 12, measuredDrowned: true, measuredNote: ' June, low flow ' })
+    expect(form.toBody()).toBeNull()
+    expect(form.errors.value['weir.measuredDeficitRatio.r']).toBe('must be 1 or more (1 means no aeration)')
+    form.draft.measuredR = 1.8
+    expect(form.toBody()!.weir).toEqual({
+      grossHead_m: 2.1, crestWidth_m: 14, shape: 'sharp-crested-vertical-face', waterQuality: 'clean',
+      aerationModel: 'measured', measuredDeficitRatio: { r: 1.8, temperature_C: 12, drowned: true, note: 'June, low flow' },
+    })
+  })
+
+  it('reads a site stored before month flows and the measured mark as measured, no flows, and unchanged', () => {
+    const stored = storedSite()
+    const old = { ...stored, months: stored.months.map((m) => ({ waterTemp_C: m.waterTemp_C, upstreamOxygen: { value: m.upstreamOxygen.value, unit: m.upstreamOxygen.unit } })) }
+    const form = sectionForm(old, monthsBody)
+    expect(form.draft.months.every((m) => m.oxygenMeasured && m.flow_m3s === null)).toBe(true)
+    expect(form.dirty.value).toBe(false)
   })
 
   it('round-trips a stored site and tracks unsaved changes, the head rows by their text', () => {
