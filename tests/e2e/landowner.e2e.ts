@@ -79,7 +79,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   const review = await page.innerText('[data-testid=summary-review]')
   assert.match(review, /Accepted with conditions/)
   assert.match(review, /decided \d{1,2} [A-Z][a-z]+ \d{4}/)
-  assert.ok(review.includes('Hold the units off in June and September'), 'the conditions are shown')
+  assert.ok(review.includes('Hold the units off from June to September'), 'the conditions are shown')
   assert.match(review, /not a planning permission or a regulator's consent/)
   assert.match(await page.innerText('[data-testid=summary-contact]'), /Prepared by Idris Penrose of Tarn & Beck Renewables/)
 

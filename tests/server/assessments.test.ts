@@ -39,7 +39,7 @@ describe('POST /api/options/[id]/assessments', () => {
     // The stored input is the engine's, defaults filled in, built from the site (sites-helpers siteBody).
     expect(first.input.hydrology).toEqual({ kind: 'fdc', points: [{ exceedance: 5, flow: 20 }, { exceedance: 50, flow: 4 }, { exceedance: 95, flow: 0.8 }] })
     expect(first.input.site).toMatchObject({ altitude_m: 120, grossHead_m: 2.1, weirShape: 'sharp-crested-vertical-face', waterQuality: 'clean' })
-    expect(first.input.site.months[3]).toEqual({ temperature_C: 9, upstreamOxygen_mgL: 9.25 })
+    expect(first.input.site.months[3]).toEqual({ temperature_C: 9, upstreamOxygen_mgL: 9.25, upstreamMeasured: true })
     expect(first.input.option).toMatchObject({ units: 2, throatDiameter_m: 0.5, constriction: 'venturi' })
     expect(typeof first.input.settings.availability).toBe('number')
     expect(first.input.settings.oxygenTarget_mgL).toBe(6)

@@ -77,15 +77,12 @@ describe('words for the per-flow and month tables', () => {
     expect(regimeText('spilling')).toBe('units full, the rest spills')
     expect(regimeText('head-limited')).toBe('units full, the rest spills')
     expect(regimeText('flow-limited')).toBe('units take all the flow')
-    const reasons: Record<ShutReason, string> = {
-      'too-little-flow': 'not enough water to feed a unit at the pool level',
-      'no-suction': 'would draw no air',
-      'below-cut-in': 'below turbine cut-in',
-      'closed-month': 'closed month',
-      'river-first': 'shut for the river',
-      'no-head': 'no head',
-    }
-    expect(SHUT_REASON_WORDS).toEqual(reasons)
+    // every reason the engine can give has its own plain words (no code shown to the user)
+    const all: ShutReason[] = ['too-little-flow', 'no-suction', 'below-cut-in', 'closed-month', 'river-first', 'no-head']
+    const words = all.map((r) => shutReasonText(r))
+    expect(new Set(words).size).toBe(all.length)
+    for (const [i, w] of words.entries()) expect(w, all[i]).not.toBe(all[i])
+    expect(Object.keys(SHUT_REASON_WORDS).sort()).toEqual([...all].sort())
     expect(shutReasonText('closed-month')).toBe('closed month')
     expect(shutReasonText(null)).toBe('–')
     expect(shutReasonText(undefined)).toBe('–')
