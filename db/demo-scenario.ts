@@ -1,3 +1,4 @@
+// Longer than most files: the whole invented demo scenario (people, sites, options, review) in one place.
 import type { SiteInput } from '../shared/schemas/site'
 import type { OptionInputDraft } from '../shared/schemas/option'
 import type { Role } from '../shared/utils/roles'

@@ -1,3 +1,4 @@
+// Longer than most files: the CSV rules (separators, date forms, gaps, flags, columns) are one job, each with its refusal.
 // Reading a gauged daily flow record from CSV text: pure, no Nitro, no database, so it is unit-tested
 // in tests/unit/sites/. The route (server/api/sites/[id]/flow-record.post.ts) does the rest.
 //

@@ -1,3 +1,4 @@
+// Longer than most files: the path (diffuser, rise), the exact exchange step and the gas bookkeeping belong together.
 // Oxygen and nitrogen exchange between one unit's bubbles and its water: a discrete-bubble model in the
 // style of McGinnis & Little (2002) and Wüest, Brooks & Imboden (1992), followed from the throat through
 // the diffuser and up through the tail pool; plus total dissolved gas before and after mixing.

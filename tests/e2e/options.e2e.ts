@@ -1,3 +1,4 @@
+// Longer than most files: one journey through every option screen, in the order a person takes them.
 // Browser journey of the project engineer through design options, results, the design sweep and the
 // comparison, against a running, seeded server. `npm test` runs it through scripts/e2e.mjs (its own
 // server on a fresh demo database); by hand:

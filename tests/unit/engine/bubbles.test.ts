@@ -1,3 +1,4 @@
+// Longer than most files: each published behaviour of the bubble model is checked with its source, plus properties.
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import {
