@@ -48,7 +48,7 @@ export const DEFAULT_PORTFOLIO_COLUMNS: PortfolioColumn[] = [
     value: (r) => { const v = of(r, (l) => l.lcoe); return v === null ? 'no cost entered' : fixed(v, 0) },
   },
   {
-    key: 'flags', label: 'Safety flags raised', unit: 'count', sort: 'flagsRaised', numeric: true, figure: true,
+    key: 'flags', label: 'Flags raised', unit: 'count', sort: 'flagsRaised', numeric: true, figure: true,
     value: (r) => String(of(r, (l) => l.flagsRaised.length)),
     title: (r) => (r.latest?.flagsRaised.length ? r.latest.flagsRaised.join(', ') : undefined),
   },
