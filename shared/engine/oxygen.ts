@@ -136,21 +136,9 @@ export function diffuserLength(throatDiameter_m: number, outletDiameter_m: numbe
   return t > 0 ? Math.max(0, outletDiameter_m - throatDiameter_m) / (2 * t) : 0
 }
 
-/** One stream in a mix. */
-export interface Stream {
-  flow_m3s: number
-  conc_mgL: number
-}
-
-/** Flow-weighted mix ΣQC/ΣQ, mg/L (mass balance); the fallback when no water flows. */
-export function mixStreams(streams: ReadonlyArray<Stream>, fallback_mgL: number): number {
-  let q = 0
-  let m = 0
-  for (const s of streams) {
-    if (s.flow_m3s > 0) {
-      q += s.flow_m3s
-      m += s.flow_m3s * s.conc_mgL
-    }
-  }
-  return q > 0 ? m / q : fallback_mgL
+/** Two streams mixed by flow weight, (Q₁C₁ + Q₂C₂)/(Q₁ + Q₂), mg/L (mass balance); a stream without flow counts as none, and with no water at all the fallback stands. */
+export function mixTwoStreams(q1: number, c1: number, q2: number, c2: number, fallback_mgL: number): number {
+  const a = q1 > 0 ? q1 : 0
+  const b = q2 > 0 ? q2 : 0
+  return a + b > 0 ? (a * c1 + b * c2) / (a + b) : fallback_mgL
 }

@@ -3,7 +3,7 @@
 // the weir's own aeration of the water still passing over it (weirAeration.ts: the chosen model and
 // the range between models), the mix below the weir, and the total dissolved gas before and after it.
 import { dissolvedGasState, bubbleTransfer, mixDissolvedGas, type BubbleTransferResult } from './bubbles'
-import { downstreamFromDeficitRatio, fieldTransfer, WATER_QUALITY_A, WEIR_SHAPE_B, type TransferResult } from './oxygen'
+import { downstreamFromDeficitRatio, fieldTransfer, mixTwoStreams, WATER_QUALITY_A, WEIR_SHAPE_B, type TransferResult } from './oxygen'
 import { nitrogenSaturation, oxygenSaturation } from './oxygenSaturation'
 import { circleArea } from './venturi'
 import { waterDensity } from './water'
@@ -66,13 +66,6 @@ function weirModels(s: Scheme, overWeir_m3s: number, fall_m: number, tC: number)
   })
 }
 
-/** Two streams mixed by flow weight, mg/L (mass balance; mixStreams for two without building a list). */
-function mixTwo(q1: number, c1: number, q2: number, c2: number, fallback: number): number {
-  const a = q1 > 0 ? q1 : 0
-  const b = q2 > 0 ? q2 : 0
-  return a + b > 0 ? (a * c1 + b * c2) / (a + b) : fallback
-}
-
 /** Oxygen and dissolved gas below the scheme at one power state: units, weir, mix, net gain. */
 export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
   const site = s.input.site
@@ -94,8 +87,8 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
   const { field, bubble } = unitSide(s, ps, c, n2Up)
   const unitBubbleO2 = unitsQ > 0 ? bubble.surface.o2_mgL : c.upstreamO2_mgL
   const unitBubbleN2 = unitsQ > 0 ? bubble.surface.n2_mgL : n2Up
-  const withField = mixTwo(unitsQ, field.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
-  const withBubble = mixTwo(unitsQ, unitBubbleO2, weirQ, weirStream, c.upstreamO2_mgL)
+  const withField = mixTwoStreams(unitsQ, field.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
+  const withBubble = mixTwoStreams(unitsQ, unitBubbleO2, weirQ, weirStream, c.upstreamO2_mgL)
   const withScheme = st.oxygenMethod === 'field-transfer' ? withField : withBubble
   const unitGas = unitsQ > 0 ? bubble.surface : dissolvedGasState(c.upstreamO2_mgL, n2Up, c.tC, s.p_atm, site.salinity_gkg)
   const mixed = mixDissolvedGas([

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import {
   downstreamFromDeficitRatio, exponentialApproach, fieldTransfer,
-  mixStreams, oxygenSupply, unitSaturation,
+  mixTwoStreams, oxygenSupply, unitSaturation,
   WATER_QUALITY_A, WEIR_SHAPE_B, weirDeficitRatio,
 } from '../../../shared/engine/oxygen'
 import { oxygenSaturation } from '../../../shared/engine/oxygenSaturation'
@@ -99,7 +99,9 @@ describe('field transfer (ASCE/EWRI 2-06 form)', () => {
 describe('mixing', () => {
   it('mixes by flow weight (mass balance)', () => {
     // (1·8 + 3·6)/4 = 6.5 mg/L
-    expect(mixStreams([{ flow_m3s: 1, conc_mgL: 8 }, { flow_m3s: 3, conc_mgL: 6 }], 0)).toBeCloseTo(6.5, 12)
-    expect(mixStreams([{ flow_m3s: 0, conc_mgL: 8 }], 7.2)).toBe(7.2)
+    expect(mixTwoStreams(1, 8, 3, 6, 0)).toBeCloseTo(6.5, 12)
+    // no water: the fallback; one stream dry: the other alone
+    expect(mixTwoStreams(0, 8, 0, 6, 7.2)).toBe(7.2)
+    expect(mixTwoStreams(0, 8, 2, 6, 7.2)).toBe(6)
   })
 })
