@@ -4,7 +4,7 @@ import type { AssessInput } from '../schemas/assess'
 import { defaultsUsed } from './defaultsUsed'
 import type { AnnualEnergy } from './energy'
 import {
-  exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, monthOfDay, reservedFlow,
+  exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, reservedFlow,
   scaleFdcByAreaRatio, scaleRecordByAreaRatio,
 } from './hydrology'
 import { moneySummary } from './money'
@@ -31,21 +31,17 @@ function siteHydrology(input: AssessInput): SiteHydrology {
   return { fdc: sc ? scaleFdcByAreaRatio(fdc, sc.siteArea_km2, sc.gaugeArea_km2) : fdc, days: null }
 }
 
-/** The month table's flow for each month: the record's mean for the month, else the median of the month's curve. */
+/**
+ * The month table's flow for each month: a record's mean for the month (the mean of the month's own
+ * curve, which holds exactly that month's days), else the median of the month's curve, else the annual median.
+ */
 function monthFlows(h: SiteHydrology, curves: readonly MonthCurve[]): Array<{ flow: number, basis: MonthRow['flowBasis'] }> {
   const q50 = flowAtExceedance(h.fdc, 50)
-  if (h.days) {
-    const sum = new Array<number>(12).fill(0)
-    const n = new Array<number>(12).fill(0)
-    h.days.forEach((d, i) => {
-      if (d.flow === null) return
-      const m = monthOfDay(d.date, i, 'hydrology.days') - 1
-      sum[m] = (sum[m] ?? 0) + d.flow
-      n[m] = (n[m] ?? 0) + 1
-    })
-    return sum.map((s, m) => ((n[m] ?? 0) > 0 ? { flow: s / (n[m] ?? 1), basis: 'record-mean' as const } : { flow: q50, basis: 'annual-q50' as const }))
-  }
-  return curves.map((c) => (c.basis === 'seasonal-profile' ? { flow: flowAtExceedance(c.curve, 50), basis: 'profile-median' as const } : { flow: q50, basis: 'annual-q50' as const }))
+  return curves.map((c) => {
+    if (c.basis === 'record') return { flow: c.curve.meanFlow, basis: 'record-mean' as const }
+    if (c.basis === 'seasonal-profile') return { flow: flowAtExceedance(c.curve, 50), basis: 'profile-median' as const }
+    return { flow: q50, basis: 'annual-q50' as const }
+  })
 }
 
 /** Mean annual conditions: the mean of the twelve months' temperature and upstream oxygen (month 0: never a closed month). */
