@@ -141,6 +141,12 @@ export interface YearJudgement {
   basis: string
 }
 
+/** Count a raised flag: its share of the year grows by the cell's weight, and the month lists it. */
+function raise(tallies: YearJudgement['tallies'], monthFlags: Set<FlagId>, id: Exclude<FlagId, 'never-runs'>, weight: number): void {
+  tallies[id].share += weight
+  monthFlags.add(id)
+}
+
 /** Keep the lower (or higher) value with when it happened. */
 function track(t: Tally, value: number, unit: string, lower: boolean, month: number, f: FlowState, exceedance: number): void {
   if (t.worst === null || (lower ? value < t.worst.value : value > t.worst.value)) {
@@ -181,10 +187,6 @@ export function judgeYear(s: Scheme, months: readonly Conditions[], curves: read
       const p = grid[i] as number
       const f = flowState(s, flows[i] as number, c)
       const o = f.oxygen
-      const raise = (id: Exclude<FlagId, 'never-runs'>): void => {
-        tallies[id].share += w
-        m.flags.add(id)
-      }
       meanGain += o.netGain_mgL * w
       airSum += f.airFlow_m3s * w
       airPeak = Math.max(airPeak, f.airFlow_m3s)
@@ -196,22 +198,22 @@ export function judgeYear(s: Scheme, months: readonly Conditions[], curves: read
         if (worstTdg === null || o.unitTdg > worstTdg.oxygen.unitTdg) worstTdg = f
         if (f.cavitationIndex !== null) minSigma = minSigma === null ? f.cavitationIndex : Math.min(minSigma, f.cavitationIndex)
         track(tallies['cavitation'], f.cavitationMargin_m, 'm', true, month, f, p)
-        if (f.cavitationMargin_m < st.minCavitationMargin_m) raise('cavitation')
+        if (f.cavitationMargin_m < st.minCavitationMargin_m) raise(tallies, m.flags, 'cavitation', w)
         track(tallies['gas-supersaturation'], o.unitTdg * 100, '%', false, month, f, p)
         maxExcess = Math.max(maxExcess, o.unitGasExcess_mmHg)
         // the stricter of the two limits: % of saturation, or excess pressure ΔP (REFERENCES §13)
-        if (o.unitTdg > st.tdgLimit || o.unitGasExcess_mmHg > st.tdgExcessLimit_mmHg) raise('gas-supersaturation')
+        if (o.unitTdg > st.tdgLimit || o.unitGasExcess_mmHg > st.tdgExcessLimit_mmHg) raise(tallies, m.flags, 'gas-supersaturation', w)
       }
       track(tallies['net-oxygen-loss'], o.netGain_mgL, 'mg/L', true, month, f, p)
       if (o.netGain_mgL < -st.acceptableOxygenLoss_mgL) {
-        raise('net-oxygen-loss')
+        raise(tallies, m.flags, 'net-oxygen-loss', w)
         m.lossShare += 1 / grid.length
       }
       track(tallies['oxygen-below-target'], o.withScheme_mgL, 'mg/L', true, month, f, p)
       if (o.withScheme_mgL < st.oxygenTarget_mgL) {
-        raise('oxygen-below-target')
+        raise(tallies, m.flags, 'oxygen-below-target', w)
         if (o.netGain_mgL < -NET_LOSS_TOLERANCE_mgL) {
-          raise('scheme-below-target')
+          raise(tallies, m.flags, 'scheme-below-target', w)
           track(tallies['scheme-below-target'], o.withScheme_mgL, 'mg/L', true, month, f, p)
         }
       }
