@@ -4,15 +4,15 @@ import type { AssessInput } from '../schemas/assess'
 import { defaultsUsed } from './defaultsUsed'
 import type { AnnualEnergy } from './energy'
 import {
-  exceedanceGrid, fdcFromPoints, fdcFromRecord, fdcStats, flowAtExceedance, reservedFlow,
-  scaleFdcByAreaRatio, scaleRecordByAreaRatio,
+  exceedanceGrid, fdcFromPoints, fdcStats, flowAtExceedance, readRecord, recordCurves, reservedFlow,
+  scaleFdcByAreaRatio, scaleSampleByAreaRatio,
 } from './hydrology'
 import { moneySummary } from './money'
-import { buildScheme, flowState, powerState, type Conditions, type FlowState, type Scheme } from './scheme'
+import { buildScheme, flowState, powerState, riverFirstState, type Conditions, type FlowState, type Scheme } from './scheme'
 import { buildFlags } from './flags'
 import type { AssessResult, MethodsComparison, ModeFigures, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { recoveredFraction, throatAreaRatio } from './venturi'
-import { judgeYear, monthCurves, yearEnergy, type MonthCurve, type SiteHydrology, type YearJudgement } from './year'
+import { judgeYear, monthCurves, yearEnergy, yearStates, type MonthCurve, type SiteHydrology, type YearJudgement, type YearStates } from './year'
 import { ENGINE_VERSION } from './version'
 import { MONTH_SHORT } from '../utils/months'
 
@@ -24,11 +24,13 @@ const mean = (xs: readonly number[]): number => (xs.length ? xs.reduce((s, x) =>
 function siteHydrology(input: AssessInput): SiteHydrology {
   const sc = input.gaugeScaling
   if (input.hydrology.kind === 'record') {
-    const days = sc ? scaleRecordByAreaRatio(input.hydrology.days, sc.siteArea_km2, sc.gaugeArea_km2) : input.hydrology.days
-    return { fdc: fdcFromRecord(days), days }
+    const read = readRecord(input.hydrology.days)
+    const sample = sc ? scaleSampleByAreaRatio(read, sc.siteArea_km2, sc.gaugeArea_km2) : read
+    const curves = recordCurves(sample)
+    return { fdc: curves.annual, record: { sample, monthCurves: curves.months } }
   }
   const fdc = fdcFromPoints(input.hydrology.points)
-  return { fdc: sc ? scaleFdcByAreaRatio(fdc, sc.siteArea_km2, sc.gaugeArea_km2) : fdc, days: null }
+  return { fdc: sc ? scaleFdcByAreaRatio(fdc, sc.siteArea_km2, sc.gaugeArea_km2) : fdc, record: null }
 }
 
 /**
@@ -69,20 +71,54 @@ function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
   }
 }
 
-/** One operating mode run over the year: its scheme, energy, whole-year judgement and the month table's states. */
+/** One operating mode run over the year: its scheme, energy, the states the year is judged at, the judgement and the month table's states. */
 interface YearRun {
   s: Scheme
   energy: AnnualEnergy
+  states: YearStates
   year: YearJudgement
   monthStates: FlowState[]
 }
 
-function runYear(input: AssessInput, reserved: number, annual: Conditions, monthCond: Conditions[], h: SiteHydrology, curves: MonthCurve[], flows: Array<{ flow: number }>): YearRun {
-  const s = buildScheme(input, reserved, annual)
-  const energy = yearEnergy(input, h, s, monthCond, curves)
-  const year = judgeYear(s, monthCond, curves)
-  const monthStates = flows.map((f, m) => flowState(s, f.flow, monthCond[m] ?? annual))
-  return { s, energy, year, monthStates }
+/** Inputs every run of one option shares, whatever its operating mode. */
+interface RunBasis {
+  reserved: number
+  annual: Conditions
+  monthCond: Conditions[]
+  h: SiteHydrology
+  curves: MonthCurve[]
+  flows: Array<{ flow: number }>
+}
+
+/**
+ * Run `input` over the year. A river-first run given the same option's energy-first run reuses every
+ * state the river test lets stand (riverFirstState): the two modes differ only where energy first
+ * would cost the river.
+ */
+function runYear(input: AssessInput, b: RunBasis, energyFirst?: YearRun): YearRun {
+  const s = buildScheme(input, b.reserved, b.annual)
+  const energy = yearEnergy(input, b.h, s, b.monthCond, b.curves)
+  const states = yearStates(s, b.monthCond, b.curves, energyFirst?.states)
+  const year = judgeYear(s, b.curves, states)
+  const monthStates = b.flows.map((f, m) => {
+    const c = b.monthCond[m] ?? b.annual
+    const e = energyFirst?.monthStates[m]
+    return e ? riverFirstState(s, e, c) : flowState(s, f.flow, c)
+  })
+  return { s, energy, states, year, monthStates }
+}
+
+/** The option's own run and the other mode's: the energy-first run first, so the river-first run can reuse its states. */
+function runBothModes(input: AssessInput, b: RunBasis, compareModes: boolean): { main: YearRun, other: YearRun } {
+  const riverFirst = input.option.operation.mode === 'river-first'
+  if (!compareModes) {
+    const main = runYear(input, b)
+    return { main, other: main }
+  }
+  const energyInput = riverFirst ? otherMode(input) : input
+  const e = runYear(energyInput, b)
+  const r = runYear(riverFirst ? input : otherMode(input), b, e)
+  return riverFirst ? { main: r, other: e } : { main: e, other: r }
 }
 
 function modeFigures(r: YearRun): ModeFigures {
@@ -130,8 +166,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   const monthCond = monthConditions(input)
   const curves = monthCurves(input, h)
   const flows = monthFlows(h, curves)
-  const main = runYear(input, reserved, annual, monthCond, h, curves, flows)
-  const other = options.compareModes === false ? main : runYear(otherMode(input), reserved, annual, monthCond, h, curves, flows)
+  const { main, other } = runBothModes(input, { reserved, annual, monthCond, h, curves, flows }, options.compareModes !== false)
   const { s, energy, year, monthStates } = main
   const rating_W = s.ratedPerUnit_W * o.units
   const closed = new Set(o.operation.closedMonths)
@@ -157,7 +192,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
       cavitationMargin_m: fs.unitsRunning > 0 ? fs.cavitationMargin_m : null, flags: ym.flags,
       runningShare: ym.runningShare, lossShare: ym.lossShare, worstNetGain_mgL: ym.worstNetGain_mgL,
       energy_MWh: energy.energyByMonth_MWh[m] ?? 0,
-      energyBasis: h.days ? 'record' : curveBasis === 'seasonal-profile' ? 'month-curve' : 'annual-curve',
+      energyBasis: h.record ? 'record' : curveBasis === 'seasonal-profile' ? 'month-curve' : 'annual-curve',
     }
   })
 
@@ -219,8 +254,8 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
       basis: year.basis,
     },
     hydrology: {
-      ...fdcStats(h.fdc), reservedFlow_m3s: reserved, basis: h.days ? 'record' : 'fdc',
-      daysWithData: h.days ? h.fdc.count : null,
+      ...fdcStats(h.fdc), reservedFlow_m3s: reserved, basis: h.record ? 'record' : 'fdc',
+      daysWithData: h.record ? h.fdc.count : null,
     },
     money,
     defaultsUsed: defaultsUsed(input),

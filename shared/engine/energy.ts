@@ -5,8 +5,8 @@
 import { HOURS_PER_YEAR } from './constants'
 import type { SourcedValue } from './defaults'
 import { EngineInputError, checkNumber } from './errors'
-import { exceedanceGrid, flowAtExceedance, monthOfDay } from './hydrology'
-import type { DailyFlow, Fdc } from './hydrology'
+import { exceedanceGrid, flowAtExceedance, readRecord } from './hydrology'
+import type { DailyFlow, Fdc, RecordSample } from './hydrology'
 
 /**
  * Electrical power P_e in W at river flow `flow` (m³/s) in calendar month `month` (1–12), or
@@ -90,21 +90,22 @@ export function annualEnergyFromRecord(
   powerAt: PowerAt,
   options: EnergyOptions,
 ): RecordEnergy {
+  return annualEnergyFromSample(readRecord(days), powerAt, options)
+}
+
+/** `annualEnergyFromRecord` over a record already read (its days with data, months and years). */
+export function annualEnergyFromSample(sample: RecordSample, powerAt: PowerAt, options: EnergyOptions): RecordEnergy {
   const { availability, rating_W } = readOptions(options)
-  if (!Array.isArray(days)) throw new EngineInputError('days', 'must be a list of days')
   const power = options.memoise === false ? checked(powerAt) : memoised(powerAt)
   const whByMonth = new Array<number>(12).fill(0)
   const daysByMonth = new Array<number>(12).fill(0)
-  let n = 0
-  days.forEach((d, i) => {
-    const q = d?.flow
-    if (q === null) return
-    if (!(typeof q === 'number' && q >= 0 && q < Infinity)) checkNumber(q, `days[${i}].flow`, { min: 0 })
-    const m = monthOfDay(d.date, i)
-    whByMonth[m - 1] = (whByMonth[m - 1] as number) + power(q, m) * 24
+  const { flows, months } = sample
+  const n = flows.length
+  for (let i = 0; i < n; i++) {
+    const m = months[i] as number
+    whByMonth[m - 1] = (whByMonth[m - 1] as number) + power(flows[i] as number, m) * 24
     daysByMonth[m - 1] = (daysByMonth[m - 1] as number) + 1
-    n++
-  })
+  }
   if (n === 0) throw new EngineInputError('days', 'the record has no days with flow data')
   const years = n / DAYS_PER_YEAR
   const toMWhPerYear = availability / years / 1e6

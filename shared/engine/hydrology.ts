@@ -27,15 +27,15 @@ export type FdcInterpolation = 'log-linear' | 'linear'
 /**
  * A flow-duration curve: nodes sorted by exceedance; flow is non-increasing.
  * Outside the first and last node the flow is held at the end value (no extrapolation).
- * Plain arrays, so a curve survives JSON.
+ * A record's curve holds its nodes in typed arrays (one node a day: a century is 36,525 of them).
  */
 export interface Fdc {
   /** Where the curve came from. */
   readonly kind: 'points' | 'record'
   /** Exceedance of each node, %, strictly increasing within 0–100. */
-  readonly exceedance: readonly number[]
+  readonly exceedance: ArrayLike<number>
   /** Flow at each node, m³/s, non-increasing. */
-  readonly flow: readonly number[]
+  readonly flow: ArrayLike<number>
   /** 'log-linear' for entered points, 'linear' (Hyndman & Fan type 6) for a record. */
   readonly interpolation: FdcInterpolation
   /** Mean flow, m³/s: the record's arithmetic mean, or the exact integral of the entered curve. */
@@ -93,6 +93,11 @@ export function monthOf(date: unknown, field = 'date'): number {
 /** Month of `list[index].date`, naming that path only when the date is bad (no string built per day). */
 export function monthOfDay(date: unknown, index: number, list = 'days'): number {
   return quickMonth(date) || monthOf(date, `${list}[${index}].date`)
+}
+
+/** Calendar year of a date `monthOfDay` has accepted. */
+function yearOf(date: string): number {
+  return digit(date, 0) * 1000 + digit(date, 1) * 100 + digit(date, 2) * 10 + digit(date, 3)
 }
 
 /** The decimal digit at `i`, or NaN when that character is not a digit. */
@@ -183,29 +188,105 @@ export function fdcStats(fdc: Fdc): FdcStats {
   }
 }
 
+/**
+ * A daily record read once: the flows of the days with data, in record order, with each day's
+ * calendar month and year. Every later pass (curves, energy, year by year) reads these typed arrays
+ * instead of the day objects again.
+ */
+export interface RecordSample {
+  /** Flow of each day with data, m³/s. */
+  readonly flows: Float64Array
+  /** Its calendar month, 1–12. */
+  readonly months: Uint8Array
+  /** Its calendar year. */
+  readonly years: Uint16Array
+}
+
+/** Read a record's days with data: flows checked finite and ≥ 0, dates checked YYYY-MM-DD (gaps skipped unchecked). */
+export function readRecord(days: readonly DailyFlow[], path = 'days'): RecordSample {
+  if (!Array.isArray(days)) throw new EngineInputError(path, 'must be a list of days')
+  const n = days.length
+  const flows = new Float64Array(n)
+  const months = new Uint8Array(n)
+  const years = new Uint16Array(n)
+  let k = 0
+  for (let i = 0; i < n; i++) {
+    const d = days[i] as DailyFlow
+    const q = dayFlow(d, i, path)
+    if (q === null) continue
+    months[k] = monthOfDay(d.date, i, path)
+    years[k] = yearOf(d.date)
+    flows[k++] = q
+  }
+  return { flows: flows.subarray(0, k), months: months.subarray(0, k), years: years.subarray(0, k) }
+}
+
+/** A record moved to the site by Q_site = Q_gauge · A_site / A_gauge, day by day (area-ratio method, common practice). */
+export function scaleSampleByAreaRatio(sample: RecordSample, siteArea: number, gaugeArea: number): RecordSample {
+  const r = areaRatio(siteArea, gaugeArea)
+  return { ...sample, flows: sample.flows.map((q) => q * r) }
+}
+
+/** The annual curve of a record: Weibull over every day with data (Weibull 1939). */
+export function recordCurve(sample: RecordSample): Fdc {
+  return fdcFromSample(sample.flows.slice(), 'days')
+}
+
+/**
+ * A record's annual curve and its twelve month curves, January first (null for a month with no
+ * data), each by Weibull over its days (Weibull 1939). Each month's flows are sorted once, and the
+ * annual curve is the merge of the twelve: the same ranks as sorting the whole record again.
+ */
+export function recordCurves(sample: RecordSample): { annual: Fdc, months: (Fdc | null)[] } {
+  const sorted = sortedMonths(sample)
+  // merged in pairs (12 → 6 → 3 → 2 → 1), so each flow is copied about four times, not twelve
+  let level: Float64Array[] = sorted
+  while (level.length > 1) {
+    const next: Float64Array[] = []
+    for (let i = 0; i < level.length; i += 2) next.push(i + 1 < level.length ? mergeAscending(level[i] as Float64Array, level[i + 1] as Float64Array) : level[i] as Float64Array)
+    level = next
+  }
+  const all = level[0] ?? new Float64Array(0)
+  return {
+    annual: fdcFromSorted(all, 'days'),
+    months: sorted.map((b, k) => (b.length === 0 ? null : fdcFromSorted(b, `days (month ${k + 1})`))),
+  }
+}
+
+/** Twelve month curves of a record, January first, each by Weibull over that month's days with data; null for a month with none (Weibull 1939). */
+export function recordMonthCurves(sample: RecordSample): (Fdc | null)[] {
+  return sortedMonths(sample).map((b, k) => (b.length === 0 ? null : fdcFromSorted(b, `days (month ${k + 1})`)))
+}
+
+/** Each calendar month's flows, January first, sorted ascending. */
+function sortedMonths(sample: RecordSample): Float64Array[] {
+  const n = sample.flows.length
+  const counts = new Array<number>(12).fill(0)
+  for (let i = 0; i < n; i++) counts[at(sample.months, i) - 1]!++
+  const buckets = counts.map((c) => new Float64Array(c))
+  const filled = new Array<number>(12).fill(0)
+  for (let i = 0; i < n; i++) {
+    const k = at(sample.months, i) - 1
+    ;(buckets[k] as Float64Array)[filled[k]!++] = at(sample.flows, i)
+  }
+  return buckets.map((b) => sortFlows(b))
+}
+
+/** Two ascending arrays merged into one ascending array. */
+function mergeAscending(a: Float64Array, b: Float64Array): Float64Array {
+  const out = new Float64Array(a.length + b.length)
+  let i = 0
+  let j = 0
+  let k = 0
+  while (i < a.length && j < b.length) out[k++] = (a[i] as number) <= (b[j] as number) ? (a[i++] as number) : (b[j++] as number)
+  while (i < a.length) out[k++] = a[i++] as number
+  while (j < b.length) out[k++] = b[j++] as number
+  return out
+}
+
 /** Twelve FDCs, January first, each by Weibull m/(n+1) over that month's days with data; null for a month with none (Weibull 1939). */
 export function monthlyFdcs(days: readonly DailyFlow[]): (Fdc | null)[] {
-  if (!Array.isArray(days)) throw new EngineInputError('days', 'must be a list of days')
-  const months = new Uint8Array(days.length)
-  const counts = new Array<number>(12).fill(0)
-  days.forEach((d, i) => {
-    const q = dayFlow(d, i, 'days')
-    if (q === null) return
-    const m = monthOfDay(d.date, i)
-    months[i] = m
-    counts[m - 1] = at(counts, m - 1) + 1
-  })
-  const buckets = counts.map((n) => new Float64Array(n))
-  const filled = new Array<number>(12).fill(0)
-  days.forEach((d, i) => {
-    const m = at(months, i)
-    if (m === 0) return
-    const k = m - 1
-    const bucket = buckets[k] as Float64Array
-    bucket[at(filled, k)] = d.flow as number
-    filled[k] = at(filled, k) + 1
-  })
-  return buckets.map((b, k) => (b.length === 0 ? null : fdcFromSample(b, `days (month ${k + 1})`)))
+  return recordMonthCurves(readRecord(days))
 }
 
 /** Catchment-area ratio A_site / A_gauge, validated (area-ratio method, common practice). */
@@ -231,20 +312,14 @@ export function scaleByAreaRatio(
   return flows.map((q) => (q === null ? null : q * r))
 }
 
-/** A gauged daily record moved to the site by Q_site = Q_gauge · A_site / A_gauge (area-ratio method, common practice). */
-export function scaleRecordByAreaRatio(
-  days: readonly DailyFlow[],
-  siteArea: number,
-  gaugeArea: number,
-): DailyFlow[] {
-  const r = areaRatio(siteArea, gaugeArea)
-  return days.map((d) => ({ date: d.date, flow: d.flow === null ? null : d.flow * r }))
-}
-
 /** An FDC moved to the site by Q_site = Q_gauge · A_site / A_gauge; exceedances unchanged (area-ratio method, common practice). */
 export function scaleFdcByAreaRatio(fdc: Fdc, siteArea: number, gaugeArea: number): Fdc {
-  const r = areaRatio(siteArea, gaugeArea)
-  return { ...fdc, flow: fdc.flow.map((q) => q * r), meanFlow: fdc.meanFlow * r }
+  return scaleCurve(fdc, areaRatio(siteArea, gaugeArea))
+}
+
+/** A curve with every flow times `factor` (≥ 0), exceedances unchanged. */
+export function scaleCurve(fdc: Fdc, factor: number): Fdc {
+  return { ...fdc, flow: Float64Array.from(fdc.flow, (q) => q * factor), meanFlow: fdc.meanFlow * factor }
 }
 
 /** Reserved flow, m³/s: the fixed value, or Q_p from the FDC for a named exceedance p (hands-off flow, common practice). */
@@ -311,11 +386,15 @@ function recordFlows(days: readonly DailyFlow[], path: string): Float64Array {
 
 /** Weibull-ranked FDC of a sample; sorts `values` in place. */
 function fdcFromSample(values: Float64Array, path: string): Fdc {
+  return fdcFromSorted(sortFlows(values), path)
+}
+
+/** Weibull-ranked FDC of a sample already sorted ascending. */
+function fdcFromSorted(values: Float64Array, path: string): Fdc {
   const n = values.length
   if (n === 0) throw new EngineInputError(path, 'the record has no days with flow data')
-  sortFlows(values)
-  const exceedance = new Array<number>(n)
-  const flow = new Array<number>(n)
+  const exceedance = new Float64Array(n)
+  const flow = new Float64Array(n)
   let sum = 0
   for (let m = 1; m <= n; m++) {
     const q = at(values, n - m)

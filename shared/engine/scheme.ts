@@ -138,11 +138,24 @@ function riverCheckOf(s: Scheme, c: Conditions): RiverCheck | null {
       electricalPower_W: n * p.air.electricalPower_W, hydraulicPower_W: n * p.air.hydraulicPower_W,
       waterToWire: p.air.waterToWire, turbineState: p.air.state,
     }
-    const ox = oxygenState(s, ps, c)
-    if (ox.netGain_mgL < -st.acceptableOxygenLoss_mgL) return 'river-first'
-    if (ox.withScheme_mgL < st.oxygenTarget_mgL && ox.netGain_mgL < -NET_LOSS_TOLERANCE_mgL) return 'river-first'
-    return null
+    return costsTheRiver(st, oxygenState(s, ps, c)) ? 'river-first' : null
   }
+}
+
+/** The river-first test: running lowers downstream oxygen by more than the acceptable loss, or lowers it while the river is below its target. */
+function costsTheRiver(st: AssessInput['settings'], ox: OxygenState): boolean {
+  return ox.netGain_mgL < -st.acceptableOxygenLoss_mgL || (ox.withScheme_mgL < st.oxygenTarget_mgL && ox.netGain_mgL < -NET_LOSS_TOLERANCE_mgL)
+}
+
+/**
+ * The state of a river-first scheme at one flow, given the same option's energy-first state there
+ * (ENGINE.md §8): river first tries the same candidates in the same order and refuses only one that
+ * costs the river, so where energy first runs nothing, or runs units that pass the river test, the
+ * state is the same one (reused, not copied); only elsewhere is it worked out afresh.
+ */
+export function riverFirstState(s: Scheme, energyFirst: FlowState, c: Conditions): FlowState {
+  if (energyFirst.unitsRunning === 0 || !costsTheRiver(s.input.settings, energyFirst.oxygen)) return energyFirst
+  return flowState(s, energyFirst.riverFlow_m3s, c)
 }
 
 /** Split, hydraulics and air path of all units at one river flow, under the option's operating rule. */

@@ -3,10 +3,10 @@
 // its operating rule (scheme.ts) and the site's hydrology (hydrology.ts); assess.ts wires it.
 import type { AssessInput } from '../schemas/assess'
 import { MONTH_SHORT } from '../utils/months'
-import { annualEnergyFromRecord, DAYS_IN_MONTH, loadFigures, tabulatedPower, type AnnualEnergy, type PowerAt, type PowerSample } from './energy'
-import { exceedanceGrid, flowAtExceedance, monthlyFdcs, type DailyFlow, type Fdc } from './hydrology'
+import { annualEnergyFromSample, DAYS_IN_MONTH, loadFigures, tabulatedPower, type AnnualEnergy, type PowerAt, type PowerSample } from './energy'
+import { exceedanceGrid, flowAtExceedance, scaleCurve, type Fdc, type RecordSample } from './hydrology'
 import { NET_LOSS_TOLERANCE_mgL } from './flags'
-import { flowState, powerSample, type Conditions, type FlowState, type Scheme } from './scheme'
+import { flowState, powerSample, riverFirstState, type Conditions, type FlowState, type Scheme } from './scheme'
 import type { FlagId, FlagWorst } from './results'
 
 /** Cells of each month's exceedance grid when the year is judged (ENGINE.md §8: at least 100 flows a month). */
@@ -25,10 +25,10 @@ export interface MonthCurve {
   factor: number
 }
 
-/** The site's hydrology after gauge scaling: its FDC and, for a record, its days. */
+/** The site's hydrology after gauge scaling: its FDC and, for a record, its days with data and their month curves. */
 export interface SiteHydrology {
   fdc: Fdc
-  days: DailyFlow[] | null
+  record: { sample: RecordSample, monthCurves: (Fdc | null)[] } | null
 }
 
 const gridFlowsCache = new WeakMap<Fdc, Map<number, Float64Array>>()
@@ -48,8 +48,6 @@ function gridFlows(curve: Fdc, cells: number): Float64Array {
   return flows
 }
 
-const scaled = (fdc: Fdc, f: number): Fdc => ({ ...fdc, flow: fdc.flow.map((q) => q * f), meanFlow: fdc.meanFlow * f })
-
 /**
  * Twelve month curves, January first. A record gives each month its own curve (Weibull over that
  * month's days; a month with no data falls back to the annual curve). An entered FDC is scaled month
@@ -59,9 +57,8 @@ const scaled = (fdc: Fdc, f: number): Fdc => ({ ...fdc, flow: fdc.flow.map((q) =
  * complete profile every month uses the annual curve.
  */
 export function monthCurves(input: AssessInput, h: SiteHydrology): MonthCurve[] {
-  if (h.days) {
-    const byMonth = monthlyFdcs(h.days)
-    return byMonth.map((c) => (c ? { curve: c, basis: 'record' as const, factor: 1 } : { curve: h.fdc, basis: 'annual-curve' as const, factor: 1 }))
+  if (h.record) {
+    return h.record.monthCurves.map((c) => (c ? { curve: c, basis: 'record' as const, factor: 1 } : { curve: h.fdc, basis: 'annual-curve' as const, factor: 1 }))
   }
   const profile = input.site.months.map((m) => m.flow_m3s)
   const complete = profile.every((q): q is number => q !== undefined && q >= 0)
@@ -69,7 +66,7 @@ export function monthCurves(input: AssessInput, h: SiteHydrology): MonthCurve[] 
   if (!complete || !(weightedMean > 0)) return profile.map(() => ({ curve: h.fdc, basis: 'annual-curve' as const, factor: 1 }))
   return profile.map((q) => {
     const f = q / weightedMean
-    return { curve: scaled(h.fdc, f), basis: 'seasonal-profile' as const, factor: f }
+    return { curve: scaleCurve(h.fdc, f), basis: 'seasonal-profile' as const, factor: f }
   })
 }
 
@@ -95,11 +92,11 @@ function flowRange(curves: readonly Fdc[]): { min: number, max: number } {
  */
 export function yearEnergy(input: AssessInput, h: SiteHydrology, s: Scheme, months: readonly Conditions[], curves: readonly MonthCurve[]): AnnualEnergy {
   const stateAt = (flow: number, month: number): PowerSample => powerSample(s, flow, months[month - 1] as Conditions)
-  const range = flowRange(h.days ? [h.fdc] : curves.map((c) => c.curve))
+  const range = flowRange(h.record ? [h.fdc] : curves.map((c) => c.curve))
   const power: PowerAt = tabulatedPower(stateAt, range.min, range.max)
   const rating_W = s.ratedPerUnit_W * input.option.units
   const availability = input.settings.availability
-  if (h.days) return annualEnergyFromRecord(h.days, power, { rating_W, availability, memoise: false })
+  if (h.record) return annualEnergyFromSample(h.record.sample, power, { rating_W, availability, memoise: false })
   const energyByMonth_MWh = curves.map((c, k) => {
     const flows = gridFlows(c.curve, ENERGY_GRID_CELLS)
     let sum = 0
@@ -154,13 +151,35 @@ function track(t: Tally, value: number, unit: string, lower: boolean, month: num
   }
 }
 
+/** The state at each cell the year is judged at: twelve months, January first, YEAR_GRID_CELLS flows each. */
+export type YearStates = FlowState[][]
+
 /**
- * Judge the whole year: each month's curve at YEAR_GRID_CELLS flows (each the midpoint of an equal
- * share of the month's time, so a record's days are represented by their month's distribution), each
- * at its month's temperature and upstream oxygen under the operating rule. A cell weighs its month's
- * days over 365 divided by the cells.
+ * The states the year is judged at: each month's curve at YEAR_GRID_CELLS flows (each the midpoint of
+ * an equal share of the month's time, so a record's days are represented by their month's
+ * distribution), each at its month's temperature and upstream oxygen under the operating rule. A
+ * river-first scheme given the same option's energy-first states reuses each one the river test lets
+ * stand (riverFirstState).
  */
-export function judgeYear(s: Scheme, months: readonly Conditions[], curves: readonly MonthCurve[]): YearJudgement {
+export function yearStates(s: Scheme, months: readonly Conditions[], curves: readonly MonthCurve[], energyFirst?: YearStates): YearStates {
+  return curves.map((mc, k) => {
+    const c = months[k] as Conditions
+    const flows = gridFlows(mc.curve, YEAR_GRID_CELLS)
+    const like = energyFirst?.[k]
+    const out = new Array<FlowState>(flows.length)
+    for (let i = 0; i < flows.length; i++) {
+      const e = like?.[i]
+      out[i] = e ? riverFirstState(s, e, c) : flowState(s, flows[i] as number, c)
+    }
+    return out
+  })
+}
+
+/**
+ * Judge the whole year from its states (yearStates): a cell weighs its month's days over 365 divided
+ * by the cells.
+ */
+export function judgeYear(s: Scheme, curves: readonly MonthCurve[], states: YearStates): YearJudgement {
   const st = s.input.settings
   const blank = (): Tally => ({ share: 0, worst: null })
   const tallies: YearJudgement['tallies'] = {
@@ -177,15 +196,13 @@ export function judgeYear(s: Scheme, months: readonly Conditions[], curves: read
   let minSigma: number | null = null
   let maxExcess = 0
   const monthOut: YearJudgement['months'] = []
-  curves.forEach((mc, k) => {
+  states.forEach((monthStates, k) => {
     const month = k + 1
-    const c = months[k] as Conditions
     const w = (DAYS_IN_MONTH[k] ?? 30) / 365 / grid.length
     const m = { runningShare: 0, lossShare: 0, worstNetGain_mgL: Infinity, flags: new Set<FlagId>() }
-    const flows = gridFlows(mc.curve, grid.length)
     for (let i = 0; i < grid.length; i++) {
       const p = grid[i] as number
-      const f = flowState(s, flows[i] as number, c)
+      const f = monthStates[i] as FlowState
       const o = f.oxygen
       meanGain += o.netGain_mgL * w
       airSum += f.airFlow_m3s * w
