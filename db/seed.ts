@@ -3,7 +3,7 @@ import { buildAssessInput, insertAssessment, loadStoredRecord, storedOption } fr
 import { saveFlowRecord } from '../server/domain/flowRecords'
 import { createOptionFromInput } from '../server/domain/options'
 import { createSite } from '../server/domain/sites'
-import { assess } from '../shared/engine/assess'
+import { assessWithUncertainty } from '../shared/engine/assess'
 import { OptionInputSchema } from '../shared/schemas/option'
 import type { Database } from './schema'
 import { seedReviewDemo } from './seedReview'
@@ -99,6 +99,6 @@ async function seedOption(trx: Transaction<Database>, orgId: number, userId: num
   const stored = await trx.selectFrom('assessments').select('id').where('option_id', '=', option.id).executeTakeFirst()
   if (stored) return created
   const engineInput = buildAssessInput(site, await loadStoredRecord(trx, site.id), storedOption(option))
-  await insertAssessment(trx, { option, userId, input: engineInput, result: assess(engineInput), supersedesId: null })
+  await insertAssessment(trx, { option, userId, input: engineInput, result: assessWithUncertainty(engineInput), supersedesId: null })
   return created + 1
 }

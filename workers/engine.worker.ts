@@ -5,7 +5,7 @@
 // 80,000-day object costs the request thread far more than the text); stored-option routes post the
 // input they built from the database; the hydrology tab posts a site's stored days. Failures come back as values: an Error loses its class and
 // fields across the thread boundary.
-import { assess } from '../shared/engine/assess'
+import { assess, assessWithUncertainty } from '../shared/engine/assess'
 import type { AssessResult } from '../shared/engine/results'
 import { EngineInputError } from '../shared/engine/errors'
 import { fdcFromRecord, fdcStats, monthlyFdcs, reservedFlow, type DailyFlow, type ReservedFlowSetting } from '../shared/engine/hydrology'
@@ -84,10 +84,20 @@ function inBody<T>(prefix: string, work: () => T): T {
   }
 }
 
+/** Whether a raw assess body sets settings.monteCarloDraws itself. */
+function asksForDraws(raw: unknown): boolean {
+  const settings = (raw as { settings?: unknown } | null)?.settings
+  return typeof settings === 'object' && settings !== null && 'monteCarloDraws' in settings
+}
+
 function compute(task: EngineTask): EngineResults[EngineTask['kind']] {
   switch (task.kind) {
-    case 'assess':
-      return assess(validator(AssessInputSchema, 'body')(parseBody(task.body)))
+    case 'assess': {
+      // The stateless route runs the Monte Carlo only when the body asks for draws.
+      const raw = parseBody(task.body)
+      const input = validator(AssessInputSchema, 'body')(raw)
+      return asksForDraws(raw) ? assessWithUncertainty(input) : assess(input)
+    }
     case 'sweep': {
       const { input, grid } = validator(SweepRequestSchema, 'body')(parseBody(task.body))
       return inBody('input.', () => sweep(input, grid))
@@ -97,7 +107,7 @@ function compute(task: EngineTask): EngineResults[EngineTask['kind']] {
       return inBody('input.', () => sensitivity(input, fraction))
     }
     case 'assess-input':
-      return assess(task.input)
+      return assessWithUncertainty(task.input)
     case 'sweep-input':
       return sweep(task.input, task.grid)
     case 'design-at':

@@ -2,62 +2,21 @@
 // shape is in results.ts, the flags and their plain-language reasons in flags.ts.
 import type { AssessInput } from '../schemas/assess'
 import { defaultsUsed } from './defaultsUsed'
-import type { AnnualEnergy } from './energy'
-import {
-  exceedanceGrid, fdcFromPoints, fdcStats, flowAtExceedance, readRecord, recordCurves, reservedFlow,
-  scaleFdcByAreaRatio, scaleSampleByAreaRatio,
-} from './hydrology'
+import { exceedanceGrid, fdcStats, flowAtExceedance } from './hydrology'
+import { yearByYear } from './recordYears'
+import { runBasis, type RunBasis } from './runBasis'
 import { moneySummary } from './money'
-import { buildScheme, flowState, powerState, riverFirstState, type Conditions, type FlowState, type Scheme } from './scheme'
+import { monteCarlo } from './monteCarlo'
+import { buildScheme, flowState, powerState, riverFirstState, type FlowState, type Scheme } from './scheme'
 import { buildFlags } from './flags'
 import type { AssessResult, MethodsComparison, ModeFigures, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { recoveredFraction, throatAreaRatio } from './venturi'
-import { judgeYear, monthCurves, yearEnergy, yearStates, type MonthCurve, type SiteHydrology, type YearJudgement, type YearStates } from './year'
+import { judgeYear, yearEnergy, yearStates, type YearEnergy, type YearJudgement, type YearStates } from './year'
 import { ENGINE_VERSION } from './version'
 import { MONTH_SHORT } from '../utils/months'
 
 const PER_FLOW_EXCEEDANCES = [1, 5, 10, 20, 30, 40, 50, 60, 70, 80, 90, 95, 99] as const
 const SUMMARY_GRID = 200
-
-const mean = (xs: readonly number[]): number => (xs.length ? xs.reduce((s, x) => s + x, 0) / xs.length : 0)
-
-function siteHydrology(input: AssessInput): SiteHydrology {
-  const sc = input.gaugeScaling
-  if (input.hydrology.kind === 'record') {
-    const read = readRecord(input.hydrology.days)
-    const sample = sc ? scaleSampleByAreaRatio(read, sc.siteArea_km2, sc.gaugeArea_km2) : read
-    const curves = recordCurves(sample)
-    return { fdc: curves.annual, record: { sample, monthCurves: curves.months } }
-  }
-  const fdc = fdcFromPoints(input.hydrology.points)
-  return { fdc: sc ? scaleFdcByAreaRatio(fdc, sc.siteArea_km2, sc.gaugeArea_km2) : fdc, record: null }
-}
-
-/**
- * The month table's flow for each month: a record's mean for the month (the mean of the month's own
- * curve, which holds exactly that month's days), else the median of the month's curve, else the annual median.
- */
-function monthFlows(h: SiteHydrology, curves: readonly MonthCurve[]): Array<{ flow: number, basis: MonthRow['flowBasis'] }> {
-  const q50 = flowAtExceedance(h.fdc, 50)
-  return curves.map((c) => {
-    if (c.basis === 'record') return { flow: c.curve.meanFlow, basis: 'record-mean' as const }
-    if (c.basis === 'seasonal-profile') return { flow: flowAtExceedance(c.curve, 50), basis: 'profile-median' as const }
-    return { flow: q50, basis: 'annual-q50' as const }
-  })
-}
-
-/** Mean annual conditions: the mean of the twelve months' temperature and upstream oxygen (month 0: never a closed month). */
-function annualConditions(input: AssessInput): Conditions {
-  return {
-    month: 0,
-    tC: mean(input.site.months.map((m) => m.temperature_C)),
-    upstreamO2_mgL: mean(input.site.months.map((m) => m.upstreamOxygen_mgL)),
-  }
-}
-
-function monthConditions(input: AssessInput): Conditions[] {
-  return input.site.months.map((m, k) => ({ month: k + 1, tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
-}
 
 function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
   return {
@@ -74,20 +33,10 @@ function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
 /** One operating mode run over the year: its scheme, energy, the states the year is judged at, the judgement and the month table's states. */
 interface YearRun {
   s: Scheme
-  energy: AnnualEnergy
+  energy: YearEnergy
   states: YearStates
   year: YearJudgement
   monthStates: FlowState[]
-}
-
-/** Inputs every run of one option shares, whatever its operating mode. */
-interface RunBasis {
-  reserved: number
-  annual: Conditions
-  monthCond: Conditions[]
-  h: SiteHydrology
-  curves: MonthCurve[]
-  flows: Array<{ flow: number }>
 }
 
 /**
@@ -160,13 +109,9 @@ export interface AssessOptions {
 export function assess(input: AssessInput, options: AssessOptions = {}): AssessResult {
   const st = input.settings
   const o = input.option
-  const h = siteHydrology(input)
-  const reserved = reservedFlow(input.reservedFlow, h.fdc)
-  const annual = annualConditions(input)
-  const monthCond = monthConditions(input)
-  const curves = monthCurves(input, h)
-  const flows = monthFlows(h, curves)
-  const { main, other } = runBothModes(input, { reserved, annual, monthCond, h, curves, flows }, options.compareModes !== false)
+  const basis = runBasis(input)
+  const { h, reserved, annual, monthCond, curves, flows } = basis
+  const { main, other } = runBothModes(input, basis, options.compareModes !== false)
   const { s, energy, year, monthStates } = main
   const rating_W = s.ratedPerUnit_W * o.units
   const closed = new Set(o.operation.closedMonths)
@@ -257,8 +202,19 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
       ...fdcStats(h.fdc), reservedFlow_m3s: reserved, basis: h.record ? 'record' : 'fdc',
       daysWithData: h.record ? h.fdc.count : null,
     },
+    years: h.record && energy.byYear ? yearByYear(h.record.sample, energy.byYear, st.availability, main.states) : null,
+    uncertainty: null,
     money,
     defaultsUsed: defaultsUsed(input),
     engineVersion: ENGINE_VERSION,
   }
+}
+
+/**
+ * An assessment with its Monte Carlo, as a stored assessment is run: the draws and seed are the
+ * input's (settings.monteCarloDraws, settings.monteCarloSeed), so the stored input re-runs to the
+ * same figures.
+ */
+export function assessWithUncertainty(input: AssessInput): AssessResult {
+  return { ...assess(input), uncertainty: monteCarlo(input) }
 }

@@ -60,7 +60,12 @@ export const DEFAULTS = {
   discountRate: v(0.08, '1/yr', 'illustrative'),
   life: v(25, 'yr', 'illustrative'),
   opexFraction: v(0.03, '1/yr', 'illustrative (fraction of capex a year)'),
+  monteCarloDraws: v(400, 'draws', 'illustrative: P10 and P90 of 400 draws settle within a few per cent of those of 4,000 (checked in the tests)'),
+  monteCarloSeed: v(1, '-', 'illustrative: any whole number will do; the same seed gives the same draws'),
 } as const satisfies Record<string, SourcedValue>
+
+/** Most Monte Carlo draws one assessment may ask for (each re-runs the year). */
+export const MAX_MONTE_CARLO_DRAWS = 2000
 
 /** Name of a scalar default. */
 export type DefaultName = keyof typeof DEFAULTS

@@ -74,8 +74,18 @@ export interface AnnualEnergy {
   hoursPerYear: number
 }
 
+/** One calendar year of a record: its energy before availability and its days with data. */
+export interface RecordYear {
+  year: number
+  /** Σ P_e·24 h over the year's days with data, Wh (before availability). */
+  wh: number
+  daysWithData: number
+}
+
 /** Annual energy from a daily record. */
 export interface RecordEnergy extends AnnualEnergy {
+  /** Each calendar year the record touches, in order (the year-by-year figures start here). */
+  byYear: RecordYear[]
   /** Days with data. */
   daysWithData: number
   /** Days with data in each calendar month, January first. */
@@ -99,14 +109,29 @@ export function annualEnergyFromSample(sample: RecordSample, powerAt: PowerAt, o
   const power = options.memoise === false ? checked(powerAt) : memoised(powerAt)
   const whByMonth = new Array<number>(12).fill(0)
   const daysByMonth = new Array<number>(12).fill(0)
-  const { flows, months } = sample
+  const { flows, months, years: yearOfDay } = sample
   const n = flows.length
+  if (n === 0) throw new EngineInputError('days', 'the record has no days with flow data')
+  let first = yearOfDay[0] as number
+  let last = first
+  for (let i = 1; i < n; i++) {
+    const y = yearOfDay[i] as number
+    if (y < first) first = y
+    else if (y > last) last = y
+  }
+  const whByYear = new Float64Array(last - first + 1)
+  const daysByYear = new Uint16Array(last - first + 1)
   for (let i = 0; i < n; i++) {
     const m = months[i] as number
-    whByMonth[m - 1] = (whByMonth[m - 1] as number) + power(flows[i] as number, m) * 24
+    const wh = power(flows[i] as number, m) * 24
+    whByMonth[m - 1] = (whByMonth[m - 1] as number) + wh
     daysByMonth[m - 1] = (daysByMonth[m - 1] as number) + 1
+    const y = (yearOfDay[i] as number) - first
+    whByYear[y] = (whByYear[y] as number) + wh
+    daysByYear[y] = (daysByYear[y] as number) + 1
   }
-  if (n === 0) throw new EngineInputError('days', 'the record has no days with flow data')
+  const byYear: RecordYear[] = []
+  for (let y = 0; y < whByYear.length; y++) if ((daysByYear[y] as number) > 0) byYear.push({ year: first + y, wh: whByYear[y] as number, daysWithData: daysByYear[y] as number })
   const years = n / DAYS_PER_YEAR
   const toMWhPerYear = availability / years / 1e6
   const energyByMonth_MWh = whByMonth.map((wh, k) => ((daysByMonth[k] as number) > 0 ? wh * toMWhPerYear : null))
@@ -120,6 +145,7 @@ export function annualEnergyFromSample(sample: RecordSample, powerAt: PowerAt, o
     daysWithData: n,
     daysWithDataByMonth: daysByMonth,
     years,
+    byYear,
   }
 }
 
@@ -230,8 +256,15 @@ export function tabulatedPower(
     return table
   }
 
+  // A curve held flat at its ends asks its end flows again and again: each is evaluated exactly once a month.
+  const atMin: (number | undefined)[] = []
+  const atMax: (number | undefined)[] = []
   return (flow, month) => {
-    if (!(flow > minFlow && flow < maxFlow)) return exact(flow, month)
+    if (!(flow > minFlow && flow < maxFlow)) {
+      if (flow === minFlow) return (atMin[month] ??= exact(flow, month))
+      if (flow === maxFlow) return (atMax[month] ??= exact(flow, month))
+      return exact(flow, month)
+    }
     let table = tables[month]
     if (!table) {
       table = build(month)

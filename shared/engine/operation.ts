@@ -65,59 +65,69 @@ export interface LevelControlInput {
   allowedDrawdown_m: number
 }
 
-/**
- * The ways the units may run at one flow under level control, most units first: the head pool is
- * held within the allowed drawdown Δz of its ordinary level, so a unit runs only at a working head
- * H_w ≥ H − Δz, where it passes Q_cap(H_w) ≥ Q_cap(H − Δz). Units open one at a time while each can
- * be fed at that level. With n units fed at the full head (n·Q_cap(H) ≤ Q_take) the rest spills; with
- * one unit more than that, the units take all of Q_take at a working head between H − Δz and H. No
- * candidate draws the pool further (operating practice of run-of-river plant, common practice, no source).
- */
-export function levelControlCandidates(i: LevelControlInput, curve: UnitCurve): { reserved_m3s: number, take_m3s: number, candidates: Candidate[] } {
-  const river = Math.max(0, i.riverFlow_m3s)
-  const reserved = Math.min(river, Math.max(0, i.reservedFlow_m3s))
-  const take = river - reserved
-  const N = Math.max(0, Math.floor(i.units))
-  const H = Math.max(0, i.grossHead_m)
-  const capFull = curve.capacityAt(H)
-  const candidates: Candidate[] = []
-  if (!(capFull > 0) || N === 0 || !(take > 0)) return { reserved_m3s: reserved, take_m3s: take, candidates }
-  const low = H - Math.max(0, i.allowedDrawdown_m)
-  const capLow = low > 0 ? curve.capacityAt(low) : 0
-  const nFull = Math.min(N, Math.floor(take / capFull))
-  const nLow = capLow > 0 ? Math.min(N, Math.floor(take / capLow)) : N
-  for (let n = nLow; n > nFull; n--) {
-    const q = take / n
-    candidates.push({ regime: 'taking-all', units: n, unitFlow_m3s: q, workingHead_m: Math.min(H, curve.headFor(q)), spill_m3s: 0 })
-  }
-  for (let n = nFull; n > 0; n--) {
-    candidates.push({ regime: 'spilling', units: n, unitFlow_m3s: capFull, workingHead_m: H, spill_m3s: take - n * capFull })
-  }
-  return { reserved_m3s: reserved, take_m3s: take, candidates }
-}
-
 /** The verdict of the caller's checks on one candidate: null to run it, or why it stays shut. */
 export type CandidateCheck = (c: Candidate) => ShutReason | null
 
 /**
- * The split at one flow: the first candidate (most units) that passes `check`, or stopped with the
- * reason the last one failed. A closed month shuts every unit.
+ * The split at one flow under level control: the head pool is held within the allowed drawdown Δz of
+ * its ordinary level, so a unit runs only at a working head H_w ≥ H − Δz, where it passes
+ * Q_cap(H_w) ≥ Q_cap(H − Δz). Units open one at a time while each can be fed at that level. With n
+ * units fed at the full head (n·Q_cap(H) ≤ Q_take) the rest spills; with one unit more than that, the
+ * units take all of Q_take at a working head between H − Δz and H. No candidate draws the pool further
+ * (operating practice of run-of-river plant, common practice, no source).
+ *
+ * The candidates, most units first, go to `check` one by one in a single record rewritten for each
+ * (read it during the call, keep nothing: this runs thousands of times an assessment); the first that
+ * passes runs, else the units stop with the reason the last one failed. A closed month shuts every unit.
  */
 export function operate(i: LevelControlInput, curve: UnitCurve, closed: boolean, check: CandidateCheck): FlowSplit {
-  const { reserved_m3s, take_m3s, candidates } = levelControlCandidates(i, curve)
-  const stopped = (shutReason: ShutReason): FlowSplit => ({
-    regime: 'stopped', unitsRunning: 0, unitFlow_m3s: 0, workingHead_m: 0, spill_m3s: take_m3s, reserved_m3s, shutReason,
-  })
-  if (!(i.grossHead_m > 0) || !(curve.capacityAt(i.grossHead_m) > 0)) return stopped('no-head')
-  if (candidates.length === 0) return stopped('too-little-flow')
-  if (closed) return stopped('closed-month')
+  const river = Math.max(0, i.riverFlow_m3s)
+  const reserved_m3s = Math.min(river, Math.max(0, i.reservedFlow_m3s))
+  const take = river - reserved_m3s
+  const N = Math.max(0, Math.floor(i.units))
+  const H = Math.max(0, i.grossHead_m)
+  const capFull = curve.capacityAt(H)
+  if (!(i.grossHead_m > 0) || !(curve.capacityAt(i.grossHead_m) > 0)) return stopped('no-head', take, reserved_m3s)
+  if (!(capFull > 0) || N === 0 || !(take > 0)) return stopped('too-little-flow', take, reserved_m3s)
+  const low = H - Math.max(0, i.allowedDrawdown_m)
+  const capLow = low > 0 ? curve.capacityAt(low) : 0
+  const nFull = Math.min(N, Math.floor(take / capFull))
+  const nLow = capLow > 0 ? Math.min(N, Math.floor(take / capLow)) : N
+  if (nLow <= nFull && nFull <= 0) return stopped('too-little-flow', take, reserved_m3s)
+  if (closed) return stopped('closed-month', take, reserved_m3s)
+  const c = scratch
   let reason: ShutReason | null = null
-  for (const c of candidates) {
+  for (let n = nLow; n > nFull; n--) {
+    const q = take / n
+    c.regime = 'taking-all'
+    c.units = n
+    c.unitFlow_m3s = q
+    c.workingHead_m = Math.min(H, curve.headFor(q))
+    c.spill_m3s = 0
     const verdict = check(c)
-    if (verdict === null) {
-      return { regime: c.regime, unitsRunning: c.units, unitFlow_m3s: c.unitFlow_m3s, workingHead_m: c.workingHead_m, spill_m3s: c.spill_m3s, reserved_m3s, shutReason: reason }
-    }
+    if (verdict === null) return running(c, reserved_m3s, reason)
     reason = verdict
   }
-  return stopped(reason ?? 'too-little-flow')
+  for (let n = nFull; n > 0; n--) {
+    c.regime = 'spilling'
+    c.units = n
+    c.unitFlow_m3s = capFull
+    c.workingHead_m = H
+    c.spill_m3s = take - n * capFull
+    const verdict = check(c)
+    if (verdict === null) return running(c, reserved_m3s, reason)
+    reason = verdict
+  }
+  return stopped(reason ?? 'too-little-flow', take, reserved_m3s)
+}
+
+/** The one candidate record operate rewrites (engine code runs on one thread at a time). */
+const scratch: Candidate = { regime: 'spilling', units: 0, unitFlow_m3s: 0, workingHead_m: 0, spill_m3s: 0 }
+
+function stopped(shutReason: ShutReason, take_m3s: number, reserved_m3s: number): FlowSplit {
+  return { regime: 'stopped', unitsRunning: 0, unitFlow_m3s: 0, workingHead_m: 0, spill_m3s: take_m3s, reserved_m3s, shutReason }
+}
+
+function running(c: Candidate, reserved_m3s: number, shutReason: ShutReason | null): FlowSplit {
+  return { regime: c.regime, unitsRunning: c.units, unitFlow_m3s: c.unitFlow_m3s, workingHead_m: c.workingHead_m, spill_m3s: c.spill_m3s, reserved_m3s, shutReason }
 }

@@ -3,6 +3,8 @@
 import type { MoneySummary } from './money'
 import type { DefaultUsed } from './defaultsUsed'
 import type { FdcStats } from './hydrology'
+import type { UncertaintyResult } from './monteCarlo'
+import type { YearByYear } from './recordYears'
 import type { FlowState } from './scheme'
 
 /** Names of the flags an assessment raises. */
@@ -193,6 +195,13 @@ export interface AssessResult {
   methods: MethodsComparison
   operation: OperatingSummary
   hydrology: FdcStats & { reservedFlow_m3s: number, basis: 'fdc' | 'record', daysWithData: number | null }
+  /** Year by year from a daily record (null for an entered curve): energy and oxygen per complete year, P50/P90 energy, the driest year. */
+  years: YearByYear | null
+  /**
+   * The seeded Monte Carlo over the uncertain inputs (monteCarlo.ts); null where it was not run (a
+   * sweep's points, a sensitivity's ends, or draws set to 0).
+   */
+  uncertainty: UncertaintyResult | null
   money: MoneySummary
   defaultsUsed: DefaultUsed[]
   engineVersion: string

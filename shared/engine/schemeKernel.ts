@@ -67,6 +67,9 @@ interface Kernel {
   lastTemp: WaterAt | null
   /** Filled by evaluate once a flow has been asked (null before). */
   at: Evaluation | null
+  /** The flow evaluate is asking about, read by `check` (one check function per scheme, not one per flow). */
+  query: { w: WaterAt | null, river: number, H: number, riverCheck: RiverCheck | null }
+  check: (cand: Candidate) => ShutReason | null
 }
 
 const kernels = new WeakMap<Scheme, Kernel>()
@@ -85,6 +88,12 @@ function kernelOf(s: Scheme): Kernel {
     curve: { capacityAt: (h) => (kk.hasCap && Object.is(kk.capHead, h) ? kk.cap : unitCapacity(h, g)), headFor: (q) => headForUnitFlow(q, g) },
     closed: new Set(o.operation.closedMonths),
     temps: [], lastTemp: null, at: null,
+    query: { w: null, river: 0, H: 0, riverCheck: null },
+    check: (cand) => {
+      const { w, river, H, riverCheck } = kk.query
+      const p = unitPoint(w as WaterAt, cand.unitFlow_m3s, H, s)
+      return unitVerdict(p) ?? (riverCheck ? riverCheck(cand, p, river, H, w as WaterAt) : null)
+    },
   }
   k = kk
   kernels.set(s, k)
@@ -176,10 +185,12 @@ export function evaluate(s: Scheme, flow_m3s: number, c: Conditions, riverCheck:
   k.level.riverFlow_m3s = river
   k.level.grossHead_m = H
   const w = ratedWaterAt(s, k, c.tC)
-  const split = operate(k.level, k.curve, k.closed.has(c.month), (cand) => {
-    const p = unitPoint(w, cand.unitFlow_m3s, H, s)
-    return unitVerdict(p) ?? (riverCheck ? riverCheck(cand, p, river, H, w) : null)
-  })
+  const q = k.query
+  q.w = w
+  q.river = river
+  q.H = H
+  q.riverCheck = riverCheck
+  const split = operate(k.level, k.curve, k.closed.has(c.month), k.check)
   const point = unitPoint(w, split.unitFlow_m3s, H, s)
   const at = k.at
   if (at === null) return (k.at = { river, H, split, w, point })

@@ -3,7 +3,7 @@
 // its operating rule (scheme.ts) and the site's hydrology (hydrology.ts); assess.ts wires it.
 import type { AssessInput } from '../schemas/assess'
 import { MONTH_SHORT } from '../utils/months'
-import { annualEnergyFromSample, DAYS_IN_MONTH, loadFigures, tabulatedPower, type AnnualEnergy, type PowerAt, type PowerSample } from './energy'
+import { annualEnergyFromSample, DAYS_IN_MONTH, loadFigures, tabulatedPower, type AnnualEnergy, type PowerAt, type PowerSample, type RecordYear } from './energy'
 import { exceedanceGrid, flowAtExceedance, scaleCurve, type Fdc, type RecordSample } from './hydrology'
 import { NET_LOSS_TOLERANCE_mgL } from './flags'
 import { flowState, powerSample, riverFirstState, type Conditions, type FlowState, type Scheme } from './scheme'
@@ -90,13 +90,16 @@ function flowRange(curves: readonly Fdc[]): { min: number, max: number } {
  * conditions; a curve site integrates each month's curve (midpoint rule) over the month's hours, so
  * the months always sum to the year. Power is tabulated over the flow range, jumps kept sharp (energy.ts).
  */
-export function yearEnergy(input: AssessInput, h: SiteHydrology, s: Scheme, months: readonly Conditions[], curves: readonly MonthCurve[]): AnnualEnergy {
+export function yearEnergy(input: AssessInput, h: SiteHydrology, s: Scheme, months: readonly Conditions[], curves: readonly MonthCurve[]): YearEnergy {
   const stateAt = (flow: number, month: number): PowerSample => powerSample(s, flow, months[month - 1] as Conditions)
   const range = flowRange(h.record ? [h.fdc] : curves.map((c) => c.curve))
   const power: PowerAt = tabulatedPower(stateAt, range.min, range.max)
   const rating_W = s.ratedPerUnit_W * input.option.units
   const availability = input.settings.availability
-  if (h.record) return annualEnergyFromSample(h.record.sample, power, { rating_W, availability, memoise: false })
+  if (h.record) {
+    const e = annualEnergyFromSample(h.record.sample, power, { rating_W, availability, memoise: false })
+    return { ...e, byYear: e.byYear }
+  }
   const energyByMonth_MWh = curves.map((c, k) => {
     const flows = gridFlows(c.curve, ENERGY_GRID_CELLS)
     let sum = 0
@@ -104,8 +107,11 @@ export function yearEnergy(input: AssessInput, h: SiteHydrology, s: Scheme, mont
     return ((sum / flows.length) * (DAYS_IN_MONTH[k] ?? 30) * 24 * availability) / 1e6
   })
   const annualEnergy_MWh = energyByMonth_MWh.reduce((a, b) => a + b, 0)
-  return { annualEnergy_MWh, energyByMonth_MWh, ...loadFigures(annualEnergy_MWh, rating_W, 8760), hoursPerYear: 8760 }
+  return { annualEnergy_MWh, energyByMonth_MWh, ...loadFigures(annualEnergy_MWh, rating_W, 8760), hoursPerYear: 8760, byYear: null }
 }
+
+/** A year's energy under the operating rule; a record's also calendar year by calendar year. */
+export type YearEnergy = AnnualEnergy & { byYear: RecordYear[] | null }
 
 /** One flag's tally over the year. */
 interface Tally {

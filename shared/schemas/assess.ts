@@ -1,6 +1,6 @@
 // The input of one assessment and of a design sweep; shared by the API routes, the forms and the engine.
 import { z } from 'zod'
-import { DEFAULTS } from '../engine/defaults'
+import { DEFAULTS, MAX_MONTE_CARLO_DRAWS } from '../engine/defaults'
 import { MONEY_DEFAULTS } from '../engine/money'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
 
@@ -204,6 +204,10 @@ export const SettingsInputSchema = z.object({
   opexFraction: fraction.default(MONEY_DEFAULTS.opexFraction.value),
   exportPrice: amount.default(MONEY_DEFAULTS.exportPrice.value),
   gridFactor: nonNegative.max(2).default(MONEY_DEFAULTS.gridFactor.value),
+  /** Draws of the Monte Carlo a stored assessment runs (0: none). */
+  monteCarloDraws: num.int('must be a whole number').min(0).max(MAX_MONTE_CARLO_DRAWS, `must be ${MAX_MONTE_CARLO_DRAWS} or fewer`).default(d('monteCarloDraws')),
+  /** Seed of the Monte Carlo's random numbers: the same seed gives the same draws. */
+  monteCarloSeed: num.int('must be a whole number').min(0).max(4_294_967_295, 'must fit in 32 bits (4294967295 or less)').default(d('monteCarloSeed')),
 })
 
 /** Everything one assessment needs. */
