@@ -1,0 +1,66 @@
+// Words and rows of the "how sure" card (year by year and the Monte Carlo), and the messages of its
+// browser worker (workers/uncertainty.worker.ts). Pure, so it unit-tests in node.
+import type { DrawSpread, UncertaintyResult } from '#shared/engine/monteCarlo'
+import type { Spread } from '#shared/engine/random'
+import type { AssessInput } from '#shared/schemas/assess'
+import { signedMgL } from './assessment'
+import { formatNumber, formatUpTo } from './format'
+
+/** What the page asks the worker: the stored input with another seed or number of draws. */
+export interface UncertaintyWorkerRequest {
+  input: AssessInput
+  draws: number
+  seed: number
+}
+
+/** What the worker answers. */
+export type UncertaintyWorkerMessage =
+  | { type: 'done', result: UncertaintyResult | null }
+  | { type: 'error', message: string }
+
+/** Most draws a preview in the browser may run (the stored runs' limit, MAX_MONTE_CARLO_DRAWS, is the same). */
+export { MAX_MONTE_CARLO_DRAWS as MAX_PREVIEW_DRAWS } from '#shared/engine/defaults'
+
+/** One row of the Monte Carlo's table: a figure's P90, P50 and P10 as text. */
+export interface SpreadRow {
+  label: string
+  unit: string
+  p90: string
+  p50: string
+  p10: string
+}
+
+const money = (x: number | null) => formatNumber(x, 0)
+const mwh = (x: number | null) => formatNumber(x, 1)
+const mgl = (x: number | null) => (x === null ? '–' : signedMgL(x))
+
+/** The table rows: energy, cost, NPV and the worst month's oxygen, each as P90 / P50 / P10. */
+export function spreadRows(r: UncertaintyResult): SpreadRow[] {
+  const row = (label: string, unit: string, s: DrawSpread, f: (x: number | null) => string): SpreadRow => ({ label, unit, p90: f(s.p90), p50: f(s.p50), p10: f(s.p10) })
+  return [
+    row('Annual energy', 'MWh/yr', r.energy_MWh, mwh),
+    row('Levelised cost', 'per MWh', r.lcoe, money),
+    row('Net present value', '', r.npv, money),
+    row('Net O₂ change, worst month', 'mg/L', r.worstMonthNetGain_mgL, mgl),
+  ]
+}
+
+/** A spread in words: "triangular 0.15 – 0.25 – 0.40" or "uniform 0.90 – 0.97". */
+export function spreadText(s: Spread, unit: string): string {
+  const f = (x: number) => (unit === 'm' ? `${formatUpTo(x * 1000, 1)} mm` : formatUpTo(x, 3))
+  return s.kind === 'uniform' ? `uniform ${f(s.low)} – ${f(s.high)}` : `triangular ${f(s.low)} – ${f(s.mode)} – ${f(s.high)}`
+}
+
+/** A probability (0–1) in words: "none of the draws", "3 % of draws", "every draw". */
+export function chanceText(p: number): string {
+  if (!(p > 0)) return 'none of the draws'
+  if (p >= 1) return 'every draw'
+  return `${p < 0.01 ? 'under 1' : formatNumber(p * 100, 0)} % of draws`
+}
+
+/** The preview's draws and seed read from the form, or why not. */
+export function previewRequest(draws: number | null, seed: number | null, max: number): { draws: number, seed: number } | string {
+  if (draws === null || !Number.isInteger(draws) || draws < 1 || draws > max) return `Draws: a whole number from 1 to ${formatUpTo(max)}`
+  if (seed === null || !Number.isInteger(seed) || seed < 0 || seed > 4_294_967_295) return 'Seed: a whole number from 0 to 4,294,967,295'
+  return { draws, seed }
+}
