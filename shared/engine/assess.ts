@@ -9,9 +9,9 @@ import {
 } from './hydrology'
 import { moneySummary } from './money'
 import { buildScheme, flowState, powerState, type Conditions, type FlowState, type Scheme } from './scheme'
-import { buildFlags } from './flags'
+import { buildFlags, moneyFlag } from './flags'
 import type { AssessResult, MethodsComparison, ModeFigures, MonthRow, PerFlowRow, SummerLowFlow } from './results'
-import { recoveredFraction, throatAreaRatio } from './venturi'
+import { recoveredFraction, throatAreaRatio, unitCapacity } from './venturi'
 import { judgeYear, monthCurves, yearEnergy, type MonthCurve, type SiteHydrology, type YearJudgement } from './year'
 import { ENGINE_VERSION } from './version'
 import { MONTH_SHORT } from '../utils/months'
@@ -165,12 +165,13 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   // The summer low flow is one of the month rows (its flow and conditions), so its state is that row's.
   const slfState = monthStates[slf.month - 1] ?? flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
 
+  // Civils are priced on the design flow: every unit running full at the gross head.
   const money = moneySummary({
-    ...o.costs, rating_W, units: o.units, annualEnergy_MWh: energy.annualEnergy_MWh,
+    ...o.costs, rating_W, designFlow_m3s: o.units * unitCapacity(input.site.grossHead_m, s.geometry), annualEnergy_MWh: energy.annualEnergy_MWh,
     opexFraction: st.opexFraction, discountRate: st.discountRate, life_yr: st.life_yr, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
   })
 
-  const flags = buildFlags({ s, year, energy, grid })
+  const flags = [...buildFlags({ s, year, energy, grid }), moneyFlag(money, st.exportPrice)]
   const worstCav = year.worstCavitation
   const worstTdg = year.worstTdg
 
