@@ -311,6 +311,7 @@ const RECIPES: Record<string, Recipe> = {
   'POST /api/account/password': { prepare: () => ({ body: { currentPassword: 'not the current one', newPassword: 'whatever new passphrase' } }) },
   'POST /api/account/verification': {},
   'PATCH /api/orgs/:orgId/members/:userId': { prepare: () => ({ body: { role: 'viewer' } }) },
+  'PATCH /api/orgs/:orgId/settings': { prepare: () => ({ body: { currency: { code: 'GBP', symbol: '£' } } }) },
   'POST /api/orgs/:orgId/invitations': { prepare: () => ({ body: { email: uniqueEmail('am-invited'), role: 'viewer' } }) },
   'POST /api/invitations/:key/accept': {
     prepare: async (caller) => {
