@@ -234,6 +234,7 @@ const RECIPES: Record<string, Recipe> = {
   'GET /api/me': {},
   'GET /api/orgs/:orgId/members': {},
   'GET /api/orgs/:orgId/audit': {},
+  'GET /api/orgs/:orgId/settings': {},
   'GET /api/orgs/:orgId/outbox': {},
   'GET /api/orgs/:orgId/invitations': {},
   'GET /api/orgs/:orgId/summary-links': {},
