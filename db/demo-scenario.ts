@@ -11,6 +11,9 @@ export const DEMO_PASSWORD = 'brackwin-demo-2026'
 
 export const DEMO_ORGANISATION = 'Tarn & Beck Renewables'
 
+/** The demo organisation works in pounds sterling: every amount of the demo is in it. */
+export const DEMO_CURRENCY = { code: 'GBP', symbol: '£' } as const
+
 export interface DemoAccount {
   name: string
   email: string
@@ -220,7 +223,11 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
     option: {
       name: 'Two units in the old leat',
       notes: 'Both venturis set side by side in the silted leat mouth, air pipes up the left-bank wall to one turbine house.',
-      design: { units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.1, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 9 } },
+      design: {
+        units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.1, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 9 },
+        // The leat walls stand already: less civil work per m³/s than a new cut.
+        costs: { fixedCost: 45_000, ratedPowerPrice: 650, civilsPerDesignFlow: 60_000 },
+      },
     },
   },
   {
@@ -228,7 +235,10 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
     option: {
       name: 'Three smaller units across the crest',
       notes: 'Three units spread along the weir crest; more civils, but they stage in one by one as the river rises.',
-      design: { units: 3, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 3, air: { pipeDiameter_m: 0.4, pipeLength_m: 11 } },
+      design: {
+        units: 3, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 3, air: { pipeDiameter_m: 0.4, pipeLength_m: 11 },
+        costs: { fixedCost: 50_000, ratedPowerPrice: 650, civilsPerDesignFlow: 85_000 },
+      },
     },
   },
   {
@@ -239,6 +249,7 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
       design: {
         units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.1, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 9 },
         operation: { closedMonths: [6, 7, 8, 9] },
+        costs: { fixedCost: 45_000, ratedPowerPrice: 650, civilsPerDesignFlow: 60_000 },
       },
     },
   },
@@ -247,7 +258,10 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
     option: {
       name: 'Pair below the gauging section',
       notes: 'Kept clear of the gauging section so the agency\'s rating is undisturbed.',
-      design: { units: 2, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.4, pipeLength_m: 7 } },
+      design: {
+        units: 2, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.4, pipeLength_m: 7 },
+        costs: { fixedCost: 55_000, ratedPowerPrice: 650, civilsPerDesignFlow: 78_000 },
+      },
     },
   },
   {
@@ -258,6 +272,8 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
       design: {
         units: 2, throatDiameter_m: 0.5, outletDiameter_m: 1.0, throatDepth_m: 0.8, air: { pipeDiameter_m: 0.4, pipeLength_m: 7 },
         operation: { mode: 'river-first' },
+        // The cheaper dig: shallower throats need less excavation per m³/s.
+        costs: { fixedCost: 55_000, ratedPowerPrice: 650, civilsPerDesignFlow: 62_000 },
       },
     },
   },
@@ -266,7 +282,10 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
     option: {
       name: 'Pair on the right bank',
       notes: 'Right bank, away from the village outfall; chosen to test the summer oxygen case.',
-      design: { units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.2, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 8 } },
+      design: {
+        units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.2, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 8 },
+        costs: { fixedCost: 50_000, ratedPowerPrice: 650, civilsPerDesignFlow: 78_000 },
+      },
     },
   },
 ]

@@ -20,6 +20,10 @@ export interface UsersTable {
 export interface OrganisationsTable {
   id: Generated<number>
   name: string
+  /** ISO 4217 code of the currency the organisation's money figures are in (no conversion). */
+  currency_code: Generated<string>
+  /** Symbol shown beside its amounts. */
+  currency_symbol: Generated<string>
   created_at: CreatedAt
 }
 
@@ -178,6 +182,9 @@ export interface AssessmentsTable {
   min_cavitation_margin_m: number | null
   net_oxygen_gain_slf_mgl: number
   lcoe: number | null
+  /** Capital cost and NPV at the export price, in the organisation's currency (null only for a stored result that lacked them). */
+  capex: number | null
+  npv: number | null
   /** JSON: ids of the flags raised. */
   flags_raised: string
   flag_count: number

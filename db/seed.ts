@@ -7,7 +7,7 @@ import { assessWithUncertainty } from '../shared/engine/assess'
 import { OptionInputSchema } from '../shared/schemas/option'
 import type { Database } from './schema'
 import { seedReviewDemo } from './seedReview'
-import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_PENDING_ACCOUNT, DEMO_SITES, DEMO_VERIFIED_AT, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
+import { DEMO_ACCOUNTS, DEMO_CURRENCY, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_PENDING_ACCOUNT, DEMO_SITES, DEMO_VERIFIED_AT, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
 
 /** Hashes a password the same way the server does (nuxt-auth-utils' scrypt). */
 export type PasswordHasher = (password: string) => Promise<string>
@@ -23,7 +23,7 @@ export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Prom
     let created = 0
     let org = await trx.selectFrom('organisations').select('id').where('name', '=', DEMO_ORGANISATION).executeTakeFirst()
     if (!org) {
-      org = await trx.insertInto('organisations').values({ name: DEMO_ORGANISATION }).returning('id').executeTakeFirstOrThrow()
+      org = await trx.insertInto('organisations').values({ name: DEMO_ORGANISATION, currency_code: DEMO_CURRENCY.code, currency_symbol: DEMO_CURRENCY.symbol }).returning('id').executeTakeFirstOrThrow()
       created++
     }
     for (const account of DEMO_ACCOUNTS) {

@@ -4,8 +4,10 @@
 // so every helper here takes them as possibly missing.
 import { MONTH_NAMES, MONTH_SHORT } from '#shared/utils/months'
 import type { OperatingMode, Regime, ShutReason } from '#shared/engine/operation'
+import { storedVerdict, type StoredMoney } from '#shared/engine/money'
 import type { AssessSummary, Flag, FlagId, FlagLevel, MonthRow } from '#shared/engine/results'
-import { formatNumber } from './format'
+import type { Currency } from '#shared/schemas/organisation'
+import { formatMoney, formatNumber, moneyUnit } from './format'
 
 /** One headline figure. */
 export interface Headline {
@@ -35,8 +37,8 @@ export function percentText(share: number): string {
 
 const isNumber = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x)
 
-/** The headline figures of a summary, each with its unit (the year's oxygen and the diffuser's recovery only when the run has them). */
-export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headline[] {
+/** The headline figures of a summary, each with its unit, money in `currency` (the year's oxygen and the diffuser's recovery only when the run has them). */
+export function headlineFigures(s: AssessSummary, currency: Currency, minMargin_m?: number): Headline[] {
   const margin = s.minCavitationMargin_m
   const figures: Headline[] = [
     { key: 'energy', label: 'Annual energy', value: formatNumber(s.annualEnergy_MWh, 1), unit: 'MWh/yr', warn: !(s.annualEnergy_MWh > 0) },
@@ -64,8 +66,40 @@ export function headlineFigures(s: AssessSummary, minMargin_m?: number): Headlin
   if (isNumber(recovered)) {
     figures.push({ key: 'recovery', label: 'Diffuser recovery', value: formatNumber(recovered * 100, 0), unit: '%', note: 'pressure recovered by the diffuser' })
   }
-  figures.push({ key: 'lcoe', label: 'LCOE', value: s.lcoe === null ? 'no energy' : formatNumber(s.lcoe, 0), unit: s.lcoe === null ? '' : 'currency/MWh' })
+  figures.push({ key: 'lcoe', label: 'LCOE', value: s.lcoe === null ? 'no energy' : formatNumber(s.lcoe, 0), unit: s.lcoe === null ? '' : moneyUnit(currency, 'MWh') })
   return figures
+}
+
+// ——— money ———
+
+export type { StoredMoney }
+
+/** Whether the scheme pays and why not, from the stored figures (worked out again for a run stored without them). */
+export function moneyVerdict(m: StoredMoney): { pays: boolean; revenueBelowOpex: boolean; negativeNpv: boolean; breakEvenPrice: number | null } {
+  const v = storedVerdict(m)
+  return { pays: v.pays, revenueBelowOpex: v.shortfalls.includes('revenue-below-opex'), negativeNpv: v.shortfalls.includes('negative-npv'), breakEvenPrice: v.breakEvenPrice }
+}
+
+/**
+ * Whether the scheme pays, in one plain sentence with the organisation's currency: "Does not pay:
+ * revenue £420 a year is below the operating cost £1,900 a year; NPV −£169,000 at £100 per MWh; it
+ * would need £1,830 per MWh to break even."
+ */
+export function moneySentence(m: StoredMoney, currency: Currency): string {
+  const v = moneyVerdict(m)
+  const money = (x: number) => formatMoney(x, currency)
+  const price = m.exportPrice === undefined ? 'the export price' : `${money(m.exportPrice)} per MWh`
+  if (v.pays) return `Pays: NPV ${money(m.npv)} at ${price}${v.breakEvenPrice === null ? '' : `; it breaks even at ${money(v.breakEvenPrice)} per MWh`}.`
+  const parts: string[] = []
+  if (v.revenueBelowOpex) parts.push(`revenue ${money(m.annualRevenue)} a year is below the operating cost ${money(m.annualOpex)} a year`)
+  if (v.negativeNpv) parts.push(`NPV ${money(m.npv)} at ${price}`)
+  parts.push(v.breakEvenPrice === null ? 'it makes no energy, so no price would make it pay' : `it would need ${money(v.breakEvenPrice)} per MWh to break even`)
+  return `Does not pay: ${parts.join('; ')}.`
+}
+
+/** A flag's reason for the screen: the money flag's in the organisation's currency, the others as the engine gave them. */
+export function flagReason(f: StoredFlag, money: StoredMoney | null | undefined, currency: Currency): string {
+  return f.id === 'does-not-pay' && money ? moneySentence(money, currency) : f.reason
 }
 
 // ——— flags ———
@@ -78,6 +112,7 @@ export const FLAG_TITLES: Record<FlagId, string> = {
   'net-oxygen-loss': 'Oxygen cost to the river',
   'oxygen-below-target': 'River below the oxygen target',
   'never-runs': 'Units never run',
+  'does-not-pay': 'Does not pay',
 }
 
 /** Titles of flags only older engines raised. */
@@ -89,9 +124,9 @@ export function flagTitle(id: string): string {
 }
 
 /** How each level of flag is named on screen (beside its colour, never instead of it). */
-export const FLAG_LEVEL_LABELS: Record<FlagLevel, string> = { safety: 'Safety', river: 'River caution', note: 'Note' }
+export const FLAG_LEVEL_LABELS: Record<FlagLevel, string> = { safety: 'Safety', river: 'River caution', money: 'Money caution', note: 'Note' }
 
-const LEVEL_ORDER: Record<FlagLevel, number> = { safety: 0, river: 1, note: 2 }
+const LEVEL_ORDER: Record<FlagLevel, number> = { safety: 0, river: 1, money: 2, note: 3 }
 
 /** A flag as an older engine may have stored it: without a level, share of time or worst value. */
 export type StoredFlag = Pick<Flag, 'id' | 'raised' | 'safety' | 'reason'> & Partial<Pick<Flag, 'level' | 'shareOfTime' | 'worst'>>
@@ -101,7 +136,7 @@ export function flagLevel(f: Pick<StoredFlag, 'safety' | 'level'>): FlagLevel {
   return f.level ?? (f.safety ? 'safety' : 'note')
 }
 
-/** The result's flags: raised first, then safety, river cautions and notes, each in the engine's order. */
+/** The result's flags: raised first, then safety, river cautions, money cautions and notes, each in the engine's order. */
 export function orderedFlags(result: { summary: { flags: StoredFlag[] } }): StoredFlag[] {
   return [...result.summary.flags].sort((a, b) => Number(b.raised) - Number(a.raised) || LEVEL_ORDER[flagLevel(a)] - LEVEL_ORDER[flagLevel(b)])
 }

@@ -1,5 +1,8 @@
 // The comparison table's rows (design, then headline figures, best per row marked) and its CSV.
+// Money is in each option's organisation's currency: when the options share one, the row's unit
+// names it; when they do not, each cell carries its own symbol and no cell is marked best.
 import type { CompareItem } from '#shared/schemas/compare'
+import { formatMoney, moneyUnit } from './format'
 
 /** One row of the comparison table: a label with its unit, one cell per option, and which is best. */
 export interface CompareRow {
@@ -30,6 +33,13 @@ export function compareRows(items: readonly CompareItem[]): CompareRow[] {
     return { key, label, unit, section, cells, best, differs: new Set(cells.map((c) => String(c))).size > 1, digits }
   }
   const a = items.map((i) => i.latestAssessment)
+  const codes = new Set(items.map((i) => i.site.currency.code))
+  const shared = codes.size <= 1 ? items[0]?.site.currency : undefined
+  /** A money row: numbers under the shared currency's unit, or each cell with its own symbol. */
+  const money = (key: string, label: string, per: string | undefined, pick: (x: NonNullable<CompareItem['latestAssessment']>) => number | null, none: string, better: 'high' | 'low') =>
+    shared
+      ? row(key, label, moneyUnit(shared, per), 'figures', a.map((x) => (x ? (pick(x) === null ? none : round(pick(x), 0)) : null)), 0, better)
+      : row(key, label, per ? `per ${per}, each option's currency` : "each option's currency", 'figures', a.map((x, i) => (x ? (pick(x) === null ? none : formatMoney(pick(x), items[i]!.site.currency)) : null)))
   return [
     row('site', 'Site', '', 'design', items.map((i) => `${i.site.name} (${i.site.riverName})`)),
     row('head', 'Gross head', 'm', 'design', items.map((i) => i.site.grossHead_m), 2),
@@ -46,7 +56,9 @@ export function compareRows(items: readonly CompareItem[]): CompareRow[] {
     row('rated', 'Rated power (all units)', 'kW', 'figures', a.map((x) => round(x?.ratedPower_kW, 1)), 1),
     row('margin', 'Least cavitation margin', 'm', 'figures', a.map((x) => (x ? (x.minCavitationMargin_m === null ? 'never runs' : round(x.minCavitationMargin_m, 2)) : null)), 2, 'high'),
     row('oxygen', 'Net O₂ gain, summer low flow', 'mg/L', 'figures', a.map((x) => round(x?.netOxygenGainSummerLowFlow_mgL, 2)), 2, 'high'),
-    row('lcoe', 'LCOE', 'currency/MWh', 'figures', a.map((x) => (x ? (x.lcoe === null ? 'no energy' : round(x.lcoe, 0)) : null)), 0, 'low'),
+    money('lcoe', 'LCOE', 'MWh', (x) => x.lcoe, 'no energy', 'low'),
+    money('npv', 'NPV at the export price', undefined, (x) => x.npv, 'not stored', 'high'),
+    money('capex', 'Capital cost', undefined, (x) => x.capex, 'not stored', 'low'),
     row('flags', 'Flags raised', 'flags', 'figures', a.map((x) => (x ? x.flagsRaised.length : null)), 0, 'low'),
     row('engine', 'Engine version', '', 'figures', a.map((x) => (x ? `${x.engineVersion}${x.stale ? ' (older engine)' : ''}` : 'not assessed'))),
   ]

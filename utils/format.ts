@@ -3,6 +3,7 @@
 // time) is shown in the reader's own time zone with its name ("12 Mar 2026, 14:05 BST"), with the
 // UTC time for a `title` on hover; components/app/AppDateTime.vue does both, and shows the UTC time
 // in the server's render so the page the browser hydrates matches it.
+import type { Currency } from '#shared/schemas/organisation'
 import { MONTH_SHORT } from '#shared/utils/months'
 
 // ——— numbers ———
@@ -22,6 +23,27 @@ export function formatUpTo(x: number | null | undefined, digits = 0): string {
 /** A count with grouping: 12,345. */
 export function formatCount(n: number): string {
   return formatUpTo(n, 0)
+}
+
+// ——— money ———
+// Amounts carry the organisation's currency symbol; the engine's figures are in that currency already
+// (nothing is converted). A minus is a true minus sign before the symbol: "−£169,000".
+
+/** An amount with the currency's symbol, to `digits` decimals with grouping: "£12,345", "−£169,000"; a dash when missing. */
+export function formatMoney(x: number | null | undefined, currency: Currency, digits = 0): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '–'
+  const text = formatNumber(Math.abs(x), digits)
+  return `${x < 0 && text !== formatNumber(0, digits) ? '−' : ''}${currency.symbol}${text}`
+}
+
+/** The unit of an amount, or of a price per `per`: "£", "£/MWh", "£/yr". */
+export function moneyUnit(currency: Currency, per?: string): string {
+  return per ? `${currency.symbol}/${per}` : currency.symbol
+}
+
+/** An engine unit with the word "currency" replaced by the symbol: "currency/kW" → "£/kW", "currency/(m3/s)" → "£ per m³/s". */
+export function withCurrency(unit: string, currency: Currency): string {
+  return unit.replace('currency/(m3/s)', `${currency.symbol} per m³/s`).replaceAll('currency', currency.symbol)
 }
 
 // ——— days and moments ———

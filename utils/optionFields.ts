@@ -16,7 +16,7 @@ export const OPTION_GROUPS = [
   { id: 'air', title: 'Air pipe and air pump', note: 'The pipe that carries air down to each throat, and how well the throat pumps it.' },
   { id: 'turbine', title: 'Turbine and generator', note: 'The air turbine on the bank and its generator, per unit.' },
   { id: 'operation', title: 'How the units are run', note: 'The head pool is always held near its level: a unit opens only when the river can feed it there, and only while it draws air and makes power. Choose whether the river comes first, and any months the units must stay shut (a consent may require it).' },
-  { id: 'money', title: 'Costs and money', note: 'All money defaults are illustrative: replace them with the project\'s own figures.' },
+  { id: 'money', title: 'Costs and money', note: 'Amounts are in the organisation\'s currency. The equipment and civil-works defaults are worked from published UK low-head costs (their source shows on hover); the rest are illustrative. Replace them with the project\'s own figures.' },
   { id: 'settings', title: 'Engine settings', note: 'Safety limits, oxygen transfer and availability used by this option\'s assessments. The downstream oxygen target is the site\'s own.' },
 ] as const
 
@@ -98,8 +98,8 @@ export const OPTION_FIELDS: readonly OptionField[] = [
     caution: 'Closed months are usually a condition of a consent (fish migration, low summer oxygen): take them from the regulator, not from this screening.',
   },
   { path: 'design.costs.fixedCost', label: 'Fixed cost', unit: 'currency', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.fixedCost), hint: 'connection, design, consents' },
-  { path: 'design.costs.ratedPowerPrice', label: 'Cost per kW of rating', unit: 'currency/kW', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.ratedPowerPrice) },
-  { path: 'design.costs.civilsPerUnit', label: 'Civil works per unit', unit: 'currency/unit', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.civilsPerUnit) },
+  { path: 'design.costs.ratedPowerPrice', label: 'Equipment per kW of rating', unit: 'currency/kW', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.ratedPowerPrice), hint: 'air turbine, generator, controls' },
+  { path: 'design.costs.civilsPerDesignFlow', label: 'Civil works per m³/s of design flow', unit: 'currency/(m3/s)', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.civilsPerDesignFlow), hint: 'design flow: every unit full at the gross head' },
   { path: 'settings.discountRate', label: 'Discount rate', unit: 'fraction/yr', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.discountRate), hint: '0.08 means 8 % a year' },
   { path: 'settings.life_yr', label: 'Economic life', unit: 'yr', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.life_yr) },
   { path: 'settings.opexFraction', label: 'Operating cost', unit: 'fraction/yr', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.opexFraction), hint: 'of the capital cost' },

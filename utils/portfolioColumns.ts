@@ -1,6 +1,7 @@
 // Columns of the portfolio's site table, typed on PortfolioRow (GET /api/orgs/[orgId]/portfolio).
 // The table takes a list of these, so a new headline figure needs no change to the page or table.
-import { formatUpTo } from './format'
+import { formatMoney, formatUpTo, moneyUnit } from './format'
+import type { Currency } from '#shared/schemas/organisation'
 import type { PortfolioLatest, PortfolioRow, PortfolioSort } from '#shared/schemas/portfolio'
 import { REVIEW_STATE_LABELS } from '#shared/schemas/review'
 
@@ -36,17 +37,20 @@ export const signed = (v: number, digits: number) => (v > 0 ? `+${fixed(v, digit
 /** A figure of the latest assessment (the table calls it only for assessed sites). */
 const of = <T>(r: PortfolioRow, pick: (l: PortfolioLatest) => T) => pick(r.latest!)
 
-/** The columns shown by default (the name column always leads and links to the site). */
-export const DEFAULT_PORTFOLIO_COLUMNS: PortfolioColumn[] = [
+/** The columns shown by default, money in `currency` (the name column always leads and links to the site). */
+export const portfolioColumns = (currency: Currency): PortfolioColumn[] => [
   { key: 'river', label: 'River', sort: 'riverName', value: (r) => r.riverName },
   { key: 'energy', label: 'Annual energy', unit: 'MWh/yr', sort: 'annualEnergy_MWh', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.annualEnergy_MWh), 1) },
   // The engine stores the capacity factor as a fraction of 1; the table shows per cent.
   { key: 'capacity', label: 'Capacity factor', unit: '%', sort: 'capacityFactor', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.capacityFactor) * 100, 1) },
   { key: 'oxygen', label: 'Net O₂ gain at summer low flow', unit: 'mg/L', sort: 'netOxygenGainSummerLowFlow_mgL', numeric: true, figure: true, value: (r) => signed(of(r, (l) => l.netOxygenGainSummerLowFlow_mgL), 2) },
   {
-    key: 'lcoe', label: 'LCOE', unit: 'currency/MWh', sort: 'lcoe', numeric: true, figure: true,
-    value: (r) => { const v = of(r, (l) => l.lcoe); return v === null ? 'no cost entered' : fixed(v, 0) },
+    key: 'lcoe', label: 'LCOE', unit: moneyUnit(currency, 'MWh'), sort: 'lcoe', numeric: true, figure: true,
+    value: (r) => { const v = of(r, (l) => l.lcoe); return v === null ? 'no energy' : fixed(v, 0) },
   },
+  // Older rows stored without these show a dash.
+  { key: 'npv', label: 'NPV', unit: moneyUnit(currency), sort: 'npv', numeric: true, figure: true, value: (r) => formatMoney(of(r, (l) => l.npv), currency) },
+  { key: 'capex', label: 'Capital cost', unit: moneyUnit(currency), sort: 'capex', numeric: true, figure: true, value: (r) => formatMoney(of(r, (l) => l.capex), currency) },
   {
     key: 'flags', label: 'Flags raised', unit: 'count', sort: 'flagsRaised', numeric: true, figure: true,
     value: (r) => String(of(r, (l) => l.flagsRaised.length)),

@@ -1,4 +1,6 @@
 // How the portfolio map colours its sites: the figure chosen, its scale and legend.
+import { withCurrency } from './format'
+import type { Currency } from '#shared/schemas/organisation'
 import type { PortfolioRow } from '#shared/schemas/portfolio'
 import { REVIEW_STATE_LABELS, REVIEW_STATES, type ReviewState } from '#shared/schemas/review'
 
@@ -7,7 +9,7 @@ import { REVIEW_STATE_LABELS, REVIEW_STATES, type ReviewState } from '#shared/sc
 /** Figures the map may be coloured by. */
 export type MapFigure = 'annualEnergy_MWh' | 'netOxygenGainSummerLowFlow_mgL' | 'lcoe' | 'reviewState'
 
-/** The choices of the colour select, with the unit each figure is stated in. */
+/** The choices of the colour select, with the unit each figure is stated in ("currency" stands for the organisation's). */
 export const MAP_FIGURES: readonly { value: MapFigure; label: string; unit: string }[] = [
   { value: 'annualEnergy_MWh', label: 'Annual energy', unit: 'MWh/yr' },
   { value: 'netOxygenGainSummerLowFlow_mgL', label: 'Net oxygen gain at summer low flow', unit: 'mg/L' },
@@ -18,7 +20,7 @@ export const MAP_FIGURES: readonly { value: MapFigure; label: string; unit: stri
 /** Sequential steps, light to dark, from the house palette (lichen-200 … gill-800). */
 export const MAP_SCALE = ['#e6eeaa', '#bccd45', '#74c3c6', '#2c878d', '#1c464a'] as const
 
-/** Sites with no figure to show (not assessed, or no cost entered): peat-400. */
+/** Sites with no figure to show (not assessed, or no energy to cost): peat-400. */
 export const MAP_NONE = '#9c9681'
 
 /** A net oxygen loss (below 0 mg/L): ember-500. */
@@ -50,9 +52,9 @@ export interface MapColouring {
 
 const NUMBER = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 2 })
 
-/** A figure with its unit, a sign on oxygen. */
-export function figureText(figure: Exclude<MapFigure, 'reviewState'>, v: number): string {
-  const unit = MAP_FIGURES.find((f) => f.value === figure)!.unit
+/** A figure with its unit (money in `currency`), a sign on oxygen. */
+export function figureText(figure: Exclude<MapFigure, 'reviewState'>, v: number, currency: Currency): string {
+  const unit = withCurrency(MAP_FIGURES.find((f) => f.value === figure)!.unit, currency)
   const sign = figure === 'netOxygenGainSummerLowFlow_mgL' && v > 0 ? '+' : ''
   return `${sign}${NUMBER.format(v)} ${unit}`
 }
@@ -64,8 +66,8 @@ function step(v: number, min: number, max: number): string {
   return MAP_SCALE[i]!
 }
 
-/** Colours the rows by `figure`; every marker also gets the value in words for its popup. */
-export function mapColouring(rows: readonly PortfolioRow[], figure: MapFigure): MapColouring {
+/** Colours the rows by `figure`; every marker also gets the value in words for its popup (money in `currency`). */
+export function mapColouring(rows: readonly PortfolioRow[], figure: MapFigure, currency: Currency): MapColouring {
   const fills: Record<number, string> = {}
   const notes: Record<number, string> = {}
   if (figure === 'reviewState') {
@@ -89,13 +91,13 @@ export function mapColouring(rows: readonly PortfolioRow[], figure: MapFigure): 
       notes[r.siteId] = `${meta.label}: not assessed`
     } else if (v === null) {
       fills[r.siteId] = MAP_NONE
-      notes[r.siteId] = `${meta.label}: no cost entered`
+      notes[r.siteId] = `${meta.label}: no energy`
     } else {
       fills[r.siteId] = figure === 'netOxygenGainSummerLowFlow_mgL' && v < 0 ? MAP_LOSS : step(v, min, max)
-      notes[r.siteId] = `${meta.label}: ${figureText(figure, v)}`
+      notes[r.siteId] = `${meta.label}: ${figureText(figure, v, currency)}`
     }
   }
-  const swatches = [{ colour: MAP_NONE, label: figure === 'lcoe' ? 'Not assessed, or no cost entered' : 'Not assessed' }]
+  const swatches = [{ colour: MAP_NONE, label: figure === 'lcoe' ? 'Not assessed, or no energy' : 'Not assessed' }]
   if (figure === 'netOxygenGainSummerLowFlow_mgL' && values.some((v) => v < 0)) swatches.unshift({ colour: MAP_LOSS, label: 'Oxygen lost (below 0 mg/L)' })
-  return { fills, notes, legend: { range: scaled.length ? { min, max, unit: meta.unit } : null, swatches } }
+  return { fills, notes, legend: { range: scaled.length ? { min, max, unit: withCurrency(meta.unit, currency) } : null, swatches } }
 }

@@ -7,6 +7,9 @@ import * as m0005 from './0005_sessions_verification_throttle'
 import * as m0006 from './0006_operating_rules'
 import * as m0007 from './0007_unit_suffixes'
 import * as m0008 from './0008_bubble_model'
+import * as m0009 from './0009_organisation_currency'
+import * as m0010 from './0010_civils_per_design_flow'
+import * as m0011 from './0011_assessment_money'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
@@ -19,6 +22,9 @@ export const migrations: Record<string, Migration> = {
   '0006_operating_rules': m0006,
   '0007_unit_suffixes': m0007,
   '0008_bubble_model': m0008,
+  '0009_organisation_currency': m0009,
+  '0010_civils_per_design_flow': m0010,
+  '0011_assessment_money': m0011,
 }
 
 /** Kysely migration provider over the static list above. */

@@ -31,15 +31,16 @@ export async function accountById(db: Kysely<Database>, userId: number): Promise
   return db.selectFrom('users').select(['id', 'email', 'name', 'password_hash']).where('id', '=', userId).executeTakeFirstOrThrow()
 }
 
-/** The user's organisations and roles, by organisation name. */
+/** The user's organisations, roles and each organisation's currency, by organisation name. */
 export async function membershipsOf(db: Kysely<Database>, userId: number): Promise<Me['memberships']> {
-  return db
+  const rows = await db
     .selectFrom('memberships')
     .innerJoin('organisations', 'organisations.id', 'memberships.org_id')
-    .select(['organisations.id as orgId', 'organisations.name as orgName', 'memberships.role as role'])
+    .select(['organisations.id as orgId', 'organisations.name as orgName', 'memberships.role as role', 'organisations.currency_code', 'organisations.currency_symbol'])
     .where('memberships.user_id', '=', userId)
     .orderBy('organisations.name')
     .execute()
+  return rows.map((r) => ({ orgId: r.orgId, orgName: r.orgName, role: r.role, currency: { code: r.currency_code, symbol: r.currency_symbol } }))
 }
 
 /** What GET /api/me answers: the person, whether their address is confirmed, their organisations; null when the account is gone. */

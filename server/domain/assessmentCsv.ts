@@ -1,7 +1,9 @@
 // CSV tables of a stored assessment, units in every header. Pure (papaparse only), so it needs no Nitro.
 import Papa from 'papaparse'
+import { storedVerdict } from '../../shared/engine/money'
 import type { AssessResult, MonthRow, PerFlowRow } from '../../shared/engine/results'
 import type { AssessmentTable } from '../../shared/schemas/assessment'
+import type { Currency } from '../../shared/schemas/organisation'
 
 type Column<R> = [header: string, value: (row: R) => string | number | null]
 
@@ -57,9 +59,12 @@ const MONTHS: Column<MonthRow>[] = [
 ]
 
 /** The summary as figure / value / unit rows (a run stored by an older engine leaves the newer figures blank). */
-function summaryRows(result: AssessResult): (string | number | null)[][] {
+function summaryRows(result: AssessResult, currency: Currency): (string | number | null)[][] {
   const s = result.summary
-  const m = result.money
+  // A run stored before the verdict was kept leaves the newer money cells blank or works them out again.
+  const m = result.money as Partial<AssessResult['money']> & Pick<AssessResult['money'], 'capex' | 'annualOpex' | 'npv' | 'simplePayback_yr' | 'annualCarbonAvoided_t' | 'annualRevenue' | 'lcoe'>
+  const verdict = storedVerdict(m)
+  const c = currency.code
   const op = result.operation as AssessResult['operation'] | undefined
   return [
     ['Annual energy', s.annualEnergy_MWh, 'MWh/yr'],
@@ -81,10 +86,15 @@ function summaryRows(result: AssessResult): (string | number | null)[][] {
     ['Closed months', op ? op.closedMonths.join(' ') : null, 'month numbers'],
     ['Share of the year units run', op?.runningShare ?? null, 'fraction'],
     ['Energy given up for the river', op && op.modesCompared ? op.energyGivenUpForRiver_MWh : null, 'MWh/yr'],
-    ['Capital cost', m.capex, 'currency'],
-    ['Operating cost', m.annualOpex, 'currency/yr'],
-    ['Levelised cost of energy', s.lcoe, 'currency/MWh'],
-    ['Net present value', m.npv, 'currency'],
+    ['Capital cost', m.capex, c],
+    ['Design flow the civil works are priced on', m.designFlow_m3s ?? null, 'm³/s'],
+    ['Operating cost', m.annualOpex, `${c}/yr`],
+    ['Revenue at the export price', m.annualRevenue, `${c}/yr`],
+    ['Export price', m.exportPrice ?? null, `${c}/MWh`],
+    ['Levelised cost of energy', s.lcoe, `${c}/MWh`],
+    ['Net present value', m.npv, c],
+    ['Break-even export price', verdict.breakEvenPrice, `${c}/MWh`],
+    ['Pays at the export price', verdict.pays ? 'yes' : 'no', '-'],
     ['Simple payback', m.simplePayback_yr, 'yr'],
     ['Carbon avoided', m.annualCarbonAvoided_t, 't CO₂/yr'],
     ...s.flags.map((f) => [`Flag: ${f.id}`, f.raised ? 'raised' : 'clear', '-']),
@@ -94,9 +104,9 @@ function summaryRows(result: AssessResult): (string | number | null)[][] {
 
 const cell = (v: string | number | null) => (v === null ? '' : v)
 
-/** One table of a stored result as CSV text (CRLF lines, header first). */
-export function assessmentCsv(result: AssessResult, table: AssessmentTable): string {
+/** One table of a stored result as CSV text (CRLF lines, header first); amounts are labelled with `currency`'s ISO code. */
+export function assessmentCsv(result: AssessResult, table: AssessmentTable, currency: Currency): string {
   if (table === 'perFlow') return Papa.unparse({ fields: PER_FLOW.map((c) => c[0]), data: result.perFlow.map((r) => PER_FLOW.map((c) => cell(c[1](r)))) })
   if (table === 'months') return Papa.unparse({ fields: MONTHS.map((c) => c[0]), data: result.months.map((r) => MONTHS.map((c) => cell(c[1](r)))) })
-  return Papa.unparse({ fields: ['Figure', 'Value', 'Unit'], data: summaryRows(result).map((r) => r.map(cell)) })
+  return Papa.unparse({ fields: ['Figure', 'Value', 'Unit'], data: summaryRows(result, currency).map((r) => r.map(cell)) })
 }

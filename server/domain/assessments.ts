@@ -79,6 +79,8 @@ export function summaryColumns(result: AssessResult) {
     min_cavitation_margin_m: s.minCavitationMargin_m,
     net_oxygen_gain_slf_mgl: s.netOxygenGainSummerLowFlow_mgL,
     lcoe: s.lcoe,
+    capex: result.money.capex,
+    npv: result.money.npv,
     flags_raised: JSON.stringify(raised),
     flag_count: raised.length,
   } satisfies Partial<Record<keyof AssessmentsTable, unknown>>

@@ -37,6 +37,8 @@ export function selectAssessmentSummary(eb: ExpressionBuilder<Database, 'assessm
     'assessments.min_cavitation_margin_m',
     'assessments.net_oxygen_gain_slf_mgl',
     'assessments.lcoe',
+    'assessments.capex',
+    'assessments.npv',
     'assessments.flags_raised',
     eb.selectFrom('users').select('users.name').whereRef('users.id', '=', 'assessments.created_by').as('creator_name'),
     eb.selectFrom('assessments as later').select('later.id').whereRef('later.supersedes_id', '=', 'assessments.id').limit(1).as('superseded_by'),
@@ -47,7 +49,7 @@ export function selectAssessmentSummary(eb: ExpressionBuilder<Database, 'assessm
 export type AssessmentSummaryRow = Pick<
   AssessmentRow,
   | 'id' | 'site_id' | 'option_id' | 'engine_version' | 'created_at' | 'created_by' | 'supersedes_id'
-  | 'annual_energy_mwh' | 'capacity_factor' | 'rated_power_kw' | 'min_cavitation_margin_m' | 'net_oxygen_gain_slf_mgl' | 'lcoe' | 'flags_raised'
+  | 'annual_energy_mwh' | 'capacity_factor' | 'rated_power_kw' | 'min_cavitation_margin_m' | 'net_oxygen_gain_slf_mgl' | 'lcoe' | 'capex' | 'npv' | 'flags_raised'
 > & { creator_name: string | null; superseded_by: number | null }
 
 /** An assessment row as the API shows it (without its tables); `stale` compares with this server's engine. */
@@ -68,6 +70,8 @@ export function assessmentDto(row: AssessmentSummaryRow): AssessmentDto {
     minCavitationMargin_m: row.min_cavitation_margin_m,
     netOxygenGainSummerLowFlow_mgL: row.net_oxygen_gain_slf_mgl,
     lcoe: row.lcoe,
+    capex: row.capex,
+    npv: row.npv,
     flagsRaised: JSON.parse(row.flags_raised) as FlagId[],
   }
 }
@@ -223,6 +227,7 @@ export async function compareOptions(db: Kysely<Database>, userId: number, ids: 
     .selectFrom('options')
     .innerJoin('sites', 'sites.id', 'options.site_id')
     .innerJoin('memberships', (j) => j.onRef('memberships.org_id', '=', 'sites.org_id').on('memberships.user_id', '=', userId))
+    .innerJoin('organisations', 'organisations.id', 'sites.org_id')
     .select([
       'options.id',
       'options.name',
@@ -234,6 +239,8 @@ export async function compareOptions(db: Kysely<Database>, userId: number, ids: 
       'sites.name as site_name',
       'sites.river_name',
       'sites.gross_head_m',
+      'organisations.currency_code',
+      'organisations.currency_symbol',
     ])
     .where('options.id', 'in', [...ids])
     .where('options.deleted_at', 'is', null)
@@ -248,7 +255,7 @@ export async function compareOptions(db: Kysely<Database>, userId: number, ids: 
       const r = byId.get(id)!
       return {
         option: { id: r.id, name: r.name, design: JSON.parse(r.design) as OptionDesign, settings: JSON.parse(r.settings) as OptionSettings, version: r.version },
-        site: { id: r.site_id, orgId: r.org_id, name: r.site_name, riverName: r.river_name, grossHead_m: r.gross_head_m },
+        site: { id: r.site_id, orgId: r.org_id, name: r.site_name, riverName: r.river_name, grossHead_m: r.gross_head_m, currency: { code: r.currency_code, symbol: r.currency_symbol } },
         latestAssessment: latest.get(id) ?? null,
       }
     }),

@@ -9,6 +9,8 @@ import type { FlagId } from '../../shared/engine/results'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 import { PORTFOLIO_MAP_MAX, type PortfolioDto, type PortfolioQuery, type PortfolioRow, type PortfolioSort } from '../../shared/schemas/portfolio'
 import { REVIEW_STATES, type ReviewState } from '../../shared/schemas/review'
+import type { Currency } from '../../shared/schemas/organisation'
+import { organisationCurrency } from './organisations'
 import { siteTextFilter } from './sites'
 
 // Sort keys as the `page` step sees them: site columns from `latest`, figures from the assessment.
@@ -23,6 +25,8 @@ const SORT_COLUMNS = {
   minCavitationMargin_m: 'a.min_cavitation_margin_m',
   netOxygenGainSummerLowFlow_mgL: 'a.net_oxygen_gain_slf_mgl',
   lcoe: 'a.lcoe',
+  npv: 'a.npv',
+  capex: 'a.capex',
   flagsRaised: 'a.flag_count',
   reviewState: 'l.review_rank',
 } as const satisfies Record<PortfolioSort, string>
@@ -121,6 +125,8 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
       'a.min_cavitation_margin_m',
       'a.net_oxygen_gain_slf_mgl',
       'a.lcoe',
+      'a.npv',
+      'a.capex',
       'a.flags_raised',
     ])
     .orderBy(sql`${sql.ref('p.sort_key')} ${dir} nulls last`)
@@ -161,6 +167,8 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
             minCavitationMargin_m: r.min_cavitation_margin_m,
             netOxygenGainSummerLowFlow_mgL: r.net_oxygen_gain_slf_mgl!,
             lcoe: r.lcoe,
+            npv: r.npv,
+            capex: r.capex,
             flagsRaised: JSON.parse(r.flags_raised ?? '[]') as FlagId[],
           },
   }
@@ -169,13 +177,14 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
 /** Text a spreadsheet will not run as a formula (a leading = + - @ gets a quote mark). */
 const safeText = (s: string) => (/^[=+\-@\t\r]/.test(s) ? `'${s}` : s)
 
-/** The portfolio rows as CSV, units in the header, every line (the last too) ended by CRLF. */
-export function portfolioCsv(rows: readonly PortfolioRow[]): string {
+/** The portfolio rows as CSV, units in the header (amounts in the organisation's currency, by its ISO code), every line (the last too) ended by CRLF. */
+export function portfolioCsv(rows: readonly PortfolioRow[], currency: Currency): string {
+  const c = currency.code
   return `${Papa.unparse({
     fields: [
       'Site id', 'Site', 'River', 'Latitude (°)', 'Longitude (°)', 'Gross head (m)', 'Option', 'Assessed at (UTC)', 'Engine version', 'Stale (-)',
       'Annual energy (MWh/yr)', 'Capacity factor (-)', 'Rated power (kW)', 'Net oxygen gain at summer low flow (mg/L)',
-      'Levelised cost (currency/MWh)', 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
+      `Levelised cost (${c}/MWh)`, `Net present value (${c})`, `Capital cost (${c})`, 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
     ],
     data: rows.map((r) => {
       const l = r.latest
@@ -183,7 +192,7 @@ export function portfolioCsv(rows: readonly PortfolioRow[]): string {
         r.siteId, safeText(r.name), safeText(r.riverName), r.location.lat, r.location.lng, r.grossHead_m,
         l ? safeText(l.optionName) : '', l?.assessedAt ?? '', l?.engineVersion ?? '', l ? (l.stale ? 'yes' : 'no') : '',
         l?.annualEnergy_MWh ?? '', l?.capacityFactor ?? '', l?.ratedPower_kW ?? '', l?.netOxygenGainSummerLowFlow_mgL ?? '',
-        l?.lcoe ?? '', l?.minCavitationMargin_m ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
+        l?.lcoe ?? '', l?.npv ?? '', l?.capex ?? '', l?.minCavitationMargin_m ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
       ]
     }),
   })}\r\n`
@@ -196,12 +205,13 @@ export async function allPortfolioRows(db: Kysely<Database>, orgId: number, quer
 
 /** The portfolio as the API answers it: one page (`page`), or every matching row up to PORTFOLIO_MAP_MAX unpaged (`map`). */
 export async function loadPortfolio(db: Kysely<Database>, orgId: number, query: Omit<PortfolioQuery, 'format'>, shape: 'page' | 'map'): Promise<PortfolioDto> {
+  const currency = await organisationCurrency(db, orgId)
   if (shape === 'map') {
     const rows = await portfolioQuery(db, orgId, { ...query, page: 1, pageSize: PORTFOLIO_MAP_MAX }).execute()
     const total = rows.length > 0 ? Number(rows[0]!.total) : 0
-    return { page: 1, pageSize: PORTFOLIO_MAP_MAX, total, sort: query.sort, dir: query.dir, rows: rows.map(portfolioRow) }
+    return { page: 1, pageSize: PORTFOLIO_MAP_MAX, total, sort: query.sort, dir: query.dir, currency, rows: rows.map(portfolioRow) }
   }
   const rows = await portfolioQuery(db, orgId, query).execute()
   const total = rows.length > 0 ? Number(rows[0]!.total) : query.page > 1 ? await portfolioCount(db, orgId, query) : 0
-  return { page: query.page, pageSize: query.pageSize, total, sort: query.sort, dir: query.dir, rows: rows.map(portfolioRow) }
+  return { page: query.page, pageSize: query.pageSize, total, sort: query.sort, dir: query.dir, currency, rows: rows.map(portfolioRow) }
 }

@@ -1,3 +1,4 @@
+import { storedVerdict, type StoredMoney } from '../../shared/engine/money'
 import type { AssessResult, FlagId } from '../../shared/engine/results'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '../../shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '../../shared/schemas/review'
@@ -95,7 +96,9 @@ export function reservedFlowBasis(setting: ReservedFlow, flow_m3s: number, hydro
 }
 
 /** Fields of the brief that come from the stored result alone (the route adds the site and assessment). */
-export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'flags'>
+export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'flags'> & {
+  money: Omit<ReviewBriefDto['money'], 'currency'>
+}
 
 // A gap this small between flows in the table is rounding, not water taken from the reserve.
 const FLOW_TOLERANCE = 1e-9
@@ -135,5 +138,15 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow): Review
     flags: result.summary.flags.map((f) => ({
       id: f.id, raised: f.raised, level: f.level ?? (f.safety ? 'safety' : 'note'), safety: f.safety, shareOfTime: f.shareOfTime ?? null, reason: f.reason,
     })),
+    money: briefMoney(result.money),
+  }
+}
+
+/** The money figures the brief shows, from the stored result (named fields only), with the verdict worked out again for an older run. */
+function briefMoney(m: StoredMoney): ReviewBriefBody['money'] {
+  return {
+    capex: m.capex, annualOpex: m.annualOpex, annualRevenue: m.annualRevenue, npv: m.npv, lcoe: m.lcoe,
+    ...(m.exportPrice === undefined ? {} : { exportPrice: m.exportPrice }),
+    ...storedVerdict(m),
   }
 }

@@ -23,6 +23,7 @@ import type { ReservedFlow } from '../../shared/schemas/site'
 import type { Role } from '../../shared/utils/roles'
 import { conflict, unprocessable } from './errors'
 import { sendAll, type Mailer } from './mail/outbox'
+import { organisationCurrency } from './organisations'
 import { commentMentionMail } from './mail/templates/commentMention'
 import { reviewDecidedMail } from './mail/templates/reviewDecided'
 import { reviewSubmittedMail } from './mail/templates/reviewSubmitted'
@@ -329,5 +330,6 @@ export async function loadReviewBrief(db: Kysely<Database>, site: SiteRow): Prom
   }
   const result = JSON.parse(payload.result_json) as AssessResult
   const setting = (payload.reserved_json ? JSON.parse(payload.reserved_json) : JSON.parse(site.reserved_flow)) as ReservedFlow
-  return { siteId: site.id, siteName: site.name, assessment, ...reviewBrief(result, setting) }
+  const brief = reviewBrief(result, setting)
+  return { siteId: site.id, siteName: site.name, assessment, ...brief, money: { ...brief.money, currency: await organisationCurrency(db, site.org_id) } }
 }

@@ -7,6 +7,7 @@ import type { Catchment, FdcPointInput, HeadRow, HydrologySource, Month, Reach, 
 import type { SiteListDto, SiteListQuery, SiteMapPoint, SiteSort } from '../../shared/schemas/siteList'
 import { conflict } from './errors'
 import { loadFlowRecord } from './flowRecords'
+import { organisationCurrency } from './organisations'
 
 /** A LIKE pattern finding `text` anywhere, with % _ and \ taken literally (use with `escape '\'`). */
 export const likeAnywhere = (text: string) => `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
@@ -133,9 +134,10 @@ export function hydrologySourceOf(hasRecord: boolean, fdcPointCount: number): Hy
 
 /** A site row as GET /api/sites/[id] shows it. */
 export async function siteDto(db: Kysely<Database>, site: SiteRow): Promise<SiteDto> {
-  const [creator, flowRecord] = await Promise.all([
+  const [creator, flowRecord, currency] = await Promise.all([
     site.created_by === null ? undefined : db.selectFrom('users').select(['id', 'name']).where('id', '=', site.created_by).executeTakeFirst(),
     loadFlowRecord(db, site.id),
+    organisationCurrency(db, site.org_id),
   ])
   const fdcPoints = JSON.parse(site.fdc_points) as FdcPointInput[]
   return {
@@ -161,6 +163,7 @@ export async function siteDto(db: Kysely<Database>, site: SiteRow): Promise<Site
     deletedAt: site.deleted_at,
     hydrologySource: hydrologySourceOf(flowRecord !== null, fdcPoints.length),
     flowRecord,
+    currency,
   }
 }
 

@@ -1,7 +1,9 @@
 import { sql, type Kysely } from 'kysely'
 import type { Database, SiteRow, SummaryLinkRow } from '../../db/schema'
+import { storedVerdict, type StoredMoney } from '../../shared/engine/money'
 import type { AssessResult } from '../../shared/engine/results'
 import type { OptionDesign } from '../../shared/schemas/option'
+import type { Currency } from '../../shared/schemas/organisation'
 import { REVIEW_STATE_LABELS, type ReviewState } from '../../shared/schemas/review'
 import type { Reach } from '../../shared/schemas/site'
 import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type SummaryLinkState } from '../../shared/schemas/summaryLink'
@@ -70,6 +72,8 @@ export const homesEquivalent = (annualEnergy_MWh: number) => Math.max(0, Math.fl
 export interface SummarySources {
   site: Pick<SiteRow, 'name' | 'river_name' | 'lat' | 'lng' | 'reach' | 'gross_head_m' | 'target_oxygen_mgl'>
   organisationName: string
+  /** The organisation's currency: the summary's amounts are in it. */
+  currency: Currency
   creatorName: string | null
   expiresAt: string
   review: { state: ReviewState; reason: string | null; conditions: string | null; decidedAt: string | null }
@@ -127,6 +131,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
           source: 'illustrative',
         }
       : null,
+    money: a ? { ...publicMoney(a.result.money), currency: s.currency } : null,
     river,
     review: {
       state: s.review.state,
@@ -141,10 +146,19 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
   }
 }
 
+/** The money figures the summary shows (named fields only), the verdict worked out again for an older run. */
+function publicMoney(m: StoredMoney): Omit<NonNullable<PublicSummaryDto['money']>, 'currency'> {
+  return {
+    capex: m.capex, annualOpex: m.annualOpex, annualRevenue: m.annualRevenue, npv: m.npv, lcoe: m.lcoe,
+    ...(m.exportPrice === undefined ? {} : { exportPrice: m.exportPrice }),
+    ...storedVerdict(m),
+  }
+}
+
 /** Loads the sources of a live link's summary: the assessment under review, else the site's latest of a live option. */
 export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkRow, site: SiteRow): Promise<PublicSummaryDto> {
   const [org, creator, review] = await Promise.all([
-    db.selectFrom('organisations').select('name').where('id', '=', site.org_id).executeTakeFirstOrThrow(),
+    db.selectFrom('organisations').select(['name', 'currency_code', 'currency_symbol']).where('id', '=', site.org_id).executeTakeFirstOrThrow(),
     link.created_by === null ? undefined : db.selectFrom('users').select('name').where('id', '=', link.created_by).executeTakeFirst(),
     db.selectFrom('site_reviews').selectAll().where('site_id', '=', site.id).executeTakeFirst(),
   ])
@@ -171,6 +185,7 @@ export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkR
   return buildPublicSummary({
     site,
     organisationName: org.name,
+    currency: { code: org.currency_code, symbol: org.currency_symbol },
     creatorName: creator?.name ?? null,
     expiresAt: link.expires_at,
     review: { state: review?.state ?? 'draft', reason: review?.reason ?? null, conditions: review?.conditions ?? null, decidedAt: review?.decided_at ?? null },

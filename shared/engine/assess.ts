@@ -7,8 +7,8 @@ import { yearByYear } from './recordYears'
 import { runBasis, type RunBasis } from './runBasis'
 import { moneySummary } from './money'
 import { monteCarlo } from './monteCarlo'
-import { buildScheme, flowState, powerState, riverFirstState, type FlowState, type Scheme } from './scheme'
-import { buildFlags } from './flags'
+import { buildScheme, designFlow, flowState, powerState, riverFirstState, type FlowState, type Scheme } from './scheme'
+import { buildFlags, moneyFlag, withMoneyAtP50 } from './flags'
 import type { AssessResult, MethodsComparison, ModeFigures, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { recoveredFraction, throatAreaRatio } from './venturi'
 import { judgeYear, yearEnergy, yearStates, type YearEnergy, type YearJudgement, type YearStates } from './year'
@@ -145,12 +145,13 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   // The summer low flow is one of the month rows (its flow and conditions), so its state is that row's.
   const slfState = monthStates[slf.month - 1] ?? flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
 
+  // Civils are priced on the design flow: every unit running full at the gross head.
   const money = moneySummary({
-    ...o.costs, rating_W, units: o.units, annualEnergy_MWh: energy.annualEnergy_MWh,
+    ...o.costs, rating_W, designFlow_m3s: designFlow(s), annualEnergy_MWh: energy.annualEnergy_MWh,
     opexFraction: st.opexFraction, discountRate: st.discountRate, life_yr: st.life_yr, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
   })
 
-  const flags = buildFlags({ s, year, energy, grid })
+  const flags = [...buildFlags({ s, year, energy, grid }), moneyFlag(money, st.exportPrice)]
   const worstCav = year.worstCavitation
   const worstTdg = year.worstTdg
 
@@ -216,5 +217,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
  * same figures.
  */
 export function assessWithUncertainty(input: AssessInput): AssessResult {
-  return { ...assess(input), uncertainty: monteCarlo(input) }
+  const r = assess(input)
+  const uncertainty = monteCarlo(input)
+  return { ...r, uncertainty, summary: { ...r.summary, flags: withMoneyAtP50(r.summary.flags, uncertainty) } }
 }

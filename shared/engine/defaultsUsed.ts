@@ -33,7 +33,7 @@ export function defaultsUsed(input: AssessInput): DefaultUsed[] {
   check('option.turbine.cutInFraction', o.turbine.cutInFraction, DEFAULTS.turbineCutInFraction)
   check('option.costs.fixedCost', o.costs.fixedCost, MONEY_DEFAULTS.fixedCost)
   check('option.costs.ratedPowerPrice', o.costs.ratedPowerPrice, MONEY_DEFAULTS.ratedPowerPrice)
-  check('option.costs.civilsPerUnit', o.costs.civilsPerUnit, MONEY_DEFAULTS.civilsPerUnit)
+  check('option.costs.civilsPerDesignFlow', o.costs.civilsPerDesignFlow, MONEY_DEFAULTS.civilsPerDesignFlow)
   check('site.salinity_gkg', input.site.salinity_gkg, DEFAULTS.salinity)
   const a = WATER_QUALITY_A[input.site.waterQuality]
   out.push({ field: 'site.waterQuality', value: a.value, unit: '-', source: `${a.label}: ${a.source}` })

@@ -1,6 +1,8 @@
 // The flags an assessment raises or clears, judged over the whole year (year.ts), each with its share
 // of time, its worst value and when, and its reason in plain words either way.
 import type { AnnualEnergy } from './energy'
+import type { MoneySummary } from './money'
+import type { UncertaintyResult } from './monteCarlo'
 import type { Flag, FlagId, FlagLevel, FlagWorst } from './results'
 import type { PowerState, Scheme } from './scheme'
 import type { YearJudgement } from './year'
@@ -88,4 +90,35 @@ export function buildFlags(c: FlagContext): Flag[] {
   flags.push(flag('never-runs', 'note', never, null, null,
     never ? neverRunsReason(c.s, c.grid()) : `The units run ${pct(y.runningShare)} of the year and make ${fmt(c.energy.annualEnergy_MWh, 1)} MWh in an average year.`))
   return flags
+}
+
+/** Whole currency units with thousands separators and a true minus sign (the engine names no currency). */
+const amount = (x: number): string => `${x < 0 ? '−' : ''}${Math.round(Math.abs(x)).toLocaleString('en-GB')}`
+
+/**
+ * The money flag: raised when the scheme does not pay at the export price (revenue below the
+ * operating cost, or NPV below zero), with the break-even price. Judged on the central energy figure.
+ */
+export function moneyFlag(m: MoneySummary, exportPrice: number): Flag {
+  const needs = m.breakEvenPrice === null ? 'it makes no energy, so no price would make it pay' : `it would need ${amount(m.breakEvenPrice)} per MWh to break even`
+  const parts: string[] = []
+  if (m.shortfalls.includes('revenue-below-opex')) parts.push(`revenue ${amount(m.annualRevenue)} a year is below the operating cost ${amount(m.annualOpex)} a year`)
+  if (m.shortfalls.includes('negative-npv')) parts.push(`NPV ${amount(m.npv)} at ${amount(exportPrice)} per MWh`)
+  return flag('does-not-pay', 'money', !m.pays, null, null,
+    m.pays
+      ? `Pays at ${amount(exportPrice)} per MWh: NPV ${amount(m.npv)}; it breaks even at ${amount(m.breakEvenPrice ?? 0)} per MWh.`
+      : `Does not pay: ${parts.join('; ')}; ${needs}.`)
+}
+
+/**
+ * The does-not-pay flag once the Monte Carlo has run: raised also when the central figures pay but
+ * the median draw does not (NPV below zero at P50).
+ */
+export function withMoneyAtP50(flags: Flag[], uncertainty: UncertaintyResult | null): Flag[] {
+  const p50 = uncertainty?.npv.p50 ?? null
+  if (p50 === null || !(p50 < 0)) return flags
+  return flags.map((f) => (f.id !== 'does-not-pay' || f.raised ? f : {
+    ...f, raised: true,
+    reason: `Does not pay at P50: the central figures pay, but half of the ${uncertainty!.draws} draws of the uncertain inputs give an NPV below ${amount(p50)}. ${f.reason}`,
+  }))
 }

@@ -8,7 +8,7 @@ import { annualOpex, capex, lcoe, npv } from './money'
 import { atExceedance } from './recordYears'
 import { drawFrom, seededRandom, type Spread } from './random'
 import { runBasis, type RunBasis } from './runBasis'
-import { buildScheme, flowState } from './scheme'
+import { buildScheme, designFlow, flowState } from './scheme'
 import { yearEnergy } from './year'
 
 /** The inputs the Monte Carlo draws. */
@@ -159,7 +159,7 @@ function runDraw(input: AssessInput, b: RunBasis, capexFactor: number): DrawFigu
   }
   const st = input.settings
   const o = input.option
-  const c = capex(o.costs, s.ratedPerUnit_W * o.units, o.units) * capexFactor
+  const c = capex(o.costs, s.ratedPerUnit_W * o.units, designFlow(s)) * capexFactor
   const op = annualOpex(c, st.opexFraction)
   return {
     energy_MWh: e,

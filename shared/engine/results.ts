@@ -8,13 +8,14 @@ import type { YearByYear } from './recordYears'
 import type { FlowState } from './scheme'
 
 /** Names of the flags an assessment raises. */
-export type FlagId = 'cavitation' | 'gas-supersaturation' | 'scheme-below-target' | 'net-oxygen-loss' | 'oxygen-below-target' | 'never-runs'
+export type FlagId = 'cavitation' | 'gas-supersaturation' | 'scheme-below-target' | 'net-oxygen-loss' | 'oxygen-below-target' | 'never-runs' | 'does-not-pay'
 
 /**
  * How serious a raised flag is: `safety` is harm to people, plant or fish (red); `river` is a cost to
- * the river's oxygen the regulator will weigh (amber); `note` is for information.
+ * the river's oxygen the regulator will weigh (amber); `money` is a scheme that does not pay its way
+ * (it harms no one, but a developer stops there); `note` is for information.
  */
-export type FlagLevel = 'safety' | 'river' | 'note'
+export type FlagLevel = 'safety' | 'river' | 'money' | 'note'
 
 /** The worst value a flag met over the year, and when. */
 export interface FlagWorst {

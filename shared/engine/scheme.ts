@@ -118,6 +118,11 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
   return { ...partial, ratedPerUnit_W: p.air.availableElectricalPower_W }
 }
 
+/** The scheme's design flow: every unit at its capacity at the site's gross head, m³/s (what its civil works are priced on). */
+export function designFlow(s: Scheme): number {
+  return s.input.option.units * unitCapacity(s.input.site.grossHead_m, s.geometry)
+}
+
 /**
  * River-first mode: a unit stays shut where running it would lower downstream oxygen by more than the
  * acceptable loss, or lower it while the river is below its target (ENGINE.md §8). Null in

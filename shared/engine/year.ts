@@ -122,7 +122,7 @@ interface Tally {
 /** What the whole-year judgement found. */
 export interface YearJudgement {
   /** Share of the year each flag is raised, and its worst value with when. */
-  tallies: Record<Exclude<FlagId, 'never-runs'>, Tally>
+  tallies: Record<Exclude<FlagId, 'never-runs' | 'does-not-pay'>, Tally>
   /** Share of the year at least one unit runs. */
   runningShare: number
   /** Time-weighted mean net oxygen change over the year, mg/L. */
@@ -145,7 +145,7 @@ export interface YearJudgement {
 }
 
 /** Count a raised flag: its share of the year grows by the cell's weight, and the month lists it. */
-function raise(tallies: YearJudgement['tallies'], monthFlags: Set<FlagId>, id: Exclude<FlagId, 'never-runs'>, weight: number): void {
+function raise(tallies: YearJudgement['tallies'], monthFlags: Set<FlagId>, id: keyof YearJudgement['tallies'], weight: number): void {
   tallies[id].share += weight
   monthFlags.add(id)
 }

@@ -136,11 +136,11 @@ export const TurbineInputSchema = z.object({
   cutInFraction: fraction.default(d('turbineCutInFraction')),
 })
 
-/** Costs of an option (all defaults illustrative). */
+/** Costs of an option (defaults and their origins in MONEY_DEFAULTS). */
 export const CostInputSchema = z.object({
   fixedCost: amount.default(MONEY_DEFAULTS.fixedCost.value),
   ratedPowerPrice: amount.default(MONEY_DEFAULTS.ratedPowerPrice.value),
-  civilsPerUnit: amount.default(MONEY_DEFAULTS.civilsPerUnit.value),
+  civilsPerDesignFlow: amount.default(MONEY_DEFAULTS.civilsPerDesignFlow.value),
 })
 
 /** How the units are run (ENGINE.md §8): the mode, the head pool's allowed drawdown, closed months. */

@@ -66,6 +66,10 @@ export interface AssessmentDto {
   netOxygenGainSummerLowFlow_mgL: number
   /** Levelised cost, money per MWh; null when no energy. */
   lcoe: number | null
+  /** Capital cost, in the organisation's currency; null only for a stored result that lacked it. */
+  capex: number | null
+  /** NPV at the export price over the life, in the organisation's currency; null only for a stored result that lacked it. */
+  npv: number | null
   /** Flags raised. */
   flagsRaised: FlagId[]
 }

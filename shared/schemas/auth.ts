@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { ROLES } from '../utils/roles'
 import { EmailSchema, NameSchema } from './common'
+import type { Currency } from './organisation'
 
 export const PASSWORD_MIN = 10
 
@@ -41,6 +42,7 @@ export interface Me {
   emailVerifiedAt: string | null
   /** The organisation the person last chose, opened by default; null when none yet. */
   lastOrgId: number | null
-  memberships: { orgId: number; orgName: string; role: (typeof ROLES)[number] }[]
+  /** Each organisation with the person's role in it and the currency its money figures are in. */
+  memberships: { orgId: number; orgName: string; role: (typeof ROLES)[number]; currency: Currency }[]
 }
 

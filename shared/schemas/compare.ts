@@ -4,6 +4,7 @@ import { z } from 'zod'
 import { fromDigits } from './common'
 import type { AssessmentDto } from './assessment'
 import type { OptionDesign, OptionDto, OptionSettings } from './option'
+import type { Currency } from './organisation'
 
 /** Most options one comparison may hold. */
 export const MAX_COMPARE = 6
@@ -26,7 +27,8 @@ export type CompareQuery = z.infer<typeof CompareQuerySchema>
 /** One column of the comparison. */
 export interface CompareItem {
   option: { id: number; name: string; design: OptionDesign; settings: OptionSettings; version: number }
-  site: { id: number; orgId: number; name: string; riverName: string; grossHead_m: number }
+  /** `currency`: the site's organisation's; the option's amounts are in it. */
+  site: { id: number; orgId: number; name: string; riverName: string; grossHead_m: number; currency: Currency }
   latestAssessment: AssessmentDto | null
 }
 

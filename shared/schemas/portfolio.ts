@@ -3,12 +3,13 @@
 import { z } from 'zod'
 import type { FlagId } from '../engine/results'
 import { fromDigits } from './common'
+import type { Currency } from './organisation'
 import { REVIEW_STATES, type ReviewState } from './review'
 
 /** Columns the portfolio may be sorted by (allow-list). Figures sort with sites never assessed last. */
 export const PORTFOLIO_SORTS = [
   'name', 'riverName', 'grossHead_m', 'assessedAt',
-  'annualEnergy_MWh', 'capacityFactor', 'ratedPower_kW', 'minCavitationMargin_m', 'netOxygenGainSummerLowFlow_mgL', 'lcoe', 'flagsRaised',
+  'annualEnergy_MWh', 'capacityFactor', 'ratedPower_kW', 'minCavitationMargin_m', 'netOxygenGainSummerLowFlow_mgL', 'lcoe', 'npv', 'capex', 'flagsRaised',
   'reviewState',
 ] as const
 export type PortfolioSort = (typeof PORTFOLIO_SORTS)[number]
@@ -49,6 +50,9 @@ export interface PortfolioLatest {
   minCavitationMargin_m: number | null
   netOxygenGainSummerLowFlow_mgL: number
   lcoe: number | null
+  /** In the organisation's currency (the answer's `currency`). */
+  npv: number | null
+  capex: number | null
   flagsRaised: FlagId[]
 }
 
@@ -72,5 +76,7 @@ export interface PortfolioDto {
   total: number
   sort: PortfolioSort
   dir: 'asc' | 'desc'
+  /** The organisation's currency: every amount in the rows is in it. */
+  currency: Currency
   rows: PortfolioRow[]
 }

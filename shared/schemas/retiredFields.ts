@@ -17,6 +17,21 @@ const RENAMED: ReadonlyMap<string, string> = new Map([
   ['lifeYears', 'life_yr'],
 ])
 
+/**
+ * Fields whose meaning changed as well as their name: a value cannot just be moved across, so the
+ * answer says what the new field means.
+ */
+const REPLACED: ReadonlyMap<string, string> = new Map([
+  ['civilsPerUnit', 'is no longer accepted: civil works are now priced per m³/s of the design flow, in civilsPerDesignFlow'],
+])
+
+/** What to tell a caller who still sends `key`; undefined for a current name. */
+function retiredMessage(key: string): string | undefined {
+  const renamed = RENAMED.get(key)
+  if (renamed !== undefined) return `is no longer accepted: the field is now called ${renamed}`
+  return REPLACED.get(key)
+}
+
 /** Most old names one answer lists (a hostile body may repeat one many times). */
 const MAX_ISSUES = 20
 
@@ -31,11 +46,11 @@ export function retiredFieldIssues(input: unknown): RetiredFieldIssue[] {
   const issues: RetiredFieldIssue[] = []
   // Depth-first without recursion (a body may nest deeply; it is already bounded in bytes). Only
   // objects and old names go on the stack, so the plain values of a long record cost little.
-  const stack: { value: unknown; path: string; renamed?: string }[] = [{ value: input, path: '' }]
+  const stack: { value: unknown; path: string; retired?: string }[] = [{ value: input, path: '' }]
   while (stack.length > 0 && issues.length < MAX_ISSUES) {
-    const { value, path, renamed } = stack.pop()!
-    if (renamed !== undefined) {
-      issues.push({ path, message: `is no longer accepted: the field is now called ${renamed}` })
+    const { value, path, retired } = stack.pop()!
+    if (retired !== undefined) {
+      issues.push({ path, message: retired })
       continue
     }
     if (value === null || typeof value !== 'object') continue
@@ -43,9 +58,9 @@ export function retiredFieldIssues(input: unknown): RetiredFieldIssue[] {
     const entries = Object.entries(value)
     for (let i = entries.length - 1; i >= 0; i--) {
       const [key, child] = entries[i]!
-      const now = isArray ? undefined : RENAMED.get(key)
-      if (now === undefined && (child === null || typeof child !== 'object')) continue
-      stack.push({ value: child, path: path === '' ? key : `${path}.${key}`, renamed: now })
+      const retired = isArray ? undefined : retiredMessage(key)
+      if (retired === undefined && (child === null || typeof child !== 'object')) continue
+      stack.push({ value: child, path: path === '' ? key : `${path}.${key}`, retired })
     }
   }
   return issues

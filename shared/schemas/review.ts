@@ -3,8 +3,10 @@
 // routes (server/api/sites/[id]/review/**, server/api/sites/[id]/comments*) and the review forms.
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
+import type { MoneySummary, StoredMoney } from '../engine/money'
 import type { FlagId, FlagLevel } from '../engine/results'
 import { IdSchema, fromDigits } from './common'
+import type { Currency } from './organisation'
 import type { ReservedFlow } from './site'
 import type { Role } from '../utils/roles'
 
@@ -36,7 +38,7 @@ export const COMMENT_ROLES = ['admin', 'engineer', 'reviewer'] as const satisfie
 export const siteReviewPath = (siteId: number) => `/sites/${siteId}?tab=review`
 
 /** The flag ids a comment may point at (the engine's flags). */
-export const FLAG_IDS = ['cavitation', 'gas-supersaturation', 'scheme-below-target', 'net-oxygen-loss', 'oxygen-below-target', 'never-runs'] as const satisfies readonly FlagId[]
+export const FLAG_IDS = ['cavitation', 'gas-supersaturation', 'scheme-below-target', 'net-oxygen-loss', 'oxygen-below-target', 'never-runs', 'does-not-pay'] as const satisfies readonly FlagId[]
 
 export const REVIEW_NOTE_MAX = 4000
 export const REVIEW_REASON_MAX = 4000
@@ -204,4 +206,6 @@ export interface ReviewBriefDto {
   gasSupersaturation: { raised: boolean; reason: string; maxUnitTotalDissolvedGas: number }
   /** Every flag of the assessment, raised or clear, with its level, the share of the year it is raised and its reason. */
   flags: { id: FlagId; raised: boolean; level: FlagLevel; safety: boolean; shareOfTime: number | null; reason: string }[]
+  /** Whether the scheme pays at the export price, amounts in the site's organisation's currency. */
+  money: StoredMoney & Pick<MoneySummary, 'pays' | 'shortfalls' | 'breakEvenPrice'> & { currency: Currency }
 }

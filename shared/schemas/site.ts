@@ -9,6 +9,7 @@ import type { WeirAerationModel } from '../engine/weirAeration'
 import { MAX_FLOW_M3S, areaRatioProblem } from './assess'
 import { IdSchema, NameSchema } from './common'
 import type { FlowRecordSummary } from './flowRecord'
+import type { Currency } from './organisation'
 
 const num = z.number({ error: 'must be a number' })
 const nonNegative = num.min(0, 'must be 0 or more')
@@ -267,4 +268,6 @@ export interface SiteDto {
   /** Which hydrology the engine will use. */
   hydrologySource: HydrologySource
   flowRecord: FlowRecordSummary | null
+  /** The currency of the site's organisation: its options' money figures are in it. */
+  currency: Currency
 }

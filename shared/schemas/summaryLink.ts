@@ -3,7 +3,9 @@
 // server/api/orgs/[orgId]/summary-links*, server/api/public/summary/[token], the sharing form and /s/[token].
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
+import type { MoneySummary, StoredMoney } from '../engine/money'
 import { IdSchema, fromDigits } from './common'
+import type { Currency } from './organisation'
 import type { ReviewState } from './review'
 import type { Reach } from './site'
 
@@ -106,6 +108,8 @@ export interface PublicSummaryDto {
     assumption: string
     source: 'illustrative'
   } | null
+  /** What it would cost and whether it pays at the export price, in the organisation's currency. */
+  money: (StoredMoney & Pick<MoneySummary, 'pays' | 'shortfalls' | 'breakEvenPrice'> & { currency: Currency }) | null
   /** Oxygen in the river below the weir by month, mg/L. */
   river: {
     target_mgL: number

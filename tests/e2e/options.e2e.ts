@@ -158,11 +158,15 @@ async function engineerJourney(browser: Browser) {
 
   // 5. Flags, each in words, raised or clear; then the cautions every screening carries.
   const flags = page.locator('[data-testid=assessment-flags] li[data-testid^=flag-]')
-  assert.equal(await flags.count(), 6, 'every flag is listed, raised or clear')
-  for (const text of await flags.allInnerTexts()) assert.match(text, /^(Safety|River caution|Note|Clear)\s+\S[\s\S]*\n\S/, 'each flag says its level or that it is clear, and its reason')
+  assert.equal(await flags.count(), 7, 'every flag is listed, raised or clear')
+  for (const text of await flags.allInnerTexts()) assert.match(text, /^(Safety|River caution|Money caution|Note|Clear)\s+\S[\s\S]*\n\S/, 'each flag says its level or that it is clear, and its reason')
   const states = await flags.evaluateAll((ls) => ls.map((l) => ({ raised: l.getAttribute('data-raised') === 'true', level: l.getAttribute('data-level') ?? '', facts: l.querySelector('[data-testid=flag-facts]')?.textContent ?? '' })))
-  const rank = (f: { raised: boolean; level: string }) => (f.raised ? 0 : 3) + ['safety', 'river', 'note'].indexOf(f.level)
-  assert.deepEqual(states.map(rank), [...states.map(rank)].sort((a, b) => a - b), 'raised flags first, then safety, river cautions and notes')
+  const rank = (f: { raised: boolean; level: string }) => (f.raised ? 0 : 4) + ['safety', 'river', 'money', 'note'].indexOf(f.level)
+  assert.deepEqual(states.map(rank), [...states.map(rank)].sort((a, b) => a - b), 'raised flags first, then safety, river cautions, money cautions and notes')
+  // Money in the demo organisation's currency, with a plain word on whether it pays.
+  const money = await page.locator('[data-testid=money-verdict]').innerText()
+  assert.match(money, /^(Does not pay: .*it would need £[\d,]+ per MWh to break even\.|Pays: NPV £[\d,]+ at £[\d,]+ per MWh.*)$/, 'the money card says whether the scheme pays, in pounds')
+  assert.ok(!/currency/i.test(await page.locator('[data-testid=money-cards]').innerText()), 'no amount is labelled "currency"')
   const loss = states[await flags.evaluateAll((ls) => ls.findIndex((l) => l.getAttribute('data-testid') === 'flag-net-oxygen-loss'))]!
   assert.equal(loss.level, 'river', 'the oxygen cost to the river is a river caution')
   assert.ok(loss.raised, 'a shallow throat in the leat costs the river some oxygen: its bubbles give back less than the weir\'s fall')

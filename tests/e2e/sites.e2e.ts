@@ -76,7 +76,7 @@ async function engineerJourney(browser: Browser) {
 
   // Headline figures of each latest assessment, units in the headers, and the review state in words.
   const head = ((await page.locator('[data-testid=site-table] thead').textContent()) ?? '').replace(/\s+/g, ' ')
-  for (const h of ['Annual energy (MWh/yr)', 'Capacity factor (%)', 'Net O₂ gain at summer low flow (mg/L)', 'LCOE (currency/MWh)', 'Flags raised (count)', 'Review']) {
+  for (const h of ['Annual energy (MWh/yr)', 'Capacity factor (%)', 'Net O₂ gain at summer low flow (mg/L)', 'LCOE (£/MWh)', 'NPV (£)', 'Capital cost (£)', 'Flags raised (count)', 'Review']) {
     assert.ok(head.includes(h), `the header shows ${h}`)
   }
   const hollin = page.locator('[data-testid=site-table] tbody tr', { hasText: 'Hollin Mill weir' })

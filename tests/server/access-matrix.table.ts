@@ -93,6 +93,8 @@ export const ACCESS_TABLE: Record<string, Row> = {
   // Removing someone else: admin only (a member leaving, their own id, is tested in account-takeover.test.ts).
   'DELETE /api/orgs/:orgId/members/:userId': ORG_ADMIN,
   'GET /api/orgs/:orgId/audit': ORG_ADMIN,
+  'GET /api/orgs/:orgId/settings': ORG_READERS,
+  'PATCH /api/orgs/:orgId/settings': ORG_ADMIN,
   'GET /api/orgs/:orgId/outbox': ORG_ADMIN,
   'GET /api/orgs/:orgId/invitations': ORG_ADMIN,
   'POST /api/orgs/:orgId/invitations': ORG_ADMIN,

@@ -234,6 +234,7 @@ const RECIPES: Record<string, Recipe> = {
   'GET /api/me': {},
   'GET /api/orgs/:orgId/members': {},
   'GET /api/orgs/:orgId/audit': {},
+  'GET /api/orgs/:orgId/settings': {},
   'GET /api/orgs/:orgId/outbox': {},
   'GET /api/orgs/:orgId/invitations': {},
   'GET /api/orgs/:orgId/summary-links': {},
@@ -311,6 +312,7 @@ const RECIPES: Record<string, Recipe> = {
   'POST /api/account/password': { prepare: () => ({ body: { currentPassword: 'not the current one', newPassword: 'whatever new passphrase' } }) },
   'POST /api/account/verification': {},
   'PATCH /api/orgs/:orgId/members/:userId': { prepare: () => ({ body: { role: 'viewer' } }) },
+  'PATCH /api/orgs/:orgId/settings': { prepare: () => ({ body: { currency: { code: 'GBP', symbol: '£' } } }) },
   'POST /api/orgs/:orgId/invitations': { prepare: () => ({ body: { email: uniqueEmail('am-invited'), role: 'viewer' } }) },
   'POST /api/invitations/:key/accept': {
     prepare: async (caller) => {

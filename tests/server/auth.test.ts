@@ -10,7 +10,7 @@ describe('sign-up', () => {
     expect(res.body.message).toMatch(/Check your e-mail/)
     const login = await client.post('/api/auth/login', { email, password: GOOD_PASSWORD })
     expect(login.body.user.email).toBe(email)
-    expect(login.body.memberships).toEqual([{ orgId: expect.any(Number), orgName: 'Ford Hydro', role: 'admin' }])
+    expect(login.body.memberships).toEqual([{ orgId: expect.any(Number), orgName: 'Ford Hydro', role: 'admin', currency: { code: 'GBP', symbol: '£' } }])
     expect(login.body.lastOrgId).toBe(login.body.memberships[0].orgId)
     const me = await client.get('/api/me')
     expect(me.status).toBe(200)

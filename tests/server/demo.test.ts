@@ -1,6 +1,6 @@
 import { execFileSync } from 'node:child_process'
 import { describe, expect, inject, it } from 'vitest'
-import { DEMO_ACCOUNTS, DEMO_ORGANISATION, DEMO_PASSWORD } from '../../db/demo-scenario'
+import { DEMO_ACCOUNTS, DEMO_CURRENCY, DEMO_ORGANISATION, DEMO_PASSWORD } from '../../db/demo-scenario'
 import { Client } from './client'
 
 const seed = () =>
@@ -17,7 +17,7 @@ describe('demo scenario (npm run db:seed)', () => {
       const client = new Client()
       const res = await client.post('/api/auth/login', { email: account.email, password: DEMO_PASSWORD })
       expect(res.status, account.email).toBe(200)
-      expect(res.body.memberships).toEqual([{ orgId: expect.any(Number), orgName: DEMO_ORGANISATION, role: account.role }])
+      expect(res.body.memberships).toEqual([{ orgId: expect.any(Number), orgName: DEMO_ORGANISATION, role: account.role, currency: DEMO_CURRENCY }])
     }
   })
 

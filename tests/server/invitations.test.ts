@@ -113,7 +113,7 @@ describe('opening and accepting an invitation', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(200)
     expect(res.body).toMatchObject({ user: { email, name: 'Joiner' }, orgId: team.orgId, role: 'engineer', siteId: null, created: true })
     const me = await client.get('/api/me')
-    expect(me.body.memberships).toEqual([{ orgId: team.orgId, orgName: 'Org of inv-admin', role: 'engineer' }])
+    expect(me.body.memberships).toEqual([{ orgId: team.orgId, orgName: 'Org of inv-admin', role: 'engineer', currency: { code: 'GBP', symbol: '£' } }])
     const twice = await new Client().post(`/api/invitations/${token}/accept`, { name: 'Thief', password: GOOD_PASSWORD })
     expect(twice.status).toBe(410)
     expect(twice.body.message).toMatch(/already been used/)

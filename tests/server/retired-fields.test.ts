@@ -84,6 +84,31 @@ describe('an option or engine body with the old money names', () => {
   })
 })
 
+describe('an option or engine body with civils per unit (replaced by civils per m³/s of design flow)', () => {
+  it('is refused, naming the new field, and stores nothing', async () => {
+    const before = (await team.engineer.get(`/api/sites/${siteId}/options`)).body
+    const res = await team.engineer.post(`/api/sites/${siteId}/options`, optionBody({ name: 'Civils per unit', design: { costs: { civilsPerUnit: 40_000 } } }))
+    expect(res.status).toBe(400)
+    expect(res.body.message).toBe('design.costs.civilsPerUnit: is no longer accepted: civil works are now priced per m³/s of the design flow, in civilsPerDesignFlow')
+    expect((await team.engineer.get(`/api/sites/${siteId}/options`)).body).toEqual(before)
+    const option = await createOption(team.engineer, siteId)
+    const patch = await team.engineer.patch(`/api/options/${option.id}`, { version: option.version, design: { ...(option.design as object), costs: { fixedCost: 1, civilsPerUnit: 2 } } })
+    expect(patch.status).toBe(400)
+    expect(patch.body.message).toMatch(/^design\.costs\.civilsPerUnit: .*civilsPerDesignFlow/)
+    const assess = example('assess')
+    assess.option.costs = { civilsPerUnit: 40_000 }
+    const one = await team.viewer.post('/api/engine/assess', assess)
+    expect(one.status).toBe(400)
+    expect(one.body.message).toMatch(/^option\.costs\.civilsPerUnit: .*civilsPerDesignFlow/)
+  })
+
+  it('is taken under the new name', async () => {
+    const res = await team.engineer.post(`/api/sites/${siteId}/options`, optionBody({ name: 'Civils per flow', design: { costs: { civilsPerDesignFlow: 90_000 } } }))
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    expect(res.body.design.costs.civilsPerDesignFlow).toBe(90_000)
+  })
+})
+
 describe('other bodies, forms and queries with the old names', () => {
   it('refuses a summary link asked for in days under the old name, and makes none', async () => {
     const res = await team.engineer.post(`/api/sites/${siteId}/summary-links`, { expiresInDays: 3 })

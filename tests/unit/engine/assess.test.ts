@@ -20,7 +20,7 @@ describe('assess: shape and bookkeeping', () => {
     expect(r.engineVersion).toBe('0.3.0')
     expect(r.months).toHaveLength(12)
     expect(r.perFlow.length).toBeGreaterThan(10)
-    expect(r.summary.flags.map((f) => f.id).sort()).toEqual(['cavitation', 'gas-supersaturation', 'net-oxygen-loss', 'never-runs', 'oxygen-below-target', 'scheme-below-target'])
+    expect(r.summary.flags.map((f) => f.id).sort()).toEqual(['cavitation', 'does-not-pay', 'gas-supersaturation', 'net-oxygen-loss', 'never-runs', 'oxygen-below-target', 'scheme-below-target'])
     for (const f of r.summary.flags) expect(f.reason.length).toBeGreaterThan(20)
     expectAllFinite(r)
   })
@@ -70,6 +70,33 @@ describe('assess: shape and bookkeeping', () => {
       expect(f.shareOfTime).toBeGreaterThan(0)
       expect(f.worst?.value).toBeCloseTo(r.summary.worstNetOxygenGain_mgL, 12)
     }
+  })
+})
+
+describe('assess: money', () => {
+  it('prices civils on the design flow (units × one unit full at the gross head) and flags a scheme that does not pay', () => {
+    const input = parse(draft())
+    const r = assess(input)
+    const o = input.option
+    const geometry = { throatDiameter_m: o.throatDiameter_m, outletDiameter_m: o.outletDiameter_m, inletLoss: o.inletLoss, diffuserEfficiency: 0.88, flowCoefficient: 0.98 }
+    // Design flow = n · C·A_t·√(2gH/K) (energy equation, venturi.ts), at the site's gross head.
+    expect(r.money.designFlow_m3s).toBeCloseTo(o.units * unitCapacity(input.site.grossHead_m, geometry), 12)
+    // Capex = fixed + per kW × rating + per m³/s × design flow (bottom-up estimate, common practice).
+    const c = o.costs
+    expect(r.money.capex).toBeCloseTo(c.fixedCost + c.ratedPowerPrice * r.summary.ratedPower_kW + c.civilsPerDesignFlow * r.money.designFlow_m3s, 6)
+    const flag = r.summary.flags.find((f) => f.id === 'does-not-pay')!
+    expect(flag.level).toBe('money')
+    expect(flag.raised).toBe(!r.money.pays)
+    expect(r.money.pays).toBe(r.money.npv >= 0 && r.money.annualRevenue >= r.money.annualOpex)
+  })
+
+  it('pays at an export price above break-even, and not below it', () => {
+    const base = parse(draft())
+    const be = assess(base).money.breakEvenPrice!
+    const at = (price: number) => assess({ ...base, settings: { ...base.settings, exportPrice: price } }, { compareModes: false })
+    expect(at(be * 1.01).money.pays).toBe(true)
+    expect(at(be * 1.01).summary.flags.find((f) => f.id === 'does-not-pay')!.raised).toBe(false)
+    expect(at(be * 0.99).money.pays).toBe(false)
   })
 })
 

@@ -1,9 +1,12 @@
+import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { EngineInputError } from '../../../shared/engine/errors'
+import { moneyFlag } from '../../../shared/engine/flags'
 import {
   MONEY_DEFAULTS,
   annualOpex,
   annuityFactor,
+  breakEvenPrice,
   capex,
   capitalRecoveryFactor,
   carbonAvoided,
@@ -11,6 +14,7 @@ import {
   moneySummary,
   npv,
   simplePayback,
+  storedVerdict,
 } from '../../../shared/engine/money'
 
 function expectInputError(fn: () => unknown, field: string): void {
@@ -61,14 +65,24 @@ describe('capital recovery factor', () => {
 })
 
 describe('capex, opex and LCOE', () => {
-  const costs = { fixedCost: 50_000, ratedPowerPrice: 3_000, civilsPerUnit: 20_000 }
+  const costs = { fixedCost: 50_000, ratedPowerPrice: 3_000, civilsPerDesignFlow: 20_000 }
 
-  it('adds fixed, per-kW and per-unit civil costs (bottom-up estimate)', () => {
-    // 50 000 + 3 000 × 40 kW + 20 000 × 2 units = 210 000 (worked by hand).
+  it('adds fixed, per-kW equipment and per-m³/s civil costs (bottom-up estimate)', () => {
+    // 50 000 + 3 000 × 40 kW + 20 000 × 2 m³/s = 210 000 (worked by hand).
     expect(capex(costs, 40_000, 2)).toBe(210_000)
+    // A design flow need not be whole: 50 000 + 20 000 × 1.5 = 80 000 with no rating.
+    expect(capex(costs, 0, 1.5)).toBe(80_000)
     expect(capex(costs, 0, 0)).toBe(50_000)
-    expectInputError(() => capex(costs, 40_000, 1.5), 'units')
+    expectInputError(() => capex(costs, 40_000, -1), 'designFlow_m3s')
     expectInputError(() => capex({ ...costs, ratedPowerPrice: -1 }, 40_000, 2), 'ratedPowerPrice')
+    expectInputError(() => capex({ ...costs, civilsPerDesignFlow: Number.NaN }, 40_000, 2), 'civilsPerDesignFlow')
+  })
+
+  it('prices civil works on the water handled, not the kW', () => {
+    // Doubling the design flow at the same rating adds one more lot of civils only (the civils
+    // follow the flow; LGA: civil works dominate low-head costs).
+    expect(capex(costs, 40_000, 4) - capex(costs, 40_000, 2)).toBe(40_000)
+    expect(capex(costs, 80_000, 2) - capex(costs, 40_000, 2)).toBe(120_000)
   })
 
   it('takes opex as a fraction of capex a year', () => {
@@ -125,9 +139,9 @@ describe('moneySummary and defaults', () => {
     const s = moneySummary({
       fixedCost: 50_000,
       ratedPowerPrice: 3_000,
-      civilsPerUnit: 20_000,
+      civilsPerDesignFlow: 20_000,
       rating_W: 40_000,
-      units: 2,
+      designFlow_m3s: 2,
       annualEnergy_MWh: 200,
       opexFraction: 0.03,
       discountRate: 0.08,
@@ -145,12 +159,112 @@ describe('moneySummary and defaults', () => {
     // payback = 210 000 / 23 700 = 8.861 years
     expect(s.simplePayback_yr).toBeCloseTo(8.861, 3)
     expect(s.annualCarbonAvoided_t).toBeCloseTo(40, 12)
+    // It pays: revenue 30 000 > opex 6 300, NPV > 0; break-even = LCOE (same annuity form).
+    expect(s.pays).toBe(true)
+    expect(s.shortfalls).toEqual([])
+    expect(s.breakEvenPrice).toBeCloseTo(129.863, 3)
+    expect(s.designFlow_m3s).toBe(2)
+    expect(s.exportPrice).toBe(150)
   })
 
-  it('labels every money default illustrative', () => {
-    for (const d of Object.values(MONEY_DEFAULTS)) expect(d.source).toBe('illustrative')
+  it('labels every money default with its origin: the LGA\'s published costs, or illustrative', () => {
+    for (const d of Object.values(MONEY_DEFAULTS)) expect(d.source).toMatch(/^(LGA small-hydro costs|illustrative)/)
     expect(MONEY_DEFAULTS.discountRate.value).toBe(0.08)
     expect(MONEY_DEFAULTS.life_yr.value).toBe(25)
     expect(MONEY_DEFAULTS.opexFraction.value).toBe(0.03)
+  })
+
+  it('works the cost defaults from the LGA\'s low-head costs', () => {
+    // LGA (REFERENCES §14), heads under 4 m: £5,000–8,000 per kW; electro-mechanical about 10 %.
+    expect(MONEY_DEFAULTS.ratedPowerPrice.value).toBeGreaterThanOrEqual(0.1 * 5_000)
+    expect(MONEY_DEFAULTS.ratedPowerPrice.value).toBeLessThanOrEqual(0.1 * 8_000)
+    // Civil works 65–75 % of £5,000–8,000 per kW: at 2.5 m and 70 % water-to-wire a conventional
+    // scheme makes ηρgH = 0.7 × 1000 × 9.81 × 2.5 / 1000 = 17.17 kW per m³/s, so the civils default
+    // per m³/s must sit between 0.65 × 5 000 × 17.17 and 0.75 × 8 000 × 17.17 (worked by hand).
+    const kwPerM3s = (0.7 * 1000 * 9.81 * 2.5) / 1000
+    expect(MONEY_DEFAULTS.civilsPerDesignFlow.value).toBeGreaterThanOrEqual(0.65 * 5_000 * kwPerM3s)
+    expect(MONEY_DEFAULTS.civilsPerDesignFlow.value).toBeLessThanOrEqual(0.75 * 8_000 * kwPerM3s)
+  })
+})
+
+describe('break-even export price', () => {
+  it('is the price at which NPV is zero, worked by hand', () => {
+    // capex 1 000, opex 100, 4 MWh/yr, 10 %, 5 yr: AF = 3.790787; p = (1 000/3.790787 + 100)/4 = 90.949
+    // (discounted cash flow: −C + (E·p − O)·AF = 0).
+    expect(breakEvenPrice(1_000, 100, 4, 0.1, 5)).toBeCloseTo(90.949, 3)
+    expect(npv(1_000, 100, 4, 90.94937, 0.1, 5)).toBeCloseTo(0, 3)
+    // i = 0: (1 000/5 + 100)/4 = 75
+    expect(breakEvenPrice(1_000, 100, 4, 0, 5)).toBeCloseTo(75, 12)
+  })
+
+  it('is null when the option makes no energy', () => {
+    expect(breakEvenPrice(1_000, 100, 0, 0.08, 25)).toBeNull()
+  })
+
+  it('makes NPV zero within 1e-9 of the capex, over random inputs (property)', () => {
+    // NPV(p*) = −C + (E·p* − O)·AF = −C + (C/AF)·AF = 0 (discounted cash flow, algebra).
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0, max: 1e8, noNaN: true }),
+        fc.double({ min: 0, max: 1e6, noNaN: true }),
+        fc.double({ min: 1e-3, max: 1e6, noNaN: true }),
+        fc.double({ min: -0.05, max: 0.3, noNaN: true }),
+        fc.integer({ min: 1, max: 80 }),
+        (c, o, e, i, n) => {
+          const p = breakEvenPrice(c, o, e, i, n)!
+          const value = npv(c, o, e, p, i, n)
+          // Relative to the sums that cancel (capex and the discounted opex), so a zero capex still counts.
+          const scale = Math.max(1, c, o * annuityFactor(i, n))
+          expect(Math.abs(value) / scale).toBeLessThan(1e-9)
+        },
+      ),
+    )
+  })
+})
+
+describe('whether the scheme pays, and the money flag', () => {
+  const base = { fixedCost: 50_000, ratedPowerPrice: 650, civilsPerDesignFlow: 78_000, opexFraction: 0.03, discountRate: 0.08, life_yr: 25, gridFactor: 0.2 }
+
+  it('does not pay when revenue is below the operating cost, and says what price it would need', () => {
+    // capex = 50 000 + 650 × 5 kW + 78 000 × 1.2 m³/s = 146 850; opex 3 % = 4 405.5 a year;
+    // revenue 20 MWh × 100 = 2 000 a year < opex; NPV < 0 (worked by hand).
+    const m = moneySummary({ ...base, rating_W: 5_000, designFlow_m3s: 1.2, annualEnergy_MWh: 20, exportPrice: 100 })
+    expect(m.capex).toBeCloseTo(146_850, 6)
+    expect(m.pays).toBe(false)
+    expect(m.shortfalls).toEqual(['revenue-below-opex', 'negative-npv'])
+    const f = moneyFlag(m, 100)
+    expect(f).toMatchObject({ id: 'does-not-pay', level: 'money', raised: true, safety: false, shareOfTime: null, worst: null })
+    expect(f.reason).toBe(
+      `Does not pay: revenue 2,000 a year is below the operating cost 4,406 a year; NPV −${Math.round(-m.npv).toLocaleString('en-GB')} at 100 per MWh; it would need ${Math.round(m.breakEvenPrice!).toLocaleString('en-GB')} per MWh to break even.`,
+    )
+  })
+
+  it('does not pay when only the NPV is negative', () => {
+    // capex = 50 000 + 3 250 + 156 000 = 209 250, opex 6 277.5; revenue 200 MWh × 100 = 20 000 > opex,
+    // but (20 000 − 6 277.5) × AF(8 %, 25 yr) 10.675 = 146 486 < capex (worked by hand).
+    const m = moneySummary({ ...base, rating_W: 5_000, designFlow_m3s: 2, annualEnergy_MWh: 200, exportPrice: 100 })
+    expect(m.shortfalls).toEqual(['negative-npv'])
+    expect(moneyFlag(m, 100).reason).not.toMatch(/operating cost/)
+  })
+
+  it('pays, and clears the flag, at a price above break-even', () => {
+    const m = moneySummary({ ...base, rating_W: 5_000, designFlow_m3s: 1.2, annualEnergy_MWh: 200, exportPrice: 200 })
+    expect(m.pays).toBe(true)
+    const f = moneyFlag(m, 200)
+    expect(f.raised).toBe(false)
+    expect(f.reason).toMatch(/^Pays at 200 per MWh/)
+  })
+
+  it('with no energy it never pays and has no break-even price', () => {
+    const m = moneySummary({ ...base, rating_W: 0, designFlow_m3s: 1, annualEnergy_MWh: 0, exportPrice: 100 })
+    expect(m.breakEvenPrice).toBeNull()
+    expect(m.pays).toBe(false)
+    expect(moneyFlag(m, 100).reason).toMatch(/no price would make it pay/)
+  })
+
+  it('works the verdict out again for a result stored before it was kept', () => {
+    expect(storedVerdict({ capex: 100_000, annualOpex: 3_000, annualRevenue: 2_000, npv: -120_000, lcoe: 900 }))
+      .toEqual({ pays: false, shortfalls: ['revenue-below-opex', 'negative-npv'], breakEvenPrice: 900 })
+    expect(storedVerdict({ capex: 100_000, annualOpex: 3_000, annualRevenue: 20_000, npv: 5_000, lcoe: 80 }).pays).toBe(true)
   })
 })

@@ -131,11 +131,11 @@ describe('the Monte Carlo', () => {
     for (const u of r.inputs) expect(u.source).toMatch(/from memory|illustrative|judgement|\b(19|20)\d{2}\b/)
   })
 
-  it('settles: P10, P50 and P90 of 400 draws lie within 4 % of those of 2,400 (the default of 400 rests on this)', () => {
-    const few = monteCarlo(input, 400, 1)!
+  it('settles: P10, P50 and P90 of 200 draws lie within 5 % of those of 2,400 (the default of 200 rests on this)', () => {
+    const few = monteCarlo(input, 200, 1)!
     const many = monteCarlo(input, 2400, 99)!
     for (const k of ['p90', 'p50', 'p10'] as const) {
-      expect(Math.abs(few.energy_MWh[k]! / many.energy_MWh[k]! - 1), k).toBeLessThan(0.04)
+      expect(Math.abs(few.energy_MWh[k]! / many.energy_MWh[k]! - 1), k).toBeLessThan(0.05)
     }
   }, 60_000)
 

@@ -52,5 +52,5 @@ describe('demo scenario', () => {
     expect(rows).toHaveLength(DEMO_ACCOUNTS.length)
     expect(new Set(rows.map((r) => r.role))).toEqual(new Set(['admin', 'engineer', 'reviewer', 'viewer']))
     expect(rows.every((r) => r.name === DEMO_ORGANISATION && r.email.endsWith('.example'))).toBe(true)
-  })
+  }, 60_000) // the demo stores a real assessment, Monte Carlo included, for each of its options
 })

@@ -17,6 +17,13 @@ describe('retiredFieldIssues', () => {
     ])
   })
 
+  it('refuses civils per unit, naming the per-m³/s field that replaced it (its meaning changed too)', () => {
+    expect(retiredFieldIssues({ design: { costs: { fixedCost: 1, civilsPerUnit: 40_000 } } })).toEqual([
+      { path: 'design.costs.civilsPerUnit', message: 'is no longer accepted: civil works are now priced per m³/s of the design flow, in civilsPerDesignFlow' },
+    ])
+    expect(retiredFieldIssues({ design: { costs: { civilsPerDesignFlow: 78_000 } } })).toEqual([])
+  })
+
   it('finds nothing in a body under the new names, in plain values, or in inherited names', () => {
     expect(retiredFieldIssues({ altitude_m: 1, weir: { grossHead_m: 2 }, notes: 'grossHeadM', tags: ['lifeYears'] })).toEqual([])
     expect(retiredFieldIssues({ constructor: 1, toString: 2, hasOwnProperty: 3 })).toEqual([])

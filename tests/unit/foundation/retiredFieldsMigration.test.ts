@@ -64,6 +64,12 @@ async function storedBeforeTheRename() {
   return d
 }
 
+/** Migrates up to `name` only (later migrations rewrite the same JSON: civils per unit, 0010). */
+async function migrateTo(d: NonNullable<typeof db>, name: string) {
+  const { error } = await new Migrator({ db: d, provider: migrationProvider }).migrateTo(name)
+  if (error) throw error
+}
+
 async function stored(d: NonNullable<typeof db>) {
   const site = await d.selectFrom('sites').select(['weir', 'months', 'catchment']).executeTakeFirstOrThrow()
   const option = await d.selectFrom('options').select(['design', 'settings']).executeTakeFirstOrThrow()
@@ -82,14 +88,14 @@ async function stored(d: NonNullable<typeof db>) {
 describe('migration 0007_unit_suffixes', () => {
   it('renames the old keys of stored sites, options and assessments, keeping every value', async () => {
     db = await storedBeforeTheRename()
-    await migrateToLatest(db)
+    await migrateTo(db, '0007_unit_suffixes')
     const after = await stored(db)
     expect(after).toEqual({ ...AFTER, input: { option: AFTER.design, settings: AFTER.settings } })
   })
 
   it('puts them back when undone', async () => {
     db = await storedBeforeTheRename()
-    await migrateToLatest(db)
+    await migrateTo(db, '0007_unit_suffixes')
     await migrations['0007_unit_suffixes']!.down!(db as never)
     expect(await stored(db)).toEqual({ ...BEFORE, input: { option: BEFORE.design, settings: BEFORE.settings } })
   })

@@ -10,6 +10,7 @@ const result = assess(input)
 const sources = (over: Partial<SummarySources> = {}): SummarySources => ({
   site: { name: 'Test weir', river_name: 'Test Water', lat: 54.5, lng: -2.6, reach: JSON.stringify({ type: 'LineString', coordinates: [[-2.6, 54.5], [-2.59, 54.51]] }), gross_head_m: 2, target_oxygen_mgl: 6 },
   organisationName: 'Test Org',
+  currency: { code: 'GBP', symbol: '£' },
   creatorName: 'Ada Engineer',
   expiresAt: '2030-01-01T00:00:00.000Z',
   review: { state: 'accepted-with-conditions', reason: 'Gain holds', conditions: 'Monitor monthly', decidedAt: '2026-03-01T10:00:00.000Z' },
@@ -30,7 +31,7 @@ describe('buildPublicSummary', () => {
   const s = buildPublicSummary(sources())
 
   it('has exactly the landowner fields and no ids', () => {
-    expect(Object.keys(s).sort()).toEqual(['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'review', 'river', 'scheme', 'site'])
+    expect(Object.keys(s).sort()).toEqual(['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'money', 'review', 'river', 'scheme', 'site'])
     const keys: string[] = []
     const walk = (v: unknown) => {
       if (Array.isArray(v)) v.forEach(walk)

@@ -20,7 +20,7 @@ beforeEach(async () => {
   db = openDatabase(':memory:')
   await migrateToLatest(db)
   orgId = (await seedDemo(db, async (pw) => `fake:${pw}`)).orgId
-})
+}, 60_000) // the demo stores a real assessment, Monte Carlo included, for each of its options
 afterEach(async () => {
   await db.destroy()
 })

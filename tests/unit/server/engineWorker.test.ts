@@ -5,7 +5,7 @@ import { pathToFileURL } from 'node:url'
 import { Piscina } from 'piscina'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { bundleNodeWorker } from '../../../build/nodeWorker'
-import { assess } from '../../../shared/engine/assess'
+import { assess, assessWithUncertainty } from '../../../shared/engine/assess'
 import { fdcFromRecord, fdcStats, reservedFlow } from '../../../shared/engine/hydrology'
 import { sweep } from '../../../shared/engine/sweep'
 import runEngineTask, { type EngineOutcome, type EngineTask } from '../../../workers/engine.worker'
@@ -20,6 +20,9 @@ const badDate = { ...draft(), hydrology: { kind: 'record' as const, days: record
 describe('runEngineTask', () => {
   it('runs assess, sweep and sensitivity on JSON text, as the engine does in process', () => {
     expect(runEngineTask({ kind: 'assess', body: JSON.stringify(draft()) })).toEqual({ ok: true, value: assess(parse(draft())) })
+    // the stateless route runs the Monte Carlo only when the body asks for draws
+    const asking = { ...draft(), settings: { monteCarloDraws: 10 } }
+    expect(runEngineTask({ kind: 'assess', body: JSON.stringify(asking) })).toEqual({ ok: true, value: assessWithUncertainty(parse(asking)) })
     expect(runEngineTask({ kind: 'sweep', body: JSON.stringify({ input: draft(), grid: GRID }) })).toEqual({ ok: true, value: sweep(parse(draft()), GRID) })
     const s = runEngineTask({ kind: 'sensitivity', body: JSON.stringify({ input: draft() }) })
     expect('value' in s && (s.value as { items: unknown[] }).items.length).toBeGreaterThan(3)
@@ -30,8 +33,9 @@ describe('runEngineTask', () => {
   })
 
   it('runs on an input built elsewhere (stored options)', () => {
-    const input = parse(draft())
-    expect(runEngineTask({ kind: 'assess-input', input })).toEqual({ ok: true, value: assess(input) })
+    const input = parse({ ...draft(), settings: { monteCarloDraws: 12, monteCarloSeed: 3 } })
+    // a stored assessment's run carries its Monte Carlo
+    expect(runEngineTask({ kind: 'assess-input', input })).toEqual({ ok: true, value: assessWithUncertainty(input) })
     expect(runEngineTask({ kind: 'sweep-input', input, grid: GRID })).toEqual({ ok: true, value: sweep(input, GRID) })
     const moved = runEngineTask({ kind: 'design-at', input, throatDiameter_m: 0.3, units: 3, throatDepth_m: 1 })
     expect(moved).toMatchObject({ ok: true, value: { throatDiameter_m: 0.3, outletDiameter_m: 0.6, units: 3, throatDepth_m: 1 } })

@@ -10,6 +10,7 @@ import {
   needsSeasonalProfile, orderedFlags, percentText, regimeText, REGIME_WORDS, SHUT_REASON_WORDS, shutReasonText, signedMgL, type StoredFlag,
 } from '../../../utils/assessment'
 import { draft, parse } from '../engine/fixtures'
+import { DEFAULT_CURRENCY as GBP } from '../../../shared/schemas/organisation'
 
 const flag = (id: Flag['id'], raised: boolean, level: Flag['level']): Flag =>
   ({ id, raised, level, safety: level === 'safety', shareOfTime: raised ? 0.2 : 0, worst: null, reason: `${id} reason` })
@@ -59,11 +60,11 @@ describe('flags', () => {
   it('reads the engine\'s own flags: closed summer months and river first still give each flag a level, a share and a reason', () => {
     const r = assess(parse({ ...draft(), option: { ...draft().option, operation: { mode: 'river-first', closedMonths: [7, 8] } } }))
     const ordered = orderedFlags(r)
-    expect(ordered).toHaveLength(6)
+    expect(ordered).toHaveLength(7)
     const raised = ordered.filter((f) => f.raised)
     expect(ordered.slice(0, raised.length)).toEqual(raised)
     for (const f of ordered) {
-      expect(['safety', 'river', 'note']).toContain(flagLevel(f))
+      expect(['safety', 'river', 'money', 'note']).toContain(flagLevel(f))
       if (f.raised && f.shareOfTime !== null && f.shareOfTime !== undefined) expect(flagFacts(f)).toMatch(/^raised (under )?\d* ?% of the year/)
     }
     expect(r.months.filter((m) => m.closed).map((m) => m.name)).toEqual(['Jul', 'Aug'])
@@ -118,7 +119,7 @@ describe('words for the per-flow and month tables', () => {
 describe('headline figures and numbers', () => {
   it('adds the year\'s net oxygen change and the diffuser\'s recovery to the headline, and leaves them out for an older run', () => {
     const r = assess(parse(draft()))
-    const figures = headlineFigures(r.summary, 0.5)
+    const figures = headlineFigures(r.summary, GBP, 0.5)
     expect(figures.map((f) => f.key)).toEqual(['energy', 'cf', 'rated', 'margin', 'oxygen', 'oxygen-year', 'recovery', 'lcoe'])
     const year = figures.find((f) => f.key === 'oxygen-year')!
     expect(year.value).toBe(signedMgL(r.summary.meanNetOxygenGain_mgL))
@@ -128,7 +129,7 @@ describe('headline figures and numbers', () => {
     expect(Number(recovery.value)).toBe(Math.round(r.summary.recoveredFraction * 100))
 
     const { meanNetOxygenGain_mgL: _m, worstNetOxygenGain_mgL: _w, recoveredFraction: _r, ...older } = r.summary
-    expect(headlineFigures(older as typeof r.summary).map((f) => f.key)).toEqual(['energy', 'cf', 'rated', 'margin', 'oxygen', 'lcoe'])
+    expect(headlineFigures(older as typeof r.summary, GBP).map((f) => f.key)).toEqual(['energy', 'cf', 'rated', 'margin', 'oxygen', 'lcoe'])
   })
 
   it('signs oxygen changes with a true minus, rounds shares to whole percent and names months in order', () => {

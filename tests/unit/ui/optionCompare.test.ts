@@ -5,13 +5,15 @@ import type { AssessmentDto } from '../../../shared/schemas/assessment'
 import type { CompareItem } from '../../../shared/schemas/compare'
 import { compareCsvRows, compareRows } from '../../../utils/compare'
 
-function item(id: number, units: number, figures: Partial<AssessmentDto> | null): CompareItem {
+const GBP = { code: 'GBP', symbol: '£' }
+
+function item(id: number, units: number, figures: Partial<AssessmentDto> | null, currency = GBP): CompareItem {
   const o = OptionInputSchema.parse({ name: `Option ${id}`, design: { units, throatDiameter_m: 0.5, outletDiameter_m: 1, throatDepth_m: 2, air: { pipeDiameter_m: 0.4, pipeLength_m: 8 } } })
   const latest: AssessmentDto | null = figures && {
     id: id * 10, siteId: 1, optionId: id, engineVersion: '0.1.0', stale: false, createdAt: '2026-01-01', createdBy: null, supersedes: null, supersededBy: null,
-    annualEnergy_MWh: 100, capacityFactor: 0.4, ratedPower_kW: 30, minCavitationMargin_m: 4, netOxygenGainSummerLowFlow_mgL: 0.2, lcoe: 150, flagsRaised: [], ...figures,
+    annualEnergy_MWh: 100, capacityFactor: 0.4, ratedPower_kW: 30, minCavitationMargin_m: 4, netOxygenGainSummerLowFlow_mgL: 0.2, lcoe: 150, capex: 300_000, npv: -50_000, flagsRaised: [], ...figures,
   }
-  return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHead_m: 2 }, latestAssessment: latest }
+  return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHead_m: 2, currency }, latestAssessment: latest }
 }
 
 describe('comparison rows', () => {
@@ -34,5 +36,22 @@ describe('comparison rows', () => {
     const csv = compareCsvRows(items)
     expect(csv[0]).toEqual(['Figure', 'Unit', 'Option 1', 'Option 2', 'Option 3'])
     expect(csv.find((r) => r[0] === 'Annual energy')).toEqual(['Annual energy', 'MWh/yr', 120, 150, null])
+    expect(csv.find((r) => r[0] === 'LCOE')).toEqual(['LCOE', '£/MWh', 180, 140, null])
+    expect(csv.find((r) => r[0] === 'NPV at the export price')).toEqual(['NPV at the export price', '£', -50_000, -50_000, null])
+    expect(csv.flat().some((c) => /currency/i.test(String(c)))).toBe(false)
+  })
+})
+
+describe('money rows', () => {
+  it('show NPV and capital cost in the shared currency, best marked', () => {
+    const rows = Object.fromEntries(compareRows([item(1, 2, { npv: -10_000, capex: 200_000 }), item(2, 3, { npv: 5_000, capex: 260_000 })]).map((r) => [r.key, r]))
+    expect(rows['npv']).toMatchObject({ unit: '£', cells: [-10_000, 5_000], best: [1] })
+    expect(rows['capex']).toMatchObject({ unit: '£', cells: [200_000, 260_000], best: [0] })
+  })
+
+  it('give each cell its own symbol, and mark none best, when the options\' currencies differ', () => {
+    const rows = Object.fromEntries(compareRows([item(1, 2, { npv: -10_000 }), item(2, 3, { npv: 5_000 }, { code: 'EUR', symbol: '€' })]).map((r) => [r.key, r]))
+    expect(rows['npv']).toMatchObject({ unit: "each option's currency", cells: ['−£10,000', '€5,000'], best: [] })
+    expect(rows['lcoe']!.unit).toBe("per MWh, each option's currency")
   })
 })

@@ -1,3 +1,4 @@
+import { organisationCurrency } from '~~/server/domain/organisations'
 import { allPortfolioRows, loadPortfolio, portfolioCsv } from '~~/server/domain/portfolio'
 import { OrgParamsSchema } from '#shared/schemas/common'
 import { PortfolioQuerySchema } from '#shared/schemas/portfolio'
@@ -15,7 +16,7 @@ export default defineEventHandler(async (event) => {
     const rows = await allPortfolioRows(useDb(), orgId, query)
     setResponseHeader(event, 'Content-Type', 'text/csv; charset=utf-8')
     setResponseHeader(event, 'Content-Disposition', `attachment; filename="gillwatt-portfolio-${orgId}.csv"`)
-    return portfolioCsv(rows)
+    return portfolioCsv(rows, await organisationCurrency(useDb(), orgId))
   }
   return loadPortfolio(useDb(), orgId, query, format === 'map' ? 'map' : 'page')
 })

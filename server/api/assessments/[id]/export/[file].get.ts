@@ -1,5 +1,6 @@
 import { storedResult } from '~~/server/domain/assessments'
 import { assessmentCsv } from '~~/server/domain/assessmentCsv'
+import { organisationCurrency } from '~~/server/domain/organisations'
 import { AssessmentExportParamsSchema } from '#shared/schemas/assessment'
 import { READER_ROLES } from '#shared/utils/roles'
 
@@ -8,7 +9,7 @@ import { READER_ROLES } from '#shared/utils/roles'
 export default defineEventHandler(async (event) => {
   const { id, table } = await getValidatedRouterParams(event, validator(AssessmentExportParamsSchema, 'params'))
   const { assessment, option } = await requireAssessment(event, id, READER_ROLES)
-  const csv = assessmentCsv(await storedResult(useDb(), assessment.id), table)
+  const csv = assessmentCsv(await storedResult(useDb(), assessment.id), table, await organisationCurrency(useDb(), option.org_id))
   const safeName = option.name.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'option'
   setResponseHeader(event, 'Content-Type', 'text/csv; charset=utf-8')
   setResponseHeader(event, 'Content-Disposition', `attachment; filename="gillwatt-assessment-${id}-${safeName}-${table}.csv"`)
