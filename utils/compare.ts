@@ -47,6 +47,11 @@ export function compareRows(items: readonly CompareItem[]): CompareRow[] {
     row('margin', 'Least cavitation margin', 'm', 'figures', a.map((x) => (x ? (x.minCavitationMargin_m === null ? 'never runs' : round(x.minCavitationMargin_m, 2)) : null)), 2, 'high'),
     row('oxygen', 'Net O₂ gain, summer low flow', 'mg/L', 'figures', a.map((x) => round(x?.netOxygenGainSummerLowFlow_mgL, 2)), 2, 'high'),
     row('lcoe', 'LCOE', 'currency/MWh', 'figures', a.map((x) => (x ? (x.lcoe === null ? 'no energy' : round(x.lcoe, 0)) : null)), 0, 'low'),
+    row('baselineEnergy', 'Conventional turbine at the same weir: annual energy', 'MWh/yr', 'figures', items.map((i) => (i.baseline ? round(i.baseline.annualEnergy_MWh, 1) : null)), 1),
+    row('baselineKind', 'Conventional turbine: kind', '', 'figures', items.map((i) => i.baseline?.kindLabel ?? null)),
+    row('givenUp', 'Energy given up to the conventional turbine', 'MWh/yr', 'figures', items.map((i) => (i.baseline ? round(i.baseline.energyGivenUp_MWh, 1) : null)), 1, 'low'),
+    row('oxygenOverBaseline', 'Mean net O₂ gained over the conventional turbine', 'mg/L', 'figures', items.map((i) => (i.baseline ? round(i.baseline.oxygenGainedOverBaseline_mgL, 3) : null)), 3, 'high'),
+    row('oxygenPerMWh', 'O₂ gained per MWh/yr given up', 'mg/L per MWh/yr', 'figures', items.map((i) => (i.baseline ? (i.baseline.oxygenPerMWhGivenUp === null ? 'nothing given up' : round(i.baseline.oxygenPerMWhGivenUp, 5)) : null)), 5, 'high'),
     row('flags', 'Flags raised', 'flags', 'figures', a.map((x) => (x ? x.flagsRaised.length : null)), 0, 'low'),
     row('engine', 'Engine version', '', 'figures', a.map((x) => (x ? `${x.engineVersion}${x.stale ? ' (older engine)' : ''}` : 'not assessed'))),
   ]

@@ -1,3 +1,4 @@
+import { baselineLineOf } from '../../shared/engine/baseline'
 import type { AssessResult, FlagId } from '../../shared/engine/results'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '../../shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '../../shared/schemas/review'
@@ -95,7 +96,7 @@ export function reservedFlowBasis(setting: ReservedFlow, flow_m3s: number, hydro
 }
 
 /** Fields of the brief that come from the stored result alone (the route adds the site and assessment). */
-export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'flags'>
+export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'flags'>
 
 // A gap this small between flows in the table is rounding, not water taken from the reserve.
 const FLOW_TOLERANCE = 1e-9
@@ -131,6 +132,7 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow): Review
       reason: gas?.reason ?? 'The stored result has no gas-supersaturation check.',
       maxUnitTotalDissolvedGas: result.summary.maxUnitTotalDissolvedGas,
     },
+    baseline: baselineLineOf(result),
     // A result stored by an older engine has no level or share of time: its safety flag says which it was.
     flags: result.summary.flags.map((f) => ({
       id: f.id, raised: f.raised, level: f.level ?? (f.safety ? 'safety' : 'note'), safety: f.safety, shareOfTime: f.shareOfTime ?? null, reason: f.reason,

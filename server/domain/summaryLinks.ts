@@ -1,5 +1,6 @@
 import { sql, type Kysely } from 'kysely'
 import type { Database, SiteRow, SummaryLinkRow } from '../../db/schema'
+import { baselineLineOf } from '../../shared/engine/baseline'
 import type { AssessResult } from '../../shared/engine/results'
 import type { OptionDesign } from '../../shared/schemas/option'
 import { REVIEW_STATE_LABELS, type ReviewState } from '../../shared/schemas/review'
@@ -125,6 +126,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
           annualUsePerHome_kWh: HOME_KWH_PER_YEAR,
           assumption: `Illustrative: a home is taken to use ${HOME_KWH_PER_YEAR.toLocaleString('en-GB')} kWh of electricity a year; real homes use more or less.`,
           source: 'illustrative',
+          baseline: baselineLineOf(a.result),
         }
       : null,
     river,

@@ -14,7 +14,7 @@ import { exceedanceGrid, flowAtExceedance } from './hydrology'
 import { annualOpex, lcoe, npv, simplePayback } from './money'
 import { downstreamFromDeficitRatio, mixTwoStreams } from './oxygen'
 import { oxygenSaturation } from './oxygenSaturation'
-import type { BaselineResult } from './results'
+import type { AssessResult, BaselineLine, BaselineResult } from './results'
 import type { Conditions } from './scheme'
 import { weirDeficitRatio } from './schemeOxygen'
 import { headAtFlow, type HeadPoint } from './venturi'
@@ -213,8 +213,18 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
     curveSource: u.curve.source,
     curve: u.curve.points.map((p) => ({ ...p })),
     basis: `A ${BASELINE_KIND_LABEL[b.kind]} at the same weir takes what the river leaves above the reserved flow, up to its design flow, `
-      + `at the gross head less ${(b.headLossFraction * 100).toFixed(0)} % for losses; it stops below ${(u.curve.points[0]?.flowFraction ?? 0) * 100} % of its design flow. `
+      + `at the gross head less ${(b.headLossFraction * 100).toFixed(0)} % for losses; it stops below ${Math.round((u.curve.points[0]?.flowFraction ?? 0) * 100)} % of its design flow. `
       + 'P = η(Q/Q_d)·ρ·g·Q·H_net·η_gen, with the same availability and the same days or month curves as the scheme; it runs every month. '
       + 'Its water passes the unit at the upstream oxygen and misses the weir\'s aeration; the rest falls over the weir as the site\'s weir model says, and the two mix.',
+  }
+}
+
+/** The one-line figures of a stored result's baseline, or null for a result stored before it. */
+export function baselineLineOf(result: Pick<AssessResult, 'baseline' | 'summary'>): BaselineLine | null {
+  const b = result.baseline
+  if (!b) return null
+  return {
+    kindLabel: b.kindLabel, annualEnergy_MWh: b.annualEnergy_MWh, schemeEnergy_MWh: result.summary.annualEnergy_MWh,
+    energyGivenUp_MWh: b.energyGivenUp_MWh, oxygenGainedOverBaseline_mgL: b.oxygenGainedOverBaseline_mgL,
   }
 }

@@ -225,6 +225,16 @@ export interface BaselineResult {
   basis: string
 }
 
+/** The few baseline figures the one-line comparisons need (results card, comparison, reviewer's brief, landowner summary). */
+export interface BaselineLine {
+  kindLabel: string
+  annualEnergy_MWh: number
+  /** The venturi scheme's own annual energy, MWh/yr. */
+  schemeEnergy_MWh: number
+  energyGivenUp_MWh: number
+  oxygenGainedOverBaseline_mgL: number
+}
+
 /** Result of one assessment. */
 export interface AssessResult {
   summary: AssessSummary

@@ -6,6 +6,7 @@ import { z } from 'zod'
 import { IdSchema, fromDigits } from './common'
 import type { ReviewState } from './review'
 import type { Reach } from './site'
+import type { BaselineLine } from '../engine/results'
 
 export const SUMMARY_LINK_DAYS_DEFAULT = 30
 export const SUMMARY_LINK_DAYS_MAX = 365
@@ -105,6 +106,8 @@ export interface PublicSummaryDto {
     /** Plain-language assumption behind the homes figure. */
     assumption: string
     source: 'illustrative'
+    /** A conventional turbine at the same weir, for the one plain line beside the scheme's energy; null for a run stored before it. */
+    baseline: BaselineLine | null
   } | null
   /** Oxygen in the river below the weir by month, mg/L. */
   river: {
