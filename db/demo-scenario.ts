@@ -281,10 +281,10 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
     siteName: 'Cragg Foot drop',
     option: {
       name: 'Pair on the right bank',
-      notes: 'Right bank, away from the village outfall; chosen to test the summer oxygen case.',
+      notes: 'Right bank, away from the village outfall; chosen to test the summer oxygen case. Set against a cross-flow turbine: the reviewer asked what the river gains for the energy given up.',
       design: {
         units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.2, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 8 },
-        costs: { fixedCost: 50_000, ratedPowerPrice: 650, civilsPerDesignFlow: 78_000 },
+        costs: { fixedCost: 50_000, ratedPowerPrice: 650, civilsPerDesignFlow: 78_000 }, baseline: { kind: 'cross-flow' },
       },
     },
   },

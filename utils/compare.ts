@@ -59,6 +59,11 @@ export function compareRows(items: readonly CompareItem[]): CompareRow[] {
     money('lcoe', 'LCOE', 'MWh', (x) => x.lcoe, 'no energy', 'low'),
     money('npv', 'NPV at the export price', undefined, (x) => x.npv, 'not stored', 'high'),
     money('capex', 'Capital cost', undefined, (x) => x.capex, 'not stored', 'low'),
+    row('baselineEnergy', 'Conventional turbine at the same weir: annual energy', 'MWh/yr', 'figures', items.map((i) => (i.baseline ? round(i.baseline.annualEnergy_MWh, 1) : null)), 1),
+    row('baselineKind', 'Conventional turbine: kind', '', 'figures', items.map((i) => i.baseline?.kindLabel ?? null)),
+    row('givenUp', 'Energy given up to the conventional turbine', 'MWh/yr', 'figures', items.map((i) => (i.baseline ? round(i.baseline.energyGivenUp_MWh, 1) : null)), 1, 'low'),
+    row('oxygenOverBaseline', 'Mean net O₂ gained over the conventional turbine', 'mg/L', 'figures', items.map((i) => (i.baseline ? round(i.baseline.oxygenGainedOverBaseline_mgL, 3) : null)), 3, 'high'),
+    row('oxygenPerMWh', 'O₂ gained per MWh/yr given up', 'mg/L per MWh/yr', 'figures', items.map((i) => (i.baseline ? (i.baseline.oxygenPerMWhGivenUp === null ? 'nothing given up' : round(i.baseline.oxygenPerMWhGivenUp, 5)) : null)), 5, 'high'),
     row('flags', 'Flags raised', 'flags', 'figures', a.map((x) => (x ? x.flagsRaised.length : null)), 0, 'low'),
     row('engine', 'Engine version', '', 'figures', a.map((x) => (x ? `${x.engineVersion}${x.stale ? ' (older engine)' : ''}` : 'not assessed'))),
   ]

@@ -4,6 +4,7 @@
 // shared/engine/defaults.ts.
 import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type ConstrictionType, type SourcedValue } from '#shared/engine/defaults'
 import { MONEY_DEFAULTS } from '#shared/engine/money'
+import { BASELINE_DEFAULTS, BASELINE_KIND_LABEL, BASELINE_KINDS, BASELINE_PRICE_PER_KW, type BaselineKind } from '#shared/engine/baselineUnits'
 import type { OptionDto } from '#shared/schemas/option'
 import type { CheckIssue, FormMessages } from './formState'
 
@@ -17,6 +18,7 @@ export const OPTION_GROUPS = [
   { id: 'turbine', title: 'Turbine and generator', note: 'The air turbine on the bank and its generator, per unit.' },
   { id: 'operation', title: 'How the units are run', note: 'The head pool is always held near its level: a unit opens only when the river can feed it there, and only while it draws air and makes power. Choose whether the river comes first, and any months the units must stay shut (a consent may require it).' },
   { id: 'money', title: 'Costs and money', note: 'Amounts are in the organisation\'s currency. The equipment and civil-works defaults are worked from published UK low-head costs (their source shows on hover); the rest are illustrative. Replace them with the project\'s own figures.' },
+  { id: 'baseline', title: 'Conventional turbine for comparison', note: 'A conventional low-head unit at the same weir, under the same flow rules, set beside this option in the results: what the river gains for the energy the venturi scheme gives up.' },
   { id: 'settings', title: 'Engine settings', note: 'Safety limits, oxygen transfer and availability used by this option\'s assessments. The downstream oxygen target is the site\'s own.' },
 ] as const
 
@@ -63,6 +65,8 @@ const fixed = (d: SourcedValue) => () => d
 const byConstriction = (table: Readonly<Record<ConstrictionType, SourcedValue>>) => (draft: OptionDraft) =>
   table[(draft.values['design.constriction'] as ConstrictionType | undefined) ?? 'venturi'] ?? table.venturi
 
+const byBaselineKind = (draft: OptionDraft) => BASELINE_PRICE_PER_KW[(draft.values['design.baseline.kind'] as BaselineKind | undefined) ?? 'screw'] ?? BASELINE_PRICE_PER_KW.screw
+
 const PERCENT_NOTE = 'a fraction: 0.95 means 95 %'
 
 /** Every field of the option form, in order within its group. */
@@ -105,6 +109,16 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'settings.opexFraction', label: 'Operating cost', unit: 'fraction/yr', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.opexFraction), hint: 'of the capital cost' },
   { path: 'settings.exportPrice', label: 'Export price', unit: 'currency/MWh', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.exportPrice) },
   { path: 'settings.gridFactor', label: 'Grid emission factor', unit: 't CO₂/MWh', group: 'money', kind: 'number', defaultOf: fixed(MONEY_DEFAULTS.gridFactor) },
+  {
+    path: 'design.baseline.kind', label: 'Kind of turbine', unit: '–', group: 'baseline', kind: 'select',
+    choices: BASELINE_KINDS.map((k) => ({ value: k, label: BASELINE_KIND_LABEL[k].replace(/^./, (c) => c.toUpperCase()) })),
+    hint: 'each kind has its own part-load efficiency curve, shown with its source in the results',
+  },
+  { path: 'design.baseline.designFlow_m3s', label: 'Design flow', unit: 'm³/s', group: 'baseline', kind: 'number', blankMeans: 'the flow exceeded 30 % of the time, less the reserved flow (common practice)' },
+  { path: 'design.baseline.headLossFraction', label: 'Head lost before the runner', unit: 'fraction', group: 'baseline', kind: 'number', defaultOf: fixed(BASELINE_DEFAULTS.headLossFraction), hint: 'screen, channel and draft tube: 0.05 means 5 % of the gross head' },
+  { path: 'design.baseline.generatorEfficiency', label: 'Generator efficiency', unit: 'fraction', group: 'baseline', kind: 'number', defaultOf: fixed(BASELINE_DEFAULTS.generatorEfficiency) },
+  { path: 'design.baseline.costs.ratedPowerPrice', label: 'Installed cost per kW', unit: 'currency/kW', group: 'baseline', kind: 'number', defaultOf: byBaselineKind, hint: 'civil works, consents and plant together' },
+  { path: 'design.baseline.costs.fixedCost', label: 'Fixed cost', unit: 'currency', group: 'baseline', kind: 'number', defaultOf: fixed(BASELINE_DEFAULTS.fixedCost) },
   { path: 'settings.availability', label: 'Availability', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.availability), hint: PERCENT_NOTE },
   { path: 'settings.minCavitationMargin_m', label: 'Least cavitation margin', unit: 'm', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.minCavitationMargin) },
   { path: 'settings.acceptableOxygenLoss_mgL', label: 'Acceptable net oxygen loss', unit: 'mg/L', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.acceptableOxygenLoss), hint: 'a loss beyond this is a river caution; the regulator\'s figure replaces it' },
@@ -136,6 +150,7 @@ const SELECT_DEFAULTS: Record<string, string> = {
   'design.constriction': 'venturi',
   'settings.oxygenMethod': 'bubble-model',
   'settings.filmModel': 'mcginnis-little',
+  'design.baseline.kind': 'screw',
 }
 
 // ——— the draft ———

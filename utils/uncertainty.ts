@@ -4,7 +4,8 @@ import type { DrawSpread, UncertaintyResult } from '#shared/engine/monteCarlo'
 import type { Spread } from '#shared/engine/random'
 import type { AssessInput } from '#shared/schemas/assess'
 import { signedMgL } from './assessment'
-import { formatNumber, formatUpTo } from './format'
+import type { Currency } from '#shared/schemas/organisation'
+import { formatMoney, formatNumber, formatUpTo, moneyUnit } from './format'
 
 /** What the page asks the worker: the stored input with another seed or number of draws. */
 export interface UncertaintyWorkerRequest {
@@ -30,17 +31,17 @@ export interface SpreadRow {
   p10: string
 }
 
-const money = (x: number | null) => formatNumber(x, 0)
 const mwh = (x: number | null) => formatNumber(x, 1)
 const mgl = (x: number | null) => (x === null ? '–' : signedMgL(x))
 
-/** The table rows: energy, cost, NPV and the worst month's oxygen, each as P90 / P50 / P10. */
-export function spreadRows(r: UncertaintyResult): SpreadRow[] {
+/** The table rows: energy, cost, NPV (in `currency`) and the worst month's oxygen, each as P90 / P50 / P10. */
+export function spreadRows(r: UncertaintyResult, currency: Currency): SpreadRow[] {
+  const money = (x: number | null) => formatMoney(x, currency)
   const row = (label: string, unit: string, s: DrawSpread, f: (x: number | null) => string): SpreadRow => ({ label, unit, p90: f(s.p90), p50: f(s.p50), p10: f(s.p10) })
   return [
     row('Annual energy', 'MWh/yr', r.energy_MWh, mwh),
-    row('Levelised cost', 'per MWh', r.lcoe, money),
-    row('Net present value', '', r.npv, money),
+    row('Levelised cost', moneyUnit(currency, 'MWh'), r.lcoe, money),
+    row('Net present value', moneyUnit(currency), r.npv, money),
     row('Net O₂ change, worst month', 'mg/L', r.worstMonthNetGain_mgL, mgl),
   ]
 }

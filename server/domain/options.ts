@@ -2,12 +2,12 @@
 // assessment, comparing several, and stored assessments as the API shows them.
 import { sql, type ExpressionBuilder, type Kysely } from 'kysely'
 import type { AssessmentRow, Database, OptionRow, SiteRow } from '../../db/schema'
-import type { AssessResult, FlagId } from '../../shared/engine/results'
+import type { AssessResult, BaselineResult, FlagId } from '../../shared/engine/results'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 import type { AssessInput } from '../../shared/schemas/assess'
 import type { OptionDesign, OptionDto, OptionInput, OptionPatch, OptionSettings } from '../../shared/schemas/option'
 import type { AssessmentDetailDto, AssessmentDto, AssessmentListDto, AssessmentListQuery } from '../../shared/schemas/assessment'
-import type { CompareDto, OrgOptionsDto } from '../../shared/schemas/compare'
+import type { CompareDto, CompareItem, OrgOptionsDto } from '../../shared/schemas/compare'
 import { notFound } from './errors'
 import { staleVersionError } from './sites'
 
@@ -250,6 +250,7 @@ export async function compareOptions(db: Kysely<Database>, userId: number, ids: 
   const missing = ids.find((id) => !byId.has(id))
   if (missing !== undefined) throw notFound(`options: option ${missing} not found`)
   const latest = await latestAssessments(db, ids)
+  const baselines = await storedBaselines(db, [...latest.values()].map((a) => a.id))
   return {
     items: ids.map((id) => {
       const r = byId.get(id)!
@@ -257,9 +258,27 @@ export async function compareOptions(db: Kysely<Database>, userId: number, ids: 
         option: { id: r.id, name: r.name, design: JSON.parse(r.design) as OptionDesign, settings: JSON.parse(r.settings) as OptionSettings, version: r.version },
         site: { id: r.site_id, orgId: r.org_id, name: r.site_name, riverName: r.river_name, grossHead_m: r.gross_head_m, currency: { code: r.currency_code, symbol: r.currency_symbol } },
         latestAssessment: latest.get(id) ?? null,
+        baseline: baselines.get(latest.get(id)?.id ?? 0) ?? null,
       }
     }),
   }
+}
+
+/** The conventional-turbine figures the comparison shows, of each of `assessmentIds`, read from the stored results (none for a run stored before the baseline). */
+async function storedBaselines(db: Kysely<Database>, assessmentIds: readonly number[]): Promise<Map<number, CompareItem['baseline']>> {
+  if (assessmentIds.length === 0) return new Map()
+  const rows = await db
+    .selectFrom('assessment_payloads')
+    .select(['assessment_id', sql<string | null>`json_extract(result_json, '$.baseline')`.as('baseline_json')])
+    .where('assessment_id', 'in', [...assessmentIds])
+    .execute()
+  return new Map(rows.map((r) => {
+    const b = r.baseline_json === null ? null : (JSON.parse(r.baseline_json) as BaselineResult)
+    return [r.assessment_id, b && {
+      kindLabel: b.kindLabel, annualEnergy_MWh: b.annualEnergy_MWh, energyGivenUp_MWh: b.energyGivenUp_MWh,
+      oxygenGainedOverBaseline_mgL: b.oxygenGainedOverBaseline_mgL, oxygenPerMWhGivenUp: b.oxygenPerMWhGivenUp, lcoe: b.lcoe,
+    }]
+  }))
 }
 
 /**

@@ -1,4 +1,5 @@
 import { storedVerdict, type StoredMoney } from '../../shared/engine/money'
+import { baselineLineOf } from '../../shared/engine/baseline'
 import type { AssessResult, FlagId } from '../../shared/engine/results'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '../../shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '../../shared/schemas/review'
@@ -96,7 +97,7 @@ export function reservedFlowBasis(setting: ReservedFlow, flow_m3s: number, hydro
 }
 
 /** Fields of the brief that come from the stored result alone (the route adds the site and assessment). */
-export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'flags'> & {
+export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'flags'> & {
   money: Omit<ReviewBriefDto['money'], 'currency'>
 }
 
@@ -134,6 +135,7 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow): Review
       reason: gas?.reason ?? 'The stored result has no gas-supersaturation check.',
       maxUnitTotalDissolvedGas: result.summary.maxUnitTotalDissolvedGas,
     },
+    baseline: baselineLineOf(result),
     // A result stored by an older engine has no level or share of time: its safety flag says which it was.
     flags: result.summary.flags.map((f) => ({
       id: f.id, raised: f.raised, level: f.level ?? (f.safety ? 'safety' : 'note'), safety: f.safety, shareOfTime: f.shareOfTime ?? null, reason: f.reason,

@@ -1,6 +1,7 @@
 import { sql, type Kysely } from 'kysely'
 import type { Database, SiteRow, SummaryLinkRow } from '../../db/schema'
 import { storedVerdict, type StoredMoney } from '../../shared/engine/money'
+import { baselineLineOf } from '../../shared/engine/baseline'
 import type { AssessResult } from '../../shared/engine/results'
 import type { OptionDesign } from '../../shared/schemas/option'
 import type { Currency } from '../../shared/schemas/organisation'
@@ -129,6 +130,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
           annualUsePerHome_kWh: HOME_KWH_PER_YEAR,
           assumption: `Illustrative: a home is taken to use ${HOME_KWH_PER_YEAR.toLocaleString('en-GB')} kWh of electricity a year; real homes use more or less.`,
           source: 'illustrative',
+          baseline: baselineLineOf(a.result),
         }
       : null,
     money: a ? { ...publicMoney(a.result.money), currency: s.currency } : null,

@@ -1,6 +1,7 @@
 // The single entry point: one option at one site → energy, oxygen, safety flags, money. The result's
 // shape is in results.ts, the flags and their plain-language reasons in flags.ts.
 import type { AssessInput } from '../schemas/assess'
+import { assessBaseline } from './baseline'
 import { defaultsUsed } from './defaultsUsed'
 import { exceedanceGrid, fdcStats, flowAtExceedance } from './hydrology'
 import { yearByYear } from './recordYears'
@@ -206,6 +207,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
     years: h.record && energy.byYear ? yearByYear(h.record.sample, energy.byYear, st.availability, main.states) : null,
     uncertainty: null,
     money,
+    baseline: assessBaseline({ input, h, reserved_m3s: reserved, curves, months: monthCond, annual, monthFlows_m3s: flows.map((f) => f.flow), venturi: { annualEnergy_MWh: energy.annualEnergy_MWh, meanNetGain_mgL: year.meanNetGain_mgL } }),
     defaultsUsed: defaultsUsed(input),
     engineVersion: ENGINE_VERSION,
   }

@@ -1,5 +1,6 @@
 // Which defaults an assessment ran with, each with its origin, for the results page.
 import type { AssessInput } from '../schemas/assess'
+import { BASELINE_DEFAULTS, BASELINE_PRICE_PER_KW } from './baselineUnits'
 import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type SourcedValue } from './defaults'
 import { HYDROLOGY_DEFAULTS } from './hydrology'
 import { MONEY_DEFAULTS } from './money'
@@ -34,6 +35,13 @@ export function defaultsUsed(input: AssessInput): DefaultUsed[] {
   check('option.costs.fixedCost', o.costs.fixedCost, MONEY_DEFAULTS.fixedCost)
   check('option.costs.ratedPowerPrice', o.costs.ratedPowerPrice, MONEY_DEFAULTS.ratedPowerPrice)
   check('option.costs.civilsPerDesignFlow', o.costs.civilsPerDesignFlow, MONEY_DEFAULTS.civilsPerDesignFlow)
+  const bl = o.baseline
+  if (bl) {
+    check('option.baseline.headLossFraction', bl.headLossFraction, BASELINE_DEFAULTS.headLossFraction)
+    check('option.baseline.generatorEfficiency', bl.generatorEfficiency, BASELINE_DEFAULTS.generatorEfficiency)
+    if (bl.costs.ratedPowerPrice === null) check('option.baseline.costs.ratedPowerPrice', undefined, BASELINE_PRICE_PER_KW[bl.kind])
+    check('option.baseline.costs.fixedCost', bl.costs.fixedCost, BASELINE_DEFAULTS.fixedCost)
+  }
   check('site.salinity_gkg', input.site.salinity_gkg, DEFAULTS.salinity)
   const a = WATER_QUALITY_A[input.site.waterQuality]
   out.push({ field: 'site.waterQuality', value: a.value, unit: '-', source: `${a.label}: ${a.source}` })

@@ -188,6 +188,56 @@ export interface MethodsComparison {
   weir: { model: 'butts-evans' | 'avery-novak' | 'measured', note: string, withoutRange_mgL: { min_mgL: number, max_mgL: number } }
 }
 
+/** The conventional low-head unit at the same weir (ENGINE.md §11), and what the venturi scheme gives up against it. */
+export interface BaselineResult {
+  kind: 'screw' | 'propeller' | 'cross-flow'
+  /** The kind in plain words. */
+  kindLabel: string
+  designFlow_m3s: number
+  /** Where the design flow comes from: the default rule, or given with the option. */
+  designFlowBasis: string
+  ratedPower_kW: number
+  annualEnergy_MWh: number
+  capacityFactor: number
+  /** Time-weighted mean net oxygen change below the weir with the baseline, mg/L (never a gain unless the river upstream is above saturation). */
+  meanNetOxygenGain_mgL: number
+  /** Lowest month-table net oxygen change with the baseline, mg/L. */
+  worstMonthNetOxygenGain_mgL: number
+  capex: number
+  /** Installed cost per kW used, and where it comes from. */
+  ratedPowerPrice: number
+  ratedPowerPriceSource: string
+  /** Installed cost by the ORNL non-powered-dam formula, 2014 US dollars: a cross-check only; null with no rating. */
+  capexCrossCheck_usd2014: number | null
+  annualOpex: number
+  lcoe: number | null
+  npv: number
+  simplePayback_yr: number | null
+  /** Baseline energy less the scheme's, MWh/yr (negative when the scheme makes more). */
+  energyGivenUp_MWh: number
+  /** The scheme's mean net oxygen change less the baseline's, mg/L. */
+  oxygenGainedOverBaseline_mgL: number
+  /** mg/L gained over the baseline per MWh/yr given up; null when nothing is given up. */
+  oxygenPerMWhGivenUp: number | null
+  /** MWh/yr given up per mg/L gained over the baseline; null when nothing is given up or no oxygen is gained. */
+  energyGivenUpPerMgL: number | null
+  /** The part-load curve used (turbine only) and where it comes from. */
+  curve: Array<{ flowFraction: number, efficiency: number }>
+  curveSource: string
+  /** How the baseline was worked out, in words. */
+  basis: string
+}
+
+/** The few baseline figures the one-line comparisons need (results card, comparison, reviewer's brief, landowner summary). */
+export interface BaselineLine {
+  kindLabel: string
+  annualEnergy_MWh: number
+  /** The venturi scheme's own annual energy, MWh/yr. */
+  schemeEnergy_MWh: number
+  energyGivenUp_MWh: number
+  oxygenGainedOverBaseline_mgL: number
+}
+
 /** Result of one assessment. */
 export interface AssessResult {
   summary: AssessSummary
@@ -204,6 +254,8 @@ export interface AssessResult {
    */
   uncertainty: UncertaintyResult | null
   money: MoneySummary
+  /** Absent from results stored before the baseline was added. */
+  baseline?: BaselineResult
   defaultsUsed: DefaultUsed[]
   engineVersion: string
 }

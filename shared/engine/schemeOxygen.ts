@@ -8,7 +8,10 @@ import { nitrogenSaturation, oxygenSaturation } from './oxygenSaturation'
 import { circleArea } from './venturi'
 import { waterDensity } from './water'
 import { crestDischargePerMetre, crestFormOf, headOverCrest, WEIR_DISCHARGE_COEFFICIENT, weirAerationModels, type WeirAerationModels } from './weirAeration'
+import type { AssessInput } from '../schemas/assess'
 import type { Conditions, OxygenState, PowerState, Scheme } from './scheme'
+
+type Site = AssessInput['site']
 
 /** The units' side of the last oxygen state of a scheme, reused while its inputs repeat. */
 interface UnitSide {
@@ -47,23 +50,31 @@ function unitSide(s: Scheme, ps: PowerState, c: Conditions, n2In: number): UnitS
  * (weir equation, C_d by crest form) reaches past the fall, so the tail stands above the crest
  * (ENGINE.md §13). Needs the crest length; a site without one is taken as free.
  */
-function drownedAt(s: Scheme, overWeir_m3s: number, fall_m: number): boolean {
-  const L = s.input.site.crestLength_m
-  const form = crestFormOf(s.input.site.weirShape)
+function drownedAt(site: Site, overWeir_m3s: number, fall_m: number): boolean {
+  const L = site.crestLength_m
+  const form = crestFormOf(site.weirShape)
   if (L === undefined || !(L > 0) || form === null || !(overWeir_m3s > 0)) return false
   return headOverCrest(overWeir_m3s, L, WEIR_DISCHARGE_COEFFICIENT[form].value) > fall_m
 }
 
 /** Deficit ratios of the water falling over the weir (the chosen model, every model, the range). */
-function weirModels(s: Scheme, overWeir_m3s: number, fall_m: number, tC: number): WeirAerationModels {
-  const site = s.input.site
+function weirModels(site: Site, overWeir_m3s: number, fall_m: number, tC: number): WeirAerationModels {
   const L = site.crestLength_m
   const chosen = site.weirAeration.model === 'avery-novak' && !(L !== undefined && L > 0) ? 'butts-evans' : site.weirAeration.model
   return weirAerationModels({
     fall_m, q_m2s: L !== undefined && L > 0 ? crestDischargePerMetre(overWeir_m3s, L) : 0, tC,
     a: WATER_QUALITY_A[site.waterQuality].value, b: WEIR_SHAPE_B[site.weirShape].value,
-    measured: site.weirAeration.measured, drowned: drownedAt(s, overWeir_m3s, fall_m), chosen,
+    measured: site.weirAeration.measured, drowned: drownedAt(site, overWeir_m3s, fall_m), chosen,
   })
+}
+
+/**
+ * Deficit ratio r of `overWeir_m3s` falling `fall_m` over the site's weir at `tC` °C, by the site's
+ * chosen weir model (as the scheme's own "without" and weir-stream figures): for the conventional
+ * baseline, whose water bypasses the weir.
+ */
+export function weirDeficitRatio(site: Site, overWeir_m3s: number, fall_m: number, tC: number): number {
+  return weirModels(site, overWeir_m3s, fall_m, tC).chosen.r
 }
 
 /** Oxygen and dissolved gas below the scheme at one power state: units, weir, mix, net gain. */
@@ -79,8 +90,8 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
   // Without the scheme the whole river falls over the weir; with it, what the units leave. Level
   // control holds the head pool, so both fall the full gross head; a flow-dependent model (Avery &
   // Novak) aerates the smaller overfall differently.
-  const alone = weirModels(s, ps.riverFlow_m3s, H, c.tC)
-  const rest = unitsQ > 0 ? weirModels(s, weirQ, H, c.tC) : alone
+  const alone = weirModels(site, ps.riverFlow_m3s, H, c.tC)
+  const rest = unitsQ > 0 ? weirModels(site, weirQ, H, c.tC) : alone
   const without = ps.riverFlow_m3s > 0 ? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, alone.chosen.r) : c.upstreamO2_mgL
   const weirStream = downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, rest.chosen.r)
   const weirN2 = downstreamFromDeficitRatio(n2Sat, n2Up, rest.chosen.r)

@@ -2,6 +2,7 @@
 import { z } from 'zod'
 import { DEFAULTS, MAX_MONTE_CARLO_DRAWS } from '../engine/defaults'
 import { MONEY_DEFAULTS } from '../engine/money'
+import { BASELINE_DEFAULTS, BASELINE_KINDS } from '../engine/baselineUnits'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
 
 const num = z.number({ error: 'must be a number' })
@@ -153,6 +154,21 @@ export const OperationInputSchema = z.object({
     .default([]),
 })
 
+/** The conventional low-head unit the option is set against (ENGINE.md §11); every field has a default. */
+export const BaselineInputSchema = z.object({
+  kind: z.enum(BASELINE_KINDS, { error: `must be one of ${BASELINE_KINDS.join(', ')}` }).default('screw'),
+  /** Flow through the unit at full load, m³/s; null takes the flow exceeded 30 % of the time less the reserved flow. */
+  designFlow_m3s: positive.max(MAX_FLOW_M3S, `must be ${MAX_FLOW_M3S.toLocaleString('en-GB')} m³/s or less`).nullable().default(null),
+  /** Share of the gross head lost before the runner (screen, channel, draft tube). */
+  headLossFraction: num.min(0, 'must be between 0 and 0.5').max(0.5, 'must be between 0 and 0.5').default(BASELINE_DEFAULTS.headLossFraction.value),
+  generatorEfficiency: fraction.default(BASELINE_DEFAULTS.generatorEfficiency.value),
+  costs: z.object({
+    /** Installed cost per kW of rating; null takes the kind's default. */
+    ratedPowerPrice: amount.nullable().default(null),
+    fixedCost: amount.default(BASELINE_DEFAULTS.fixedCost.value),
+  }).prefault({}),
+})
+
 /** One design option. */
 export const EngineOptionSchema = z.object({
   units: num.int('must be a whole number').min(1, 'needs at least 1 unit').max(50),
@@ -172,6 +188,7 @@ export const EngineOptionSchema = z.object({
   air: AirInputSchema,
   turbine: TurbineInputSchema.prefault({}),
   costs: CostInputSchema.prefault({}),
+  baseline: BaselineInputSchema.prefault({}),
 }).refine((o) => o.outletDiameter_m >= o.throatDiameter_m, { path: ['outletDiameter_m'], message: 'must be at least the throat diameter' })
 
 /** Engine settings; every one has a default with its origin in engine/defaults.ts. */

@@ -1,6 +1,7 @@
 // Comparing options side by side (server/api/compare), and an organisation's options grouped by
 // site for the comparison's picker (server/api/orgs/[orgId]/options).
 import { z } from 'zod'
+import type { BaselineResult } from '../engine/results'
 import { fromDigits } from './common'
 import type { AssessmentDto } from './assessment'
 import type { OptionDesign, OptionDto, OptionSettings } from './option'
@@ -30,6 +31,8 @@ export interface CompareItem {
   /** `currency`: the site's organisation's; the option's amounts are in it. */
   site: { id: number; orgId: number; name: string; riverName: string; grossHead_m: number; currency: Currency }
   latestAssessment: AssessmentDto | null
+  /** The conventional turbine of the latest assessment; null when none is stored (not assessed, or a run stored before it). */
+  baseline: Pick<BaselineResult, 'kindLabel' | 'annualEnergy_MWh' | 'energyGivenUp_MWh' | 'oxygenGainedOverBaseline_mgL' | 'oxygenPerMWhGivenUp' | 'lcoe'> | null
 }
 
 /** GET /api/compare: in the order asked. */

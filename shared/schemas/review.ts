@@ -4,7 +4,7 @@
 // Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
 import type { MoneySummary, StoredMoney } from '../engine/money'
-import type { FlagId, FlagLevel } from '../engine/results'
+import type { BaselineLine, FlagId, FlagLevel } from '../engine/results'
 import { IdSchema, fromDigits } from './common'
 import type { Currency } from './organisation'
 import type { ReservedFlow } from './site'
@@ -204,6 +204,8 @@ export interface ReviewBriefDto {
   }[]
   netGainSummerLowFlow: { value_mgL: number; month: number; flow_m3s: number; temperature_C: number; basis: string }
   gasSupersaturation: { raised: boolean; reason: string; maxUnitTotalDissolvedGas: number }
+  /** A conventional turbine at the same weir, for the one plain line on what the river gains for the energy given up; null for a run stored before it. */
+  baseline: BaselineLine | null
   /** Every flag of the assessment, raised or clear, with its level, the share of the year it is raised and its reason. */
   flags: { id: FlagId; raised: boolean; level: FlagLevel; safety: boolean; shareOfTime: number | null; reason: string }[]
   /** Whether the scheme pays at the export price, amounts in the site's organisation's currency. */

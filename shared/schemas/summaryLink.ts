@@ -8,6 +8,7 @@ import { IdSchema, fromDigits } from './common'
 import type { Currency } from './organisation'
 import type { ReviewState } from './review'
 import type { Reach } from './site'
+import type { BaselineLine } from '../engine/results'
 
 export const SUMMARY_LINK_DAYS_DEFAULT = 30
 export const SUMMARY_LINK_DAYS_MAX = 365
@@ -107,6 +108,8 @@ export interface PublicSummaryDto {
     /** Plain-language assumption behind the homes figure. */
     assumption: string
     source: 'illustrative'
+    /** A conventional turbine at the same weir, for the one plain line beside the scheme's energy; null for a run stored before it. */
+    baseline: BaselineLine | null
   } | null
   /** What it would cost and whether it pays at the export price, in the organisation's currency. */
   money: (StoredMoney & Pick<MoneySummary, 'pays' | 'shortfalls' | 'breakEvenPrice'> & { currency: Currency }) | null

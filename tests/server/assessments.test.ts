@@ -2,7 +2,7 @@ import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 import { Client } from './client'
-import { createAssessment, createOption } from './options-helpers'
+import { createAssessment, createOption, optionBody } from './options-helpers'
 import { createSite, makeTeam } from './sites-helpers'
 
 let team: Awaited<ReturnType<typeof makeTeam>>
@@ -238,5 +238,58 @@ describe('GET /api/assessments/[id]/export/[table].csv', () => {
     expect(bad.body.message).toMatch(/^file: must be one of perFlow\.csv, months\.csv, summary\.csv/)
     expect((await team.outsider.download(`/api/assessments/${first.id}/export/perFlow.csv`)).status).toBe(404)
     expect((await new Client().download(`/api/assessments/${first.id}/export/perFlow.csv`)).status).toBe(401)
+  })
+})
+
+describe('the conventional baseline beside every assessment', () => {
+  it('is stored with the result: a screw at the default design flow, and what the scheme gives up against it', () => {
+    const b = first.result.baseline
+    // ENGINE.md §11: same site, same flow rules; the brief's definitions of the comparison figures
+    expect(b).toMatchObject({ kind: 'screw', kindLabel: 'Archimedes screw' })
+    expect(b.designFlow_m3s).toBeGreaterThan(0)
+    expect(b.annualEnergy_MWh).toBeGreaterThan(first.result.summary.annualEnergy_MWh)
+    expect(b.energyGivenUp_MWh).toBeCloseTo(b.annualEnergy_MWh - first.result.summary.annualEnergy_MWh, 6)
+    expect(b.designFlowBasis).toMatch(/30 %/)
+    expect(first.result.defaultsUsed.map((d: { field: string }) => d.field)).toContain('option.baseline.costs.ratedPowerPrice')
+  })
+
+  it('follows the option: another kind and a given design flow', async () => {
+    const opt = await createOption(team.engineer, siteId, { name: 'Propeller baseline', design: { baseline: { kind: 'propeller', designFlow_m3s: 3 } } })
+    const a = await createAssessment(team.engineer, opt.id)
+    expect(a.result.baseline).toMatchObject({ kind: 'propeller', designFlow_m3s: 3, designFlowBasis: 'given with the option' })
+    const compared = await team.viewer.get(`/api/compare?options=${opt.id},${optionId}`)
+    expect(compared.status).toBe(200)
+    expect(compared.body.items[0].baseline).toMatchObject({ kindLabel: 'propeller (Kaplan-type)', annualEnergy_MWh: a.result.baseline.annualEnergy_MWh })
+  })
+
+  it('answers 400 naming the field for bad baseline values, on options and on the stateless engine route', async () => {
+    const cases: [Record<string, unknown>, RegExp][] = [
+      [{ kind: 'water-wheel' }, /^design\.baseline\.kind:/],
+      [{ designFlow_m3s: -2 }, /^design\.baseline\.designFlow_m3s:/],
+      [{ designFlow_m3s: 'lots' }, /^design\.baseline\.designFlow_m3s:/],
+      [{ headLossFraction: 0.9 }, /^design\.baseline\.headLossFraction:/],
+      [{ generatorEfficiency: 1.2 }, /^design\.baseline\.generatorEfficiency:/],
+      [{ costs: { ratedPowerPrice: -1 } }, /^design\.baseline\.costs\.ratedPowerPrice:/],
+    ]
+    for (const [baseline, message] of cases) {
+      const res = await team.engineer.post(`/api/sites/${siteId}/options`, optionBody({ design: { baseline } }))
+      expect(res.status, JSON.stringify(baseline)).toBe(400)
+      expect(res.body.message).toMatch(message)
+    }
+    const stored = (await team.viewer.get(`/api/assessments/${first.id}`)).body
+    const bad = await team.viewer.post('/api/engine/assess', { ...stored.input, option: { ...stored.input.option, baseline: { kind: 'water-wheel' } } })
+    expect(bad.status).toBe(400)
+    expect(bad.body.message).toMatch(/^option\.baseline\.kind:/)
+  })
+
+  it('is added to an option stored before the baseline existed, which still assesses', async () => {
+    const opt = await createOption(team.engineer, siteId, { name: 'Stored before the baseline' })
+    const row = sqlite.prepare('select design from options where id = ?').get(opt.id) as { design: string }
+    const design = JSON.parse(row.design)
+    delete design.baseline
+    sqlite.prepare('update options set design = ? where id = ?').run(JSON.stringify(design), opt.id)
+    const a = await createAssessment(team.engineer, opt.id)
+    expect(a.result.baseline.kind).toBe('screw')
+    expect((await team.viewer.get(`/api/options/${opt.id}`)).status).toBe(200)
   })
 })

@@ -7,17 +7,18 @@ import { compareCsvRows, compareRows } from '../../../utils/compare'
 
 const GBP = { code: 'GBP', symbol: '£' }
 
-function item(id: number, units: number, figures: Partial<AssessmentDto> | null, currency = GBP): CompareItem {
+function item(id: number, units: number, figures: Partial<AssessmentDto> | null, currency = GBP, baseline: CompareItem['baseline'] = null): CompareItem {
   const o = OptionInputSchema.parse({ name: `Option ${id}`, design: { units, throatDiameter_m: 0.5, outletDiameter_m: 1, throatDepth_m: 2, air: { pipeDiameter_m: 0.4, pipeLength_m: 8 } } })
   const latest: AssessmentDto | null = figures && {
     id: id * 10, siteId: 1, optionId: id, engineVersion: '0.1.0', stale: false, createdAt: '2026-01-01', createdBy: null, supersedes: null, supersededBy: null,
     annualEnergy_MWh: 100, capacityFactor: 0.4, ratedPower_kW: 30, minCavitationMargin_m: 4, netOxygenGainSummerLowFlow_mgL: 0.2, lcoe: 150, capex: 300_000, npv: -50_000, flagsRaised: [], ...figures,
   }
-  return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHead_m: 2, currency }, latestAssessment: latest }
+  return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHead_m: 2, currency }, latestAssessment: latest, baseline }
 }
 
 describe('comparison rows', () => {
-  const items = [item(1, 2, { annualEnergy_MWh: 120, lcoe: 180 }), item(2, 3, { annualEnergy_MWh: 150, lcoe: 140, flagsRaised: ['cavitation'] }), item(3, 3, null)]
+  const screw = (givenUp: number, o2: number): CompareItem['baseline'] => ({ kindLabel: 'Archimedes screw', annualEnergy_MWh: 400, energyGivenUp_MWh: givenUp, oxygenGainedOverBaseline_mgL: o2, oxygenPerMWhGivenUp: givenUp > 0 ? o2 / givenUp : null, lcoe: 120 })
+  const items = [item(1, 2, { annualEnergy_MWh: 120, lcoe: 180 }, GBP, screw(280, 0.3)), item(2, 3, { annualEnergy_MWh: 150, lcoe: 140, flagsRaised: ['cavitation'] }, GBP, screw(250, 0.1)), item(3, 3, null)]
   const rows = Object.fromEntries(compareRows(items).map((r) => [r.key, r]))
 
   it('marks the most energy and the least LCOE as best, ignoring an option never assessed', () => {
@@ -30,6 +31,14 @@ describe('comparison rows', () => {
     expect(rows['cf']!.best).toEqual([]) // 40 % in both assessed options
     expect(rows['throat']!.differs).toBe(false)
     expect(rows['units']!.differs).toBe(true)
+  })
+
+  it('sets each option against its conventional turbine: the least energy given up and the most oxygen gained marked best', () => {
+    // definitions of the rows (energy given up, oxygen over the baseline), no outside source
+    expect(rows['baselineEnergy']!.cells).toEqual([400, 400, null])
+    expect(rows['givenUp']!.best).toEqual([1])
+    expect(rows['oxygenOverBaseline']!.best).toEqual([0])
+    expect(rows['oxygenPerMWh']!.cells[0]).toBeCloseTo(0.3 / 280, 5)
   })
 
   it('writes a CSV with a unit column and one column per option', () => {

@@ -31,9 +31,11 @@ describe('the how-sure card', () => {
       energy_MWh: { p90: 10.04, p50: 12, p10: 15 }, lcoe: { p90: null, p50: 900.4, p10: 1200 }, npv: { p90: -2000, p50: -1000, p10: 10 },
       worstMonthNetGain_mgL: { p90: -0.3, p50: 0, p10: 0.12 },
     } as unknown as UncertaintyResult
-    const rows = spreadRows(r)
+    const rows = spreadRows(r, { code: 'GBP', symbol: '£' })
     expect(rows[0]).toMatchObject({ label: 'Annual energy', p90: '10.0', p50: '12.0', p10: '15.0' })
     expect(rows[1]!.p90).toBe('–')
+    expect(rows[1]!.p50).toBe('£900')
+    expect(rows[2]).toMatchObject({ unit: '£', p90: '−£2,000', p10: '£10' })
     expect(rows[3]).toMatchObject({ p90: '−0.30', p50: '0.00', p10: '+0.12' })
   })
 })
