@@ -84,8 +84,18 @@ export function baselineFlow(u: BaselineUnit, river_m3s: number, tC: number): Ba
   const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
   const eta = q > 0 ? partLoadEfficiency(u.curve, q / u.designFlow_m3s) : 0
   const unitFlow = eta > 0 ? q : 0
-  const power = eta * waterDensity(tC) * G * unitFlow * netHead * u.generatorEfficiency
-  return { riverFlow_m3s: river, unitFlow_m3s: unitFlow, grossHead_m: H, netHead_m: netHead, efficiency: eta, power_W: power }
+  return { riverFlow_m3s: river, unitFlow_m3s: unitFlow, grossHead_m: H, netHead_m: netHead, efficiency: eta, power_W: baselinePower(u, river_m3s, waterDensity(tC)) }
+}
+
+/** baselineFlow's power, W, in water of density `rho`, without building its record: the energy integral asks it once a day of the record. */
+function baselinePower(u: BaselineUnit, river_m3s: number, rho: number): number {
+  const river = Math.max(0, river_m3s)
+  const take = Math.max(0, river - u.reserved_m3s)
+  const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
+  const eta = q > 0 ? partLoadEfficiency(u.curve, q / u.designFlow_m3s) : 0
+  if (!(eta > 0)) return 0
+  const netHead = headAtFlow(u.heads, river, u.grossHead_m) * (1 - u.headLossFraction)
+  return eta * rho * G * q * netHead * u.generatorEfficiency
 }
 
 /** Oxygen below the weir at one flow, without any scheme and with the baseline, mg/L. */
@@ -118,7 +128,9 @@ export function baselineOxygen(site: AssessInput['site'], p_atm: number, f: Base
 
 /** Power of the baseline at a flow and month (1–12), W, at that month's water temperature. */
 function powerAtOf(u: BaselineUnit, months: readonly Conditions[], annual: Conditions): PowerAt {
-  return (flow, month) => baselineFlow(u, flow, (months[month - 1] ?? annual).tC).power_W
+  // water density by month (index 0: the year's mean conditions), worked out once
+  const rho = [annual, ...months].map((c) => waterDensity(c.tC))
+  return (flow, month) => baselinePower(u, flow, rho[month] ?? (rho[0] as number))
 }
 
 /**

@@ -63,11 +63,12 @@ export function yearByYear(sample: RecordSample, energyByYear: readonly RecordYe
   const monthGain = new Float64Array(span * 12)
   const monthDays = new Uint16Array(span * 12)
   const { flows, months, years } = sample
+  const tables = states.map(gainTable)
   for (let i = 0; i < flows.length; i++) {
     const y = (years[i] as number) - first
     const m = (months[i] as number) - 1
     const q = flows[i] as number
-    const g = gainAt(states[m] ?? [], q)
+    const g = gainAt(tables[m] ?? EMPTY, q)
     flowSum[y] = (flowSum[y] as number) + q
     gainSum[y] = (gainSum[y] as number) + g
     monthGain[y * 12 + m] = (monthGain[y * 12 + m] as number) + g
@@ -123,27 +124,37 @@ function daysIn(year: number): number {
   return (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0 ? 366 : 365
 }
 
-/** Net oxygen change at flow q from a month's judged states (flows falling along the list): linear between neighbours, held at the ends. */
-function gainAt(states: readonly FlowState[], q: number): number {
-  const n = states.length
+/** A month's judged flows (falling along the list) and the net oxygen change at each, in typed arrays read once a day. */
+interface GainTable {
+  flows: Float64Array
+  gains: Float64Array
+}
+
+const EMPTY: GainTable = { flows: new Float64Array(0), gains: new Float64Array(0) }
+
+function gainTable(states: readonly FlowState[]): GainTable {
+  return { flows: Float64Array.from(states, (f) => f.riverFlow_m3s), gains: Float64Array.from(states, (f) => f.oxygen.netGain_mgL) }
+}
+
+/** Net oxygen change at flow q from a month's judged flows: linear between neighbours, held at the ends. */
+function gainAt(t: GainTable, q: number): number {
+  const { flows, gains } = t
+  const n = flows.length
   if (n === 0) return 0
-  const top = states[0] as FlowState
-  const bottom = states[n - 1] as FlowState
-  if (q >= top.riverFlow_m3s) return top.oxygen.netGain_mgL
-  if (q <= bottom.riverFlow_m3s) return bottom.oxygen.netGain_mgL
+  if (q >= (flows[0] as number)) return gains[0] as number
+  if (q <= (flows[n - 1] as number)) return gains[n - 1] as number
   let lo = 0
   let hi = n - 1
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1
-    if ((states[mid] as FlowState).riverFlow_m3s >= q) lo = mid
+    if ((flows[mid] as number) >= q) lo = mid
     else hi = mid
   }
-  const a = states[lo] as FlowState
-  const b = states[hi] as FlowState
-  const span = a.riverFlow_m3s - b.riverFlow_m3s
-  if (!(span > 0)) return a.oxygen.netGain_mgL
-  const t = (a.riverFlow_m3s - q) / span
-  return a.oxygen.netGain_mgL + t * (b.oxygen.netGain_mgL - a.oxygen.netGain_mgL)
+  const a = flows[lo] as number
+  const span = a - (flows[hi] as number)
+  if (!(span > 0)) return gains[lo] as number
+  const t01 = (a - q) / span
+  return (gains[lo] as number) + t01 * ((gains[hi] as number) - (gains[lo] as number))
 }
 
 /** The value exceeded p % of the time in a list sorted high to low, Weibull positions 100·m/(n+1), linear between ranks; null outside them. */
