@@ -8,7 +8,7 @@ import { diffuserLength } from './oxygen'
 import { NET_LOSS_TOLERANCE_mgL } from './flags'
 import type { Regime, ShutReason } from './operation'
 import { evaluate, unitPoint, waterAt, type RiverCheck } from './schemeKernel'
-import { oxygenState } from './schemeOxygen'
+import { oxygenState, riverTestOxygen } from './schemeOxygen'
 import { constrictionDefaults, unitCapacity, type UnitGeometry } from './venturi'
 
 /** Water conditions at one moment: calendar month, temperature and upstream oxygen. */
@@ -143,12 +143,12 @@ function riverCheckOf(s: Scheme, c: Conditions): RiverCheck | null {
       electricalPower_W: n * p.air.electricalPower_W, hydraulicPower_W: n * p.air.hydraulicPower_W,
       waterToWire: p.air.waterToWire, turbineState: p.air.state,
     }
-    return costsTheRiver(st, oxygenState(s, ps, c)) ? 'river-first' : null
+    return costsTheRiver(st, riverTestOxygen(s, ps, c)) ? 'river-first' : null
   }
 }
 
 /** The river-first test: running lowers downstream oxygen by more than the acceptable loss, or lowers it while the river is below its target. */
-function costsTheRiver(st: AssessInput['settings'], ox: OxygenState): boolean {
+function costsTheRiver(st: AssessInput['settings'], ox: Pick<OxygenState, 'netGain_mgL' | 'withScheme_mgL'>): boolean {
   return ox.netGain_mgL < -st.acceptableOxygenLoss_mgL || (ox.withScheme_mgL < st.oxygenTarget_mgL && ox.netGain_mgL < -NET_LOSS_TOLERANCE_mgL)
 }
 

@@ -77,8 +77,28 @@ export function weirDeficitRatio(site: Site, overWeir_m3s: number, fall_m: numbe
   return weirModels(site, overWeir_m3s, fall_m, tC).chosen.r
 }
 
-/** Oxygen and dissolved gas below the scheme at one power state: units, weir, mix, net gain. */
-export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
+/** The oxygen side of one power state that the river-first test needs, and that oxygenState builds on. */
+interface RiverCore {
+  cs: number
+  n2Sat: number
+  n2Up: number
+  weirQ: number
+  unitsQ: number
+  alone: WeirAerationModels
+  rest: WeirAerationModels
+  without: number
+  weirStream: number
+  field: TransferResult
+  bubble: BubbleTransferResult
+  unitBubbleO2: number
+  withField: number
+  withBubble: number
+  withScheme: number
+  netGain: number
+}
+
+/** Units, weir and mix at one power state: the downstream oxygen with and without the scheme by both methods. */
+function riverCore(s: Scheme, ps: PowerState, c: Conditions): RiverCore {
   const site = s.input.site
   const st = s.input.settings
   const cs = oxygenSaturation(c.tC, s.p_atm, site.salinity_gkg)
@@ -94,13 +114,34 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
   const rest = unitsQ > 0 ? weirModels(site, weirQ, H, c.tC) : alone
   const without = ps.riverFlow_m3s > 0 ? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, alone.chosen.r) : c.upstreamO2_mgL
   const weirStream = downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, rest.chosen.r)
-  const weirN2 = downstreamFromDeficitRatio(n2Sat, n2Up, rest.chosen.r)
   const { field, bubble } = unitSide(s, ps, c, n2Up)
   const unitBubbleO2 = unitsQ > 0 ? bubble.surface.o2_mgL : c.upstreamO2_mgL
-  const unitBubbleN2 = unitsQ > 0 ? bubble.surface.n2_mgL : n2Up
   const withField = mixTwoStreams(unitsQ, field.cOut_mgL, weirQ, weirStream, c.upstreamO2_mgL)
   const withBubble = mixTwoStreams(unitsQ, unitBubbleO2, weirQ, weirStream, c.upstreamO2_mgL)
   const withScheme = st.oxygenMethod === 'field-transfer' ? withField : withBubble
+  return {
+    cs, n2Sat, n2Up, weirQ, unitsQ, alone, rest, without, weirStream, field, bubble, unitBubbleO2, withField, withBubble, withScheme,
+    netGain: ps.riverFlow_m3s > 0 ? withScheme - without : 0,
+  }
+}
+
+/**
+ * The two figures the river-first test reads, as oxygenState gives them (the same steps; the gas
+ * pressures and the spread between weir models, which the test does not read, left out): it runs at
+ * every candidate of every flow the river-first power table asks about.
+ */
+export function riverTestOxygen(s: Scheme, ps: PowerState, c: Conditions): Pick<OxygenState, 'netGain_mgL' | 'withScheme_mgL'> {
+  const r = riverCore(s, ps, c)
+  return { netGain_mgL: r.netGain, withScheme_mgL: r.withScheme }
+}
+
+/** Oxygen and dissolved gas below the scheme at one power state: units, weir, mix, net gain. */
+export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
+  const site = s.input.site
+  const r = riverCore(s, ps, c)
+  const { cs, n2Sat, n2Up, weirQ, unitsQ, alone, rest, without, weirStream, bubble, unitBubbleO2 } = r
+  const weirN2 = downstreamFromDeficitRatio(n2Sat, n2Up, rest.chosen.r)
+  const unitBubbleN2 = unitsQ > 0 ? bubble.surface.n2_mgL : n2Up
   const unitGas = unitsQ > 0 ? bubble.surface : dissolvedGasState(c.upstreamO2_mgL, n2Up, c.tC, s.p_atm, site.salinity_gkg)
   const mixed = mixDissolvedGas([
     { flow_m3s: unitsQ, o2_mgL: unitBubbleO2, n2_mgL: unitBubbleN2 },
@@ -114,9 +155,9 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
   return {
     saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, withoutSchemeRange_mgL: range,
     weirModel: alone.chosen.model, weirModelNote: alone.chosen.note, weirStream_mgL: weirStream,
-    unitFieldTransfer_mgL: field.cOut_mgL, unitBubbleModel_mgL: unitBubbleO2,
-    withSchemeFieldTransfer_mgL: withField, withSchemeBubbleModel_mgL: withBubble, withScheme_mgL: withScheme,
-    netGain_mgL: ps.riverFlow_m3s > 0 ? withScheme - without : 0,
+    unitFieldTransfer_mgL: r.field.cOut_mgL, unitBubbleModel_mgL: unitBubbleO2,
+    withSchemeFieldTransfer_mgL: r.withField, withSchemeBubbleModel_mgL: r.withBubble, withScheme_mgL: r.withScheme,
+    netGain_mgL: r.netGain,
     unitTdg: unitGas.tdgFraction, unitGasExcess_mmHg: unitGas.tdgExcess_mmHg,
     mixedTdg: mixed.tdgFraction, mixedGasExcess_mmHg: mixed.tdgExcess_mmHg,
   }
