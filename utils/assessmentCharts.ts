@@ -41,12 +41,28 @@ export function monthSeries(months: readonly MonthRow[]) {
 }
 
 /** Tornado bars: each input's low and high ends as changes from the base, largest swing first. */
-export function tornadoBars(s: SensitivityResult, measure: 'energy' | 'oxygen') {
-  const base = measure === 'energy' ? s.base.annualEnergy_MWh : s.base.netOxygenGain_mgL
-  const of = (e: { annualEnergy_MWh: number; netOxygenGain_mgL: number }) => (measure === 'energy' ? e.annualEnergy_MWh : e.netOxygenGain_mgL) - base
+/** What a tornado's bars measure. */
+export type TornadoMeasure = 'energy' | 'oxygen' | 'npv'
+
+const FIGURE: Record<TornadoMeasure, (e: SensitivityResult['base']) => number> = {
+  energy: (e) => e.annualEnergy_MWh,
+  oxygen: (e) => e.netOxygenGain_mgL,
+  npv: (e) => e.npv,
+}
+const SWING: Record<TornadoMeasure, (i: SensitivityResult['items'][number]) => number> = {
+  energy: (i) => i.energySwing_MWh,
+  oxygen: (i) => i.oxygenSwing_mgL,
+  npv: (i) => i.npvSwing,
+}
+
+/** The bars of a tornado: each input's change to the measure from the base run at its low and high end, largest swing first; an input that moves nothing is left out (a run from before NPV was measured shows none for NPV). */
+export function tornadoBars(s: SensitivityResult, measure: TornadoMeasure) {
+  const figure = FIGURE[measure]
+  const base = figure(s.base)
   return [...s.items]
-    .sort((a, b) => (measure === 'energy' ? b.energySwing_MWh - a.energySwing_MWh : b.oxygenSwing_mgL - a.oxygenSwing_mgL))
-    .map((i) => ({ label: i.label, low: of(i.low), high: of(i.high) }))
+    .filter((i) => Number.isFinite(SWING[measure](i)) && SWING[measure](i) > 0)
+    .sort((a, b) => SWING[measure](b) - SWING[measure](a))
+    .map((i) => ({ label: i.label, low: figure(i.low) - base, high: figure(i.high) - base }))
 }
 
 // ——— chart look ———

@@ -19,7 +19,7 @@ export interface RateLimitRule {
 export const RATE_LIMITS = {
   /** POST /api/engine/sweep and POST /api/options/{id}/sweep (up to 400 engine runs each). */
   'engine-sweep': { limit: 20, windowSeconds: 60, what: 'sweeps' },
-  /** POST /api/engine/sensitivity (about 20 engine runs each). */
+  /** POST /api/engine/sensitivity (27 engine runs each: the base and 13 inputs at two ends). */
   'engine-sensitivity': { limit: 30, windowSeconds: 60, what: 'sensitivity runs' },
   /** POST /api/engine/assess and POST /api/options/{id}/assessments (one engine run each). */
   'engine-assess': { limit: 60, windowSeconds: 60, what: 'assessments' },

@@ -86,6 +86,27 @@ describe('sensitivity', () => {
     const t = sensitivity(parse(d)).items.find((x) => x.key === 'turbineEfficiency')
     expect(t?.high.value).toBe(1)
   })
+  it('includes the inputs the Monte Carlo draws: bubble size moves oxygen, capital cost and export price move only the NPV', () => {
+    const by = (k: string) => s.items.find((x) => x.key === k)!
+    expect(by('bubbleDiameter').low.value).toBeCloseTo(0.0024, 12)
+    // smaller bubbles carry more interface per volume of air: more oxygen transferred (McGinnis & Little 2002)
+    expect(by('bubbleDiameter').low.netOxygenGain_mgL).toBeGreaterThan(by('bubbleDiameter').high.netOxygenGain_mgL)
+    expect(by('bubbleDiameter').energySwing_MWh).toBe(0)
+    for (const k of ['capex', 'exportPrice']) {
+      expect(by(k).energySwing_MWh, k).toBe(0)
+      expect(by(k).oxygenSwing_mgL, k).toBe(0)
+      expect(by(k).npvSwing, k).toBeGreaterThan(0)
+    }
+    // NPV = −capex + (E·price − opex)·annuity: a dearer scheme is worth less, a dearer price more (discounted cash flow)
+    expect(by('capex').high.npv).toBeLessThan(by('capex').low.npv)
+    expect(by('exportPrice').high.npv).toBeGreaterThan(by('exportPrice').low.npv)
+    expect(s.base.npv).toBe(assess(input, { compareModes: false }).money.npv)
+  })
+  it('keeps a bubble diameter within the bubble model\'s 1–6 mm', () => {
+    const d = draft()
+    d.settings = { bubbleDiameter_m: 0.0055 }
+    expect(sensitivity(parse(d), 0.5).items.find((x) => x.key === 'bubbleDiameter')?.high.value).toBe(0.006)
+  })
   it('a better turbine only changes energy, not oxygen', () => {
     const t = s.items.find((x) => x.key === 'turbineEfficiency')
     expect(t?.oxygenSwing_mgL).toBeCloseTo(0, 12)
