@@ -2,7 +2,7 @@
 // draft the form holds, with the draft ⇄ body mapping that useFormState checks by the server's own
 // schema (OPTION_FORM). Shapes come from shared/schemas/option.ts, written once; defaults from
 // shared/engine/defaults.ts.
-import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, type ConstrictionType, type SourcedValue } from '#shared/engine/defaults'
+import { DEFAULTS, DIFFUSER_EFFICIENCY, FLOW_COEFFICIENT, MAX_MONTE_CARLO_DRAWS, type ConstrictionType, type SourcedValue } from '#shared/engine/defaults'
 import { MONEY_DEFAULTS } from '#shared/engine/money'
 import { BASELINE_DEFAULTS, BASELINE_KIND_LABEL, BASELINE_KINDS, BASELINE_PRICE_PER_KW, type BaselineKind } from '#shared/engine/baselineUnits'
 import type { OptionDto } from '#shared/schemas/option'
@@ -142,6 +142,8 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'settings.oxygenDiffusivity20', label: 'O₂ diffusivity at 20 °C', unit: 'm²/s', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.oxygenDiffusivity20), advanced: true },
   { path: 'settings.upstreamNitrogenSaturation', label: 'Upstream nitrogen saturation', unit: 'fraction', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.upstreamNitrogenSaturation), advanced: true },
   { path: 'settings.airTemperatureOffset_K', label: 'Intake air above water temperature', unit: 'K', group: 'settings', kind: 'number', defaultOf: fixed(DEFAULTS.airTemperatureOffset), advanced: true },
+  { path: 'settings.monteCarloDraws', label: 'Monte Carlo draws', unit: 'draws', group: 'settings', kind: 'number', integer: true, defaultOf: fixed(DEFAULTS.monteCarloDraws), hint: `how many times a stored assessment re-runs the year with the uncertain inputs drawn afresh; 0 for none, at most ${MAX_MONTE_CARLO_DRAWS}`, advanced: true },
+  { path: 'settings.monteCarloSeed', label: 'Monte Carlo seed', unit: '–', group: 'settings', kind: 'number', integer: true, defaultOf: fixed(DEFAULTS.monteCarloSeed), hint: 'the same seed gives the same draws, so a stored assessment re-runs to the same figures', advanced: true },
 ]
 
 /** Select fields with the value a blank draft starts at (the schema's default). */

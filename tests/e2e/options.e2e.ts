@@ -155,6 +155,23 @@ async function engineerJourney(browser: Browser) {
   }
   await page.click('[data-testid=tornado-oxygen]')
   assert.ok((await waitForChart(page, '[data-testid=chart-tornado-oxygen]')) > 500, 'the oxygen sensitivity is drawn')
+  await page.click('[data-testid=tornado-npv]')
+  assert.ok((await waitForChart(page, '[data-testid=chart-tornado-npv]')) > 500, 'the NPV sensitivity is drawn, capital cost and export price among its bars')
+
+  // How sure: the record's years one by one, the stored Monte Carlo, and a preview from another seed in a browser worker.
+  const sure = page.locator('[data-testid=assessment-uncertainty]')
+  assert.match(await sure.locator('[data-testid=uncertainty-years]').innerText(), /Complete years\s+\d+[\s\S]*P50 annual energy\s+[\d,.]+ MWh[\s\S]*P90 annual energy\s+([\d,.]+ MWh|needs 9 complete years)[\s\S]*Driest year\s+\d{4}: /)
+  assert.ok((await waitForChart(page, '[data-testid=chart-years]')) > 500, 'each complete year\'s energy is drawn')
+  const drawsTable = sure.locator('[data-testid=uncertainty-draws] table >> nth=0')
+  assert.match(await drawsTable.locator('caption').innerText(), /Stored with this assessment \(200 draws, seed 1\)/)
+  assert.deepEqual((await drawsTable.locator('tbody th').allInnerTexts()).map((t) => t.trim()), ['Annual energy (MWh/yr)', 'Levelised cost (£/MWh)', 'Net present value (£)', 'Net O₂ change, worst month (mg/L)'])
+  assert.match(await page.innerText('[data-testid=uncertainty-loss-chance]'), /loses more oxygen than the acceptable 0\.10 mg\/L in (none of the draws|every draw|(under )?\d+ % of draws)/)
+  assert.ok((await waitForChart(page, '[data-testid=chart-draws-energy]')) > 500, 'the draws\' energy is drawn')
+  await page.fill('input[name=previewDraws]', '20')
+  await page.fill('input[name=previewSeed]', '7')
+  await page.click('[data-testid=uncertainty-preview]')
+  await page.waitForSelector('[data-testid=uncertainty-preview-table]', { timeout: 30_000 })
+  assert.match(await page.innerText('[data-testid=uncertainty-preview-table] caption'), /Preview, not stored \(20 draws, seed 7\)/)
 
   // 5. Flags, each in words, raised or clear; then the cautions every screening carries.
   const flags = page.locator('[data-testid=assessment-flags] li[data-testid^=flag-]')

@@ -104,6 +104,9 @@ describe('reproducibility', () => {
     expect(rerun.body.summary).toEqual(stored.body.result.summary)
     expect(rerun.body.perFlow).toEqual(stored.body.result.perFlow)
     expect(rerun.body.months).toEqual(stored.body.result.months)
+    // the stored input carries the Monte Carlo's draws and seed, so its spread re-runs to the same figures
+    expect(stored.body.result.uncertainty.seed).toBe(stored.body.input.settings.monteCarloSeed)
+    expect(rerun.body.uncertainty).toEqual(stored.body.result.uncertainty)
   })
 
   it('a re-run of the stored input through the re-run route gives the same figures and links the two', async () => {
@@ -112,6 +115,8 @@ describe('reproducibility', () => {
     expect(again.supersedes).toBe(base.id)
     expect(again.input).toEqual(base.input)
     expect(again.result.summary).toEqual(base.result.summary)
+    expect(again.result.uncertainty).toEqual(base.result.uncertainty)
+    expect(base.result.uncertainty.draws).toBe(base.input.settings.monteCarloDraws)
     const old = await team.viewer.get(`/api/assessments/${base.id}`)
     expect(old.status).toBe(200)
     expect(old.body.supersededBy).toBe(again.id)

@@ -27,7 +27,10 @@ const GRID = { throatDiameters_m: [0.3, 0.6], units: [1, 2], throatDepths_m: [0.
 /** Keys whose value may be null in an engine result (`number | null` in shared/engine). */
 const NULLABLE = new Set(['cavitationIndex', 'cavitationMargin_m', 'minCavitationMargin_m', 'minCavitationIndex', 'lcoe', 'simplePayback_yr', 'daysWithData', 'best', 'shutReason', 'shareOfTime', 'worst',
   // the baseline's ratios are null when nothing is given up or no oxygen gained, its cost cross-check with no rating (results.ts)
-  'oxygenPerMWhGivenUp', 'energyGivenUpPerMgL', 'capexCrossCheck_usd2014'])
+  'oxygenPerMWhGivenUp', 'energyGivenUpPerMgL', 'capexCrossCheck_usd2014',
+  // no energy, no break-even price; no record, no years; no Monte Carlo asked for, none run; a percentile
+  // outside the draws' or years' plotting positions, or an LCOE of draws that make no energy, is not given (money.ts, recordYears.ts, monteCarlo.ts)
+  'breakEvenPrice', 'years', 'uncertainty', 'p90', 'p50', 'p10', 'p50Energy_MWh', 'p90Energy_MWh', 'driest', 'worstYearNetGain_mgL'])
 
 /** Nulls outside NULLABLE (a NaN or Infinity that JSON turned into null), and any non-finite number, with their paths. */
 function brokenNumbers(v: unknown, nullable: Set<string>, path = '$', key = ''): string[] {
