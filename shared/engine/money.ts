@@ -183,7 +183,8 @@ export function simplePayback(
 /**
  * Break-even export price: the price at which NPV = 0, p = (capex / annuity factor + opex) / E,
  * currency/MWh (discounted cash flow: −C + (E·p − O)·AF = 0). With end-of-year flows and no price
- * escalation it equals the LCOE. Null when energy is 0, or so near 0 that the price overflows.
+ * escalation, 1/AF is the capital recovery factor, so it is the LCOE: the same formula, named for the
+ * question it answers. Null when energy is 0, or so near 0 that the price overflows.
  */
 export function breakEvenPrice(
   capexValue: number,
@@ -192,13 +193,7 @@ export function breakEvenPrice(
   discountRate: number,
   life_yr: number,
 ): number | null {
-  const c = checkNumber(capexValue, 'capex', { min: 0 })
-  const o = checkNumber(opexValue, 'annualOpex', { min: 0 })
-  const e = checkNumber(annualEnergy_MWh, 'annualEnergy_MWh', { min: 0 })
-  const af = annuityFactor(discountRate, life_yr)
-  if (e === 0) return null
-  const price = (c / af + o) / e
-  return Number.isFinite(price) ? price : null
+  return lcoe(capexValue, opexValue, annualEnergy_MWh, discountRate, life_yr)
 }
 
 /** Carbon avoided, t CO₂/yr = annual energy (MWh/yr) × grid emission factor (t CO₂/MWh) (emission-factor method). */

@@ -6,24 +6,20 @@
 import type { AssessInput } from '../schemas/assess'
 import { annualOpex, capex, lcoe, npv } from './money'
 import { atExceedance } from './recordYears'
+import { LEVERS, type LeverKey } from './levers'
 import { drawFrom, seededRandom, type Spread } from './random'
 import { runBasis, type RunBasis } from './runBasis'
 import { buildScheme, designFlow, flowState } from './scheme'
 import { yearEnergy } from './year'
 
 /** The inputs the Monte Carlo draws. */
-export type UncertainKey =
+export type UncertainKey = Extract<LeverKey,
   | 'bubbleDiameter' | 'jetPumpEfficiency' | 'sotePerMetre' | 'turbineEfficiency' | 'generatorEfficiency'
-  | 'availability' | 'capex' | 'exportPrice'
+  | 'availability' | 'capex' | 'exportPrice'>
 
-/** One uncertain input: how it is read and set, and its spread about the value in use, with the source of that spread. */
+/** One uncertain input: its spread about the value in use (read and set by its lever, levers.ts), and where the spread comes from. */
 interface UncertainInput {
   key: UncertainKey
-  label: string
-  unit: string
-  get: (i: AssessInput) => number
-  set: (i: AssessInput, v: number) => AssessInput
-  /** The spread about `v`, the value the option uses. */
   spread: (v: number) => Spread
   source: string
 }
@@ -35,60 +31,38 @@ const factors = (lo: number, hi: number, min = 0, max = Infinity) => (v: number)
 
 const INPUTS: readonly UncertainInput[] = [
   {
-    key: 'bubbleDiameter', label: 'Bubble diameter', unit: 'm',
-    get: (i) => i.settings.bubbleDiameter_m,
-    set: (i, v) => ({ ...i, settings: { ...i.settings, bubbleDiameter_m: v } }),
+    key: 'bubbleDiameter',
     // the bubble model's own range, 1–6 mm, with the value in use as the mode
     spread: (v) => ({ kind: 'triangular', low: Math.min(v, 0.001), mode: v, high: Math.max(v, 0.005) }),
     source: 'judgement: 1–5 mm at 5–7 m/s throat velocity with a high gas fraction (the bubble model\'s default), triangular with the value in use as its mode',
   },
   {
-    key: 'jetPumpEfficiency', label: 'Water-jet pump efficiency', unit: '-',
-    get: (i) => i.option.air.jetPumpEfficiency,
-    set: (i, v) => ({ ...i, option: { ...i.option, air: { ...i.option.air, jetPumpEfficiency: v } } }),
-    spread: factors(0.6, 1.6, 0, 1),
+    key: 'jetPumpEfficiency', spread: factors(0.6, 1.6, 0, 1),
     source: 'optimised liquid-jet gas pumps reach 0.4–0.5 (Cunningham 1974, 1995); a river venturi is far from optimised: 0.6–1.6 × the value in use (0.15–0.40 at the default 0.25), triangular; the low end is illustrative',
   },
   {
-    key: 'sotePerMetre', label: 'Oxygen transfer per metre (field cross-check)', unit: '1/m',
-    get: (i) => i.settings.sotePerMetre,
-    set: (i, v) => ({ ...i, settings: { ...i.settings, sotePerMetre: v } }),
-    spread: factors(0.5, 2, 0, 0.3),
+    key: 'sotePerMetre', spread: factors(0.5, 2, 0, 0.3),
     source: 'from memory: jet aerators 3.3–5.3 %/m in clean water (US EPA/625/1-89/023), range 2–8 %/m: 0.5–2 × the value in use, triangular',
   },
   {
-    key: 'turbineEfficiency', label: 'Air turbine efficiency', unit: '-',
-    get: (i) => i.option.turbine.efficiency,
-    set: (i, v) => ({ ...i, option: { ...i.option, turbine: { ...i.option.turbine, efficiency: v } } }),
-    spread: factors(0.75, 1.25, 0, 1),
+    key: 'turbineEfficiency', spread: factors(0.75, 1.25, 0, 1),
     source: 'Wells-type air turbines peak at about 0.75 (Curran & Gato 1997); impulse turbines about 0.45–0.55 (from memory): 0.75–1.25 × the value in use, triangular',
   },
   {
-    key: 'generatorEfficiency', label: 'Generator efficiency', unit: '-',
-    get: (i) => i.option.turbine.generatorEfficiency,
-    set: (i, v) => ({ ...i, option: { ...i.option, turbine: { ...i.option.turbine, generatorEfficiency: v } } }),
+    key: 'generatorEfficiency',
     spread: (v) => ({ kind: 'uniform', low: Math.min(v, 0.9), high: Math.min(1, Math.max(v, 0.97)) }),
     source: 'from memory: small generators 0.90–0.97, uniform (widened to hold the value in use)',
   },
   {
-    key: 'availability', label: 'Availability', unit: '-',
-    get: (i) => i.settings.availability,
-    set: (i, v) => ({ ...i, settings: { ...i.settings, availability: v } }),
-    spread: factors(0.85 / 0.95, 0.98 / 0.95, 0, 1),
+    key: 'availability', spread: factors(0.85 / 0.95, 0.98 / 0.95, 0, 1),
     source: 'illustrative: 0.85–0.98 at the default 0.95 (the same factors about the value in use), triangular',
   },
   {
-    key: 'capex', label: 'Capital cost', unit: '×',
-    get: () => 1,
-    set: (i) => i,
-    spread: factors(0.7, 1.5),
-    source: 'from memory: a screening estimate may come out 20–50 % low or 30–100 % high (AACE International 18R-97, class 5); taken −30 % / +50 %, triangular',
+    key: 'capex', spread: factors(0.7, 1.5),
+    source: 'from memory: a screening estimate may come out 20–50 % low or 30–100 % high (AACE International 18R-97, class 5); taken −30 % / +50 % on every cost line, triangular',
   },
   {
-    key: 'exportPrice', label: 'Export price', unit: 'currency/MWh',
-    get: (i) => i.settings.exportPrice,
-    set: (i, v) => ({ ...i, settings: { ...i.settings, exportPrice: v } }),
-    spread: factors(0.7, 1.3),
+    key: 'exportPrice', spread: factors(0.7, 1.3),
     source: 'illustrative: ±30 % about the price in use, triangular',
   },
 ]
@@ -148,8 +122,8 @@ interface DrawFigures {
   worstMonthNetGain_mgL: number
 }
 
-/** One draw: the year's energy and the month table's oxygen of `input` on the shared hydrology, money with the capital cost times `capexFactor`. */
-function runDraw(input: AssessInput, b: RunBasis, capexFactor: number): DrawFigures {
+/** One draw: the year's energy and the month table's oxygen of `input` on the shared hydrology, and its money. */
+function runDraw(input: AssessInput, b: RunBasis): DrawFigures {
   const s = buildScheme(input, b.reserved, b.annual)
   const e = yearEnergy(input, b.h, s, b.monthCond, b.curves).annualEnergy_MWh
   let worst = Infinity
@@ -159,7 +133,7 @@ function runDraw(input: AssessInput, b: RunBasis, capexFactor: number): DrawFigu
   }
   const st = input.settings
   const o = input.option
-  const c = capex(o.costs, s.ratedPerUnit_W * o.units, designFlow(s)) * capexFactor
+  const c = capex(o.costs, s.ratedPerUnit_W * o.units, designFlow(s))
   const op = annualOpex(c, st.opexFraction)
   return {
     energy_MWh: e,
@@ -179,27 +153,23 @@ export function monteCarlo(input: AssessInput, draws = input.settings.monteCarlo
   if (!(draws > 0)) return null
   const b = runBasis(input)
   const used = INPUTS.map((u) => {
-    const value = u.get(input)
-    return { u, value, spread: u.spread(value) }
+    const lever = LEVERS[u.key]
+    const value = lever.get(input)
+    return { u, lever, value, spread: u.spread(value) }
   })
   const random = seededRandom(seed)
   const out: DrawFigures[] = []
   for (let d = 0; d < draws; d++) {
     let drawn = input
-    let capexFactor = 1
-    for (const { u, spread } of used) {
-      const v = drawFrom(spread, random())
-      if (u.key === 'capex') capexFactor = v
-      else drawn = u.set(drawn, v)
-    }
-    out.push(runDraw(drawn, b, capexFactor))
+    for (const { lever, spread } of used) drawn = lever.set(drawn, drawFrom(spread, random()))
+    out.push(runDraw(drawn, b))
   }
   const energies = out.map((f) => f.energy_MWh)
   const gains = out.map((f) => f.worstMonthNetGain_mgL)
   const costs = out.map((f) => f.lcoe).filter((x): x is number => x !== null)
   return {
     seed, draws,
-    inputs: used.map(({ u, value, spread }) => ({ key: u.key, label: u.label, unit: u.unit, value, spread, source: u.source })),
+    inputs: used.map(({ u, lever, value, spread }) => ({ key: u.key, label: lever.label, unit: lever.unit, value, spread, source: u.source })),
     energy_MWh: spreadOf(energies),
     lcoe: costs.length * 2 >= draws ? spreadOf(costs) : { p90: null, p50: null, p10: null },
     npv: spreadOf(out.map((f) => f.npv)),
