@@ -241,7 +241,7 @@ async function engineerJourney(browser: Browser) {
   const energyRow = summary.find((l) => l.startsWith('Annual energy,')) ?? ''
   assert.ok(energyRow.endsWith(',MWh/yr'), 'the summary CSV gives the energy with its unit')
   assert.equal(Number(energyRow.split(',')[1]).toFixed(1), numberOf(cardEnergy).toFixed(1), 'the CSV holds the figure on the card')
-  assert.equal(summary.filter((l) => l.startsWith('Flag: ')).length, 6)
+  assert.equal(summary.filter((l) => l.startsWith('Flag: ')).length, 7, 'every flag, the money caution included')
   assert.ok(summary.includes('Closed months,7,month numbers'), 'the summary CSV names the closed month')
 
   // 7. The sweep of the option runs in a Web Worker (no server sweep), then draws the heatmap.
