@@ -1,10 +1,13 @@
 // Engine benchmark: one `assess` over a 100-year daily record (36,525 days) with the month table,
 // against a bare loop computing ρ·g·Q·H·η over the same record in the same run, the FDC of that
 // record alone, and the Monte Carlo: 1,000 draws over the first 30 years of it, on this one thread.
-import { assess } from '../../shared/engine/assess'
-import { fdcFromRecord } from '../../shared/engine/hydrology'
-import { monteCarlo } from '../../shared/engine/monteCarlo'
-import { AssessInputSchema, type AssessInputDraft } from '../../shared/schemas/assess'
+// The engine is bundled first as the server's engine worker is (scripts/bench/engineEntry.ts).
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { pathToFileURL } from 'node:url'
+import { bundleNodeWorker } from '../../build/nodeWorker'
+import type { AssessInputDraft } from '../../shared/schemas/assess'
 import { type BenchFigure, median, percentile, timeRuns } from './harness'
 
 const DAYS = 36_525
@@ -29,7 +32,22 @@ export function century(): { date: string; flow: number | null }[] {
 const TEMPS = [4, 5, 7, 9, 12, 15, 17, 17, 14, 11, 7, 5]
 const O2 = [12, 11.8, 11.2, 10.6, 9.8, 8.8, 8.0, 7.9, 8.6, 9.6, 10.8, 11.6]
 
-export function engineBench(): BenchFigure[] {
+type Engine = typeof import('./engineEntry')
+
+/** The engine as the worker ships it: scripts/bench/engineEntry.ts bundled by build/nodeWorker.ts, then loaded. */
+async function shippedEngine(): Promise<Engine> {
+  const dir = mkdtempSync(join(tmpdir(), 'gillwatt-bench-'))
+  try {
+    const file = join(dir, 'engine.mjs')
+    writeFileSync(file, (await bundleNodeWorker(new URL('./engineEntry.ts', import.meta.url).pathname)).code)
+    return (await import(pathToFileURL(file).href)) as Engine
+  } finally {
+    rmSync(dir, { recursive: true, force: true })
+  }
+}
+
+export async function engineBench(): Promise<BenchFigure[]> {
+  const { assess, fdcFromRecord, monteCarlo, AssessInputSchema } = await shippedEngine()
   const days = century()
   const draft: AssessInputDraft = {
     site: { altitude_m: 120, grossHead_m: 2.2, months: TEMPS.map((t, i) => ({ temperature_C: t, upstreamOxygen_mgL: O2[i]! })) },
