@@ -194,7 +194,7 @@ export function portfolioCsv(rows: readonly PortfolioRow[], currency: Currency):
       'Site id', 'Site', 'River', 'Latitude (°)', 'Longitude (°)', 'Gross head (m)', 'Option', 'Assessed at (UTC)', 'Engine version', 'Stale (-)',
       'Annual energy (MWh/yr)', 'Capacity factor (-)', 'Rated power (kW)', 'Net oxygen gain at summer low flow (mg/L)',
       `Levelised cost (${c}/MWh)`, `Net present value (${c})`, `Capital cost (${c})`,
-      'Annual energy, P90 of the Monte Carlo (MWh/yr)', 'Chance of a net oxygen loss in the worst month (-)', 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
+      'P90 annual energy of the Monte Carlo (MWh/yr)', 'Chance of a net oxygen loss in the worst month (-)', 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
     ],
     data: rows.map((r) => {
       const l = r.latest
