@@ -185,6 +185,12 @@ export interface AssessmentsTable {
   /** Capital cost and NPV at the export price, in the organisation's currency (null only for a stored result that lacked them). */
   capex: number | null
   npv: number | null
+  /** The Monte Carlo's annual energy exceeded in half and in nine of ten draws, MWh/yr, and its share of draws whose worst month loses more oxygen than the acceptable loss (null when no draws ran, or stored before engine 0.3.0). */
+  energy_p50_mwh: number | null
+  energy_p90_mwh: number | null
+  net_loss_probability: number | null
+  /** The daily record's annual energy exceeded in nine years of ten, MWh (null for an entered curve or under 9 complete years). */
+  record_p90_mwh: number | null
   /** JSON: ids of the flags raised. */
   flags_raised: string
   flag_count: number

@@ -1,14 +1,11 @@
 // The one plain line that sets a scheme against the conventional turbine at the same weir, shared by
 // the results card, the comparison, the reviewer's brief and the landowner summary.
 import type { BaselineLine } from '#shared/engine/results'
-import { formatUpTo } from './format'
+import { plainEnergy } from '#shared/utils/howSure'
 import { signedMgL } from './assessment'
 
-/** Energy a year with as many decimals as its size needs: 61, 4.2, 0.35. */
-export function energyText(x: number): string {
-  const a = Math.abs(x)
-  return formatUpTo(x, a >= 10 ? 0 : a >= 1 ? 1 : 2)
-}
+/** Energy a year with as many decimals as its size needs: 61, 4.2, 0.35 (the landowner summary's one rule). */
+export const energyText = plainEnergy
 
 /**
  * "A conventional Archimedes screw at this weir would make 61 MWh a year against this scheme's 4.2;

@@ -1,4 +1,5 @@
-// The comparison table's rows (design, then headline figures, best per row marked) and its CSV.
+// The comparison table's rows (design, then headline figures with how sure they are, best per row
+// marked) and its CSV.
 // Money is in each option's organisation's currency: when the options share one, the row's unit
 // names it; when they do not, each cell carries its own symbol and no cell is marked best.
 import type { CompareItem } from '#shared/schemas/compare'
@@ -40,6 +41,13 @@ export function compareRows(items: readonly CompareItem[]): CompareRow[] {
     shared
       ? row(key, label, moneyUnit(shared, per), 'figures', a.map((x) => (x ? (pick(x) === null ? none : round(pick(x), 0)) : null)), 0, better)
       : row(key, label, per ? `per ${per}, each option's currency` : "each option's currency", 'figures', a.map((x, i) => (x ? (pick(x) === null ? none : formatMoney(pick(x), items[i]!.site.currency)) : null)))
+  /** A figure of the stored Monte Carlo or record years: `none` where the assessment has none, a dash where there is no assessment. */
+  const uncertain = (pick: (x: NonNullable<CompareItem['latestAssessment']>) => number | null, scale: number, digits: number, none: string) =>
+    a.map((x) => {
+      const v = x ? pick(x) : null
+      return x ? (v === null ? none : round(v * scale, digits)) : null
+    })
+  const recordP90 = a.some((x) => x?.recordP90_MWh != null)
   return [
     row('site', 'Site', '', 'design', items.map((i) => `${i.site.name} (${i.site.riverName})`)),
     row('head', 'Gross head', 'm', 'design', items.map((i) => i.site.grossHead_m), 2),
@@ -52,10 +60,15 @@ export function compareRows(items: readonly CompareItem[]): CompareRow[] {
     row('pipeLength', 'Air pipe length', 'm', 'design', items.map((i) => i.option.design.air.pipeLength_m), 1),
     row('ratedEntered', 'Rated power per unit as entered', 'kW', 'design', items.map((i) => i.option.design.turbine.ratedPower_kW ?? 'sized to design'), 1),
     row('energy', 'Annual energy', 'MWh/yr', 'figures', a.map((x) => round(x?.annualEnergy_MWh, 1)), 1, 'high'),
+    row('energyP90', 'Annual energy, P90 (Monte Carlo)', 'MWh/yr', 'figures', uncertain((x) => x.energyP90_MWh, 1, 1, 'not run'), 1, 'high'),
+    row('energyP50', 'Annual energy, P50 (Monte Carlo)', 'MWh/yr', 'figures', uncertain((x) => x.energyP50_MWh, 1, 1, 'not run'), 1),
+    // Only where an option's site has a daily record of 9 complete years or more.
+    ...(recordP90 ? [row('recordP90', 'Driest-years P90 from the record', 'MWh/yr', 'figures', uncertain((x) => x.recordP90_MWh, 1, 1, 'needs a 9-year record'), 1, 'high')] : []),
     row('cf', 'Capacity factor', '%', 'figures', a.map((x) => round(x ? x.capacityFactor * 100 : null, 1)), 1, 'high'),
     row('rated', 'Rated power (all units)', 'kW', 'figures', a.map((x) => round(x?.ratedPower_kW, 1)), 1),
     row('margin', 'Least cavitation margin', 'm', 'figures', a.map((x) => (x ? (x.minCavitationMargin_m === null ? 'never runs' : round(x.minCavitationMargin_m, 2)) : null)), 2, 'high'),
     row('oxygen', 'Net O₂ gain, summer low flow', 'mg/L', 'figures', a.map((x) => round(x?.netOxygenGainSummerLowFlow_mgL, 2)), 2, 'high'),
+    row('netLossChance', 'Chance of a net O₂ loss', '% of draws', 'figures', uncertain((x) => x.netLossProbability, 100, 1, 'not run'), 1, 'low'),
     money('lcoe', 'LCOE', 'MWh', (x) => x.lcoe, 'no energy', 'low'),
     money('npv', 'NPV at the export price', undefined, (x) => x.npv, 'not stored', 'high'),
     money('capex', 'Capital cost', undefined, (x) => x.capex, 'not stored', 'low'),

@@ -1,6 +1,7 @@
 // Columns of the portfolio's site table, typed on PortfolioRow (GET /api/orgs/[orgId]/portfolio).
 // The table takes a list of these, so a new headline figure needs no change to the page or table.
 import { formatMoney, formatUpTo, moneyUnit } from './format'
+import { chancePercent } from './uncertainty'
 import type { Currency } from '#shared/schemas/organisation'
 import type { PortfolioLatest, PortfolioRow, PortfolioSort } from '#shared/schemas/portfolio'
 import { REVIEW_STATE_LABELS } from '#shared/schemas/review'
@@ -51,6 +52,13 @@ export const portfolioColumns = (currency: Currency): PortfolioColumn[] => [
   // Older rows stored without these show a dash.
   { key: 'npv', label: 'NPV', unit: moneyUnit(currency), sort: 'npv', numeric: true, figure: true, value: (r) => formatMoney(of(r, (l) => l.npv), currency) },
   { key: 'capex', label: 'Capital cost', unit: moneyUnit(currency), sort: 'capex', numeric: true, figure: true, value: (r) => formatMoney(of(r, (l) => l.capex), currency) },
+  // From the Monte Carlo stored with the run: a dash where it did not run (no draws, or an engine before 0.3.0).
+  { key: 'energyP90', label: 'P90 energy', unit: 'MWh/yr', sort: 'energyP90_MWh', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.energyP90_MWh), 1) },
+  {
+    key: 'netLossChance', label: 'Chance of a net O₂ loss', unit: '%', numeric: true, figure: true,
+    value: (r) => chancePercent(of(r, (l) => l.netLossProbability)),
+    title: () => 'Share of the Monte Carlo draws whose worst month loses more oxygen than the acceptable loss',
+  },
   {
     key: 'flags', label: 'Flags raised', unit: 'count', sort: 'flagsRaised', numeric: true, figure: true,
     value: (r) => String(of(r, (l) => l.flagsRaised.length)),

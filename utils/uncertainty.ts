@@ -59,6 +59,16 @@ export function chanceText(p: number): string {
   return `${p < 0.01 ? 'under 1' : formatNumber(p * 100, 0)} % of draws`
 }
 
+/** A probability (0–1) as a whole per cent for a table cell: "0", "<1", "21", ">99", "100"; a dash when the Monte Carlo did not run. */
+export function chancePercent(p: number | null | undefined): string {
+  if (p === null || p === undefined || !Number.isFinite(p)) return '–'
+  if (!(p > 0)) return '0'
+  if (p >= 1) return '100'
+  if (p < 0.01) return '<1'
+  if (p > 0.99) return '>99'
+  return formatNumber(p * 100, 0)
+}
+
 /** The preview's draws and seed read from the form, or why not. */
 export function previewRequest(draws: number | null, seed: number | null, max: number): { draws: number, seed: number } | string {
   if (draws === null || !Number.isInteger(draws) || draws < 1 || draws > max) return `Draws: a whole number from 1 to ${formatUpTo(max)}`

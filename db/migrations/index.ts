@@ -10,6 +10,7 @@ import * as m0008 from './0008_bubble_model'
 import * as m0009 from './0009_organisation_currency'
 import * as m0010 from './0010_civils_per_design_flow'
 import * as m0011 from './0011_assessment_money'
+import * as m0012 from './0012_assessment_uncertainty'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
@@ -25,6 +26,7 @@ export const migrations: Record<string, Migration> = {
   '0009_organisation_currency': m0009,
   '0010_civils_per_design_flow': m0010,
   '0011_assessment_money': m0011,
+  '0012_assessment_uncertainty': m0012,
 }
 
 /** Kysely migration provider over the static list above. */

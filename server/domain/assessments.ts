@@ -68,7 +68,7 @@ export async function loadStoredRecord(db: Kysely<Database>, siteId: number): Pr
   }
 }
 
-/** The headline columns of an assessment row, copied from the result's summary. */
+/** The headline columns of an assessment row, copied from the result's summary, money, Monte Carlo and record years. */
 export function summaryColumns(result: AssessResult) {
   const s = result.summary
   const raised = s.flags.filter((f) => f.raised).map((f) => f.id)
@@ -81,6 +81,10 @@ export function summaryColumns(result: AssessResult) {
     lcoe: s.lcoe,
     capex: result.money.capex,
     npv: result.money.npv,
+    energy_p50_mwh: result.uncertainty?.energy_MWh.p50 ?? null,
+    energy_p90_mwh: result.uncertainty?.energy_MWh.p90 ?? null,
+    net_loss_probability: result.uncertainty?.netLossProbability ?? null,
+    record_p90_mwh: result.years?.p90Energy_MWh ?? null,
     flags_raised: JSON.stringify(raised),
     flag_count: raised.length,
   } satisfies Partial<Record<keyof AssessmentsTable, unknown>>

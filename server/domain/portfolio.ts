@@ -27,6 +27,7 @@ const SORT_COLUMNS = {
   lcoe: 'a.lcoe',
   npv: 'a.npv',
   capex: 'a.capex',
+  energyP90_MWh: 'a.energy_p90_mwh',
   flagsRaised: 'a.flag_count',
   reviewState: 'l.review_rank',
 } as const satisfies Record<PortfolioSort, string>
@@ -127,6 +128,10 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
       'a.lcoe',
       'a.npv',
       'a.capex',
+      'a.energy_p50_mwh',
+      'a.energy_p90_mwh',
+      'a.net_loss_probability',
+      'a.record_p90_mwh',
       'a.flags_raised',
     ])
     .orderBy(sql`${sql.ref('p.sort_key')} ${dir} nulls last`)
@@ -169,6 +174,10 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
             lcoe: r.lcoe,
             npv: r.npv,
             capex: r.capex,
+            energyP50_MWh: r.energy_p50_mwh,
+            energyP90_MWh: r.energy_p90_mwh,
+            netLossProbability: r.net_loss_probability,
+            recordP90_MWh: r.record_p90_mwh,
             flagsRaised: JSON.parse(r.flags_raised ?? '[]') as FlagId[],
           },
   }
@@ -184,7 +193,8 @@ export function portfolioCsv(rows: readonly PortfolioRow[], currency: Currency):
     fields: [
       'Site id', 'Site', 'River', 'Latitude (°)', 'Longitude (°)', 'Gross head (m)', 'Option', 'Assessed at (UTC)', 'Engine version', 'Stale (-)',
       'Annual energy (MWh/yr)', 'Capacity factor (-)', 'Rated power (kW)', 'Net oxygen gain at summer low flow (mg/L)',
-      `Levelised cost (${c}/MWh)`, `Net present value (${c})`, `Capital cost (${c})`, 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
+      `Levelised cost (${c}/MWh)`, `Net present value (${c})`, `Capital cost (${c})`,
+      'P90 annual energy of the Monte Carlo (MWh/yr)', 'Chance of a net oxygen loss in the worst month (-)', 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
     ],
     data: rows.map((r) => {
       const l = r.latest
@@ -192,7 +202,8 @@ export function portfolioCsv(rows: readonly PortfolioRow[], currency: Currency):
         r.siteId, safeText(r.name), safeText(r.riverName), r.location.lat, r.location.lng, r.grossHead_m,
         l ? safeText(l.optionName) : '', l?.assessedAt ?? '', l?.engineVersion ?? '', l ? (l.stale ? 'yes' : 'no') : '',
         l?.annualEnergy_MWh ?? '', l?.capacityFactor ?? '', l?.ratedPower_kW ?? '', l?.netOxygenGainSummerLowFlow_mgL ?? '',
-        l?.lcoe ?? '', l?.npv ?? '', l?.capex ?? '', l?.minCavitationMargin_m ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
+        l?.lcoe ?? '', l?.npv ?? '', l?.capex ?? '',
+        l?.energyP90_MWh ?? '', l?.netLossProbability ?? '', l?.minCavitationMargin_m ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
       ]
     }),
   })}\r\n`

@@ -4,6 +4,7 @@ import type { AssessResult, FlagId } from '../../shared/engine/results'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '../../shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '../../shared/schemas/review'
 import type { ReservedFlow } from '../../shared/schemas/site'
+import { howSureOf } from '../../shared/utils/howSure'
 import { monthName } from '../../shared/utils/months'
 
 // The review state machine and the other pure parts of the review: who is mentioned in a comment,
@@ -97,15 +98,18 @@ export function reservedFlowBasis(setting: ReservedFlow, flow_m3s: number, hydro
 }
 
 /** Fields of the brief that come from the stored result alone (the route adds the site and assessment). */
-export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'flags'> & {
+export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'howSure' | 'flags'> & {
   money: Omit<ReviewBriefDto['money'], 'currency'>
 }
 
 // A gap this small between flows in the table is rounding, not water taken from the reserve.
 const FLOW_TOLERANCE = 1e-9
 
-/** What the reviewer judges, read from an assessment's stored result and the reserved-flow setting it ran with. */
-export function reviewBrief(result: AssessResult, setting: ReservedFlow): ReviewBriefBody {
+/**
+ * What the reviewer judges, read from an assessment's stored result, the reserved-flow setting it ran
+ * with and its acceptable oxygen loss (null when the stored input does not say).
+ */
+export function reviewBrief(result: AssessResult, setting: ReservedFlow, acceptableOxygenLoss_mgL: number | null): ReviewBriefBody {
   const reserved = result.hydrology.reservedFlow_m3s
   // At every flow of the table, what stays in the river (the reserve plus any spill) must be at least
   // the reserved flow, or the whole river when it is lower than that.
@@ -136,6 +140,7 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow): Review
       maxUnitTotalDissolvedGas: result.summary.maxUnitTotalDissolvedGas,
     },
     baseline: baselineLineOf(result),
+    howSure: howSureOf(result, acceptableOxygenLoss_mgL),
     // A result stored by an older engine has no level or share of time: its safety flag says which it was.
     flags: result.summary.flags.map((f) => ({
       id: f.id, raised: f.raised, level: f.level ?? (f.safety ? 'safety' : 'note'), safety: f.safety, shareOfTime: f.shareOfTime ?? null, reason: f.reason,

@@ -322,7 +322,11 @@ export async function loadReviewBrief(db: Kysely<Database>, site: SiteRow): Prom
     assessment &&
     (await db
       .selectFrom('assessment_payloads')
-      .select(['result_json', sql<string>`json_extract(input_json, '$.reservedFlow')`.as('reserved_json')])
+      .select([
+        'result_json',
+        sql<string>`json_extract(input_json, '$.reservedFlow')`.as('reserved_json'),
+        sql<number | null>`json_extract(input_json, '$.settings.acceptableOxygenLoss_mgL')`.as('acceptable_loss_mgl'),
+      ])
       .where('assessment_id', '=', assessment.id)
       .executeTakeFirst())
   if (!assessment || !payload) {
@@ -330,6 +334,6 @@ export async function loadReviewBrief(db: Kysely<Database>, site: SiteRow): Prom
   }
   const result = JSON.parse(payload.result_json) as AssessResult
   const setting = (payload.reserved_json ? JSON.parse(payload.reserved_json) : JSON.parse(site.reserved_flow)) as ReservedFlow
-  const brief = reviewBrief(result, setting)
+  const brief = reviewBrief(result, setting, payload.acceptable_loss_mgl)
   return { siteId: site.id, siteName: site.name, assessment, ...brief, money: { ...brief.money, currency: await organisationCurrency(db, site.org_id) } }
 }

@@ -9,6 +9,7 @@ import { REVIEW_STATE_LABELS, type ReviewState } from '../../shared/schemas/revi
 import type { Reach } from '../../shared/schemas/site'
 import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type SummaryLinkState } from '../../shared/schemas/summaryLink'
 import { CAUTIONS } from '../../shared/utils/cautions'
+import { howSureOf, howSureSentences } from '../../shared/utils/howSure'
 import { conflict } from './errors'
 import { hashLinkToken, linkTokenMatches, newLinkToken } from './tokens'
 
@@ -85,6 +86,8 @@ export interface SummarySources {
     optionName: string
     design: Pick<OptionDesign, 'units' | 'throatDiameter_m' | 'outletDiameter_m'>
     result: AssessResult
+    /** The acceptable oxygen loss the run used, mg/L; null when the stored input does not say. */
+    acceptableOxygenLoss_mgL: number | null
   } | null
 }
 
@@ -111,6 +114,16 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
           : `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the river below the weir would carry about ${fmt(-gain)} mg/L less dissolved oxygen than with the weir alone.`,
     }
   }
+  let howSure: PublicSummaryDto['howSure'] = null
+  if (a) {
+    const h = howSureOf(a.result, a.acceptableOxygenLoss_mgL)
+    howSure = {
+      recordP90Energy_MWh: h.record?.p90Energy_MWh ?? null,
+      energyP90_MWh: h.monteCarlo?.energyP90_MWh ?? null,
+      netLossProbability: h.monteCarlo?.netLossProbability ?? null,
+      sentences: howSureSentences(h),
+    }
+  }
   return {
     site: {
       name: s.site.name,
@@ -135,6 +148,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
       : null,
     money: a ? { ...publicMoney(a.result.money), currency: s.currency } : null,
     river,
+    howSure,
     review: {
       state: s.review.state,
       stateLabel: REVIEW_STATE_LABELS[s.review.state],
@@ -176,6 +190,7 @@ export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkR
         'options.name as option_name',
         'assessment_payloads.result_json',
         sql<string>`json_extract(assessment_payloads.input_json, '$.option')`.as('option_json'),
+        sql<number | null>`json_extract(assessment_payloads.input_json, '$.settings.acceptableOxygenLoss_mgL')`.as('acceptable_loss_mgl'),
       ])
       .where('assessments.site_id', '=', site.id)
   let kind: 'under-review' | 'latest' = 'under-review'
@@ -199,6 +214,7 @@ export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkR
           optionName: row.option_name,
           design: JSON.parse(row.option_json) as OptionDesign,
           result: JSON.parse(row.result_json) as AssessResult,
+          acceptableOxygenLoss_mgL: row.acceptable_loss_mgl,
         }
       : null,
   })

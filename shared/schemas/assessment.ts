@@ -70,6 +70,13 @@ export interface AssessmentDto {
   capex: number | null
   /** NPV at the export price over the life, in the organisation's currency; null only for a stored result that lacked it. */
   npv: number | null
+  /** The Monte Carlo's annual energy exceeded in half and in nine of ten draws, MWh/yr; null when no draws ran or stored before engine 0.3.0. */
+  energyP50_MWh: number | null
+  energyP90_MWh: number | null
+  /** The Monte Carlo's share of draws whose worst month loses more oxygen than the acceptable loss (0–1); null as above. */
+  netLossProbability: number | null
+  /** The daily record's annual energy exceeded in nine years of ten, MWh/yr; null for an entered curve or under 9 complete years. */
+  recordP90_MWh: number | null
   /** Flags raised. */
   flagsRaised: FlagId[]
 }

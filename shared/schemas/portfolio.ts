@@ -9,7 +9,7 @@ import { REVIEW_STATES, type ReviewState } from './review'
 /** Columns the portfolio may be sorted by (allow-list). Figures sort with sites never assessed last. */
 export const PORTFOLIO_SORTS = [
   'name', 'riverName', 'grossHead_m', 'assessedAt',
-  'annualEnergy_MWh', 'capacityFactor', 'ratedPower_kW', 'minCavitationMargin_m', 'netOxygenGainSummerLowFlow_mgL', 'lcoe', 'npv', 'capex', 'flagsRaised',
+  'annualEnergy_MWh', 'capacityFactor', 'ratedPower_kW', 'minCavitationMargin_m', 'netOxygenGainSummerLowFlow_mgL', 'lcoe', 'npv', 'capex', 'energyP90_MWh', 'flagsRaised',
   'reviewState',
 ] as const
 export type PortfolioSort = (typeof PORTFOLIO_SORTS)[number]
@@ -53,6 +53,12 @@ export interface PortfolioLatest {
   /** In the organisation's currency (the answer's `currency`). */
   npv: number | null
   capex: number | null
+  /** The Monte Carlo's P50 and P90 annual energy, MWh/yr, and its chance (0–1) of a net oxygen loss in the worst month; null when it did not run. */
+  energyP50_MWh: number | null
+  energyP90_MWh: number | null
+  netLossProbability: number | null
+  /** The daily record's P90 year, MWh/yr; null for an entered curve or under 9 complete years. */
+  recordP90_MWh: number | null
   flagsRaised: FlagId[]
 }
 

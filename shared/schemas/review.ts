@@ -8,6 +8,7 @@ import type { BaselineLine, FlagId, FlagLevel } from '../engine/results'
 import { IdSchema, fromDigits } from './common'
 import type { Currency } from './organisation'
 import type { ReservedFlow } from './site'
+import type { HowSure } from '../utils/howSure'
 import type { Role } from '../utils/roles'
 
 /** Every state a site's review can be in; a site nobody has submitted is `draft`. */
@@ -206,6 +207,8 @@ export interface ReviewBriefDto {
   gasSupersaturation: { raised: boolean; reason: string; maxUnitTotalDissolvedGas: number }
   /** A conventional turbine at the same weir, for the one plain line on what the river gains for the energy given up; null for a run stored before it. */
   baseline: BaselineLine | null
+  /** How sure the energy and oxygen figures are: the Monte Carlo's P90/P50 energy and chance of a net oxygen loss, the record's P90 and driest years (`stored: false` for a run before them). */
+  howSure: HowSure
   /** Every flag of the assessment, raised or clear, with its level, the share of the year it is raised and its reason. */
   flags: { id: FlagId; raised: boolean; level: FlagLevel; safety: boolean; shareOfTime: number | null; reason: string }[]
   /** Whether the scheme pays at the export price, amounts in the site's organisation's currency. */

@@ -120,6 +120,17 @@ export interface PublicSummaryDto {
     /** Plain words: the summer low-flow gain. */
     summary: string
   } | null
+  /** How sure the energy and oxygen figures are, in plain sentences made from the numbers beside them; null when the site has no assessment yet. */
+  howSure: {
+    /** Annual energy made at least in 9 years of 10 of the daily flow record, MWh; null without 9 complete years. */
+    recordP90Energy_MWh: number | null
+    /** Annual energy made at least in 9 of 10 draws of the uncertain inputs (an average year), MWh; null when no draws ran. */
+    energyP90_MWh: number | null
+    /** Share of the draws (0–1) whose worst month loses more oxygen than the acceptable loss; null when no draws ran. */
+    netLossProbability: number | null
+    /** The plain sentences; empty when there is nothing to say. */
+    sentences: string[]
+  } | null
   review: {
     state: ReviewState
     stateLabel: string

@@ -105,6 +105,10 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   const text = await page.innerText('body')
   for (const c of DEMO_REVIEW.comments) assert.ok(!text.includes(c.body.slice(0, 40)), 'no review comment is shown')
   assert.ok(!/@[a-z-]+\.example/.test(text), 'no e-mail address is shown')
+  // How sure the figures are, in the sentences the server made from the demo run's stored numbers.
+  const sure = (await page.locator('[data-testid=summary-how-sure]').innerText()).replace(/\s+/g, ' ')
+  assert.match(sure, /In 9 (years|draws) of 10 .*the scheme would make at least [\d.,]+ MWh/, 'the P90 energy is said plainly')
+  assert.match(sure, /(the river would|would the river) lose .*oxygen in its worst month/, 'how often the river would lose oxygen is said plainly')
   await shot(page, 'l01-summary')
 
   // 6. In print the Print button goes and the location note stays beside the map.
@@ -123,12 +127,13 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.equal(json.status, 200)
   assert.equal(json.cache, 'no-store', 'the summary is never cached')
   const body = json.body as Record<string, unknown>
-  assert.deepEqual(Object.keys(body).sort(), ['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'money', 'review', 'river', 'scheme', 'site'])
+  assert.deepEqual(Object.keys(body).sort(), ['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'review', 'river', 'scheme', 'site'])
   const shape = (o: unknown) => Object.keys(o as object).sort()
   assert.deepEqual(shape(body.site), ['grossHead_m', 'location', 'name', 'reach', 'riverName'])
   assert.deepEqual(shape(body.scheme), ['description', 'optionName', 'outletDiameter_m', 'throatDiameter_m', 'units'])
   assert.deepEqual(shape(body.basis), ['assessedAt', 'engineVersion', 'kind'])
   assert.deepEqual(shape(body.energy), ['annualEnergy_MWh', 'annualUsePerHome_kWh', 'assumption', 'baseline', 'homesEquivalent', 'source'])
+  assert.deepEqual(shape(body.howSure), ['energyP90_MWh', 'netLossProbability', 'recordP90Energy_MWh', 'sentences'])
   assert.deepEqual(shape(body.river), ['months', 'summary', 'target_mgL'])
   assert.deepEqual(shape(body.review), ['conditions', 'decidedAt', 'decisionText', 'state', 'stateLabel'])
   assert.deepEqual(shape(body.contact), ['organisationName', 'preparedBy'])

@@ -76,13 +76,15 @@ async function engineerJourney(browser: Browser) {
 
   // Headline figures of each latest assessment, units in the headers, and the review state in words.
   const head = ((await page.locator('[data-testid=site-table] thead').textContent()) ?? '').replace(/\s+/g, ' ')
-  for (const h of ['Annual energy (MWh/yr)', 'Capacity factor (%)', 'Net O₂ gain at summer low flow (mg/L)', 'LCOE (£/MWh)', 'NPV (£)', 'Capital cost (£)', 'Flags raised (count)', 'Review']) {
+  for (const h of ['Annual energy (MWh/yr)', 'Capacity factor (%)', 'Net O₂ gain at summer low flow (mg/L)', 'LCOE (£/MWh)', 'NPV (£)', 'Capital cost (£)', 'P90 energy (MWh/yr)', 'Chance of a net O₂ loss (%)', 'Flags raised (count)', 'Review']) {
     assert.ok(head.includes(h), `the header shows ${h}`)
   }
   const hollin = page.locator('[data-testid=site-table] tbody tr', { hasText: 'Hollin Mill weir' })
   assert.equal(await hollin.locator('[data-testid=cell-review]').innerText(), 'Accepted with conditions', 'the demo review decision is shown in words')
   assert.match(await hollin.locator('[data-testid=cell-energy]').innerText(), /^\d[\d,]*(\.\d)?$/)
   assert.match(await hollin.locator('[data-testid=cell-capacity]').innerText(), /^\d+(\.\d)?$/)
+  assert.match(await hollin.locator('[data-testid=cell-energyP90]').innerText(), /^\d[\d,]*(\.\d)?$/, 'the demo run\'s Monte Carlo P90 energy is shown')
+  assert.match(await hollin.locator('[data-testid=cell-netLossChance]').innerText(), /^(<1|>99|\d+)$/, 'its chance of a net oxygen loss is shown in per cent')
   assert.match(await hollin.locator('[data-testid=cell-oxygen]').innerText(), /^([+−]\d+(\.\d+)?|0)$/, 'the oxygen gain is signed')
   assert.match(await hollin.locator('[data-testid=cell-flags]').innerText(), /^\d+$/)
   // Sorting by a figure is done by the server: energies come back in order.

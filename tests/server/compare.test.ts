@@ -39,6 +39,11 @@ describe('GET /api/compare', () => {
     expect(typeof south1.option.settings.discountRate).toBe('number')
     expect(south1.latestAssessment).toBeNull()
     expect(north2.latestAssessment).toMatchObject({ id: assessed.id, annualEnergy_MWh: assessed.annualEnergy_MWh, lcoe: assessed.lcoe, stale: false })
+    // How sure: the stored Monte Carlo's figures (an entered curve has no record P90 year).
+    const mc = assessed.result.uncertainty
+    expect(mc.draws).toBeGreaterThan(0)
+    expect(north2.latestAssessment).toMatchObject({ energyP50_MWh: mc.energy_MWh.p50, energyP90_MWh: mc.energy_MWh.p90, netLossProbability: mc.netLossProbability, recordP90_MWh: null })
+    expect(typeof north2.latestAssessment.energyP90_MWh).toBe('number')
     expect(north1.site.orgId).toBe(north.orgId)
     const six = await both.get(`/api/compare?options=${opt.slice(0, 6).join(',')}`)
     expect(six.status).toBe(200)

@@ -56,6 +56,12 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     })
     const birch = res.body.rows.find((r: { name: string }) => r.name === 'Birch weir')
     expect(birch.latest.assessmentId).toBe(bigger.id)
+    // How sure: the stored Monte Carlo's P50/P90 energy and chance of a net oxygen loss; no record (an entered curve).
+    const mc = latestOfAlder.result.uncertainty
+    expect(mc.draws).toBeGreaterThan(0)
+    expect(alder.latest).toMatchObject({ energyP50_MWh: mc.energy_MWh.p50, energyP90_MWh: mc.energy_MWh.p90, netLossProbability: mc.netLossProbability, recordP90_MWh: null })
+    expect(typeof alder.latest.energyP90_MWh).toBe('number')
+    expect(latestOfAlder).toMatchObject({ energyP90_MWh: mc.energy_MWh.p90, recordP90_MWh: null })
     expect(res.body.rows.find((r: { name: string }) => r.name === 'Cedar weir').latest).toBeNull()
     expect(Object.fromEntries(res.body.rows.map((r: { name: string; reviewState: string }) => [r.name, r.reviewState]))).toEqual({
       '=Danger weir': 'draft', 'Alder weir': 'submitted', 'Birch weir': 'accepted', 'Cedar weir': 'draft',
@@ -97,6 +103,12 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     const asc = await get('?sort=annualEnergy_MWh&dir=asc')
     expect(names(asc.body.rows).slice(0, 2)).toEqual([...highFirst].reverse())
     expect(asc.body.rows.slice(2).every((r: { latest: unknown }) => r.latest === null)).toBe(true)
+    const p90 = (a: any) => a.result.uncertainty.energy_MWh.p90 as number
+    expect(p90(bigger)).not.toBe(p90(latestOfAlder))
+    const byP90 = await get('?sort=energyP90_MWh&dir=desc')
+    expect(byP90.status).toBe(200)
+    expect(names(byP90.body.rows).slice(0, 2)).toEqual(p90(bigger) > p90(latestOfAlder) ? ['Birch weir', 'Alder weir'] : ['Alder weir', 'Birch weir'])
+    expect(byP90.body.rows.slice(2).every((r: { latest: unknown }) => r.latest === null)).toBe(true)
     for (const sort of ['capacityFactor', 'lcoe', 'netOxygenGainSummerLowFlow_mgL', 'minCavitationMargin_m', 'ratedPower_kW', 'flagsRaised', 'assessedAt', 'riverName', 'grossHead_m']) {
       const res = await get(`?sort=${sort}&dir=desc`)
       expect(res.status, sort).toBe(200)
@@ -156,6 +168,15 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     const lines = text.trim().split(/\r\n/)
     expect(lines[0]).toContain('Annual energy (MWh/yr)')
     expect(lines[0]).toContain('Net oxygen gain at summer low flow (mg/L)')
+    const header = lines[0]!.split(',')
+    const cells = (name: string) => lines.find((l) => l.includes(name))!.split(',')
+    const p90At = header.indexOf('P90 annual energy of the Monte Carlo (MWh/yr)')
+    const chanceAt = header.indexOf('Chance of a net oxygen loss in the worst month (-)')
+    expect(p90At).toBeGreaterThan(0)
+    expect(chanceAt).toBeGreaterThan(0)
+    expect(Number(cells('Alder weir')[p90At])).toBe(latestOfAlder.result.uncertainty.energy_MWh.p90)
+    expect(Number(cells('Alder weir')[chanceAt])).toBe(latestOfAlder.result.uncertainty.netLossProbability)
+    expect(cells('Cedar weir')[p90At]).toBe('')
     expect(lines).toHaveLength(5)
     const top = bigger.annualEnergy_MWh > latestOfAlder.annualEnergy_MWh ? { name: 'Birch weir', a: bigger } : { name: 'Alder weir', a: latestOfAlder }
     expect(lines[1]).toMatch(new RegExp(`^${ids[top.name]},${top.name},Portfolio Water,`))

@@ -204,6 +204,14 @@ describe('the review brief', () => {
     const gas = stored.result.summary.flags.find((f: { id: string }) => f.id === 'gas-supersaturation')
     expect(res.body.gasSupersaturation).toMatchObject({ raised: gas.raised, reason: gas.reason })
     expect(res.body.flags).toHaveLength(stored.result.summary.flags.length)
+    // How sure: the stored Monte Carlo, with the acceptable loss of the stored input; an entered curve has no record years.
+    const mc = stored.result.uncertainty
+    expect(res.body.howSure).toEqual({
+      stored: true,
+      monteCarlo: { draws: mc.draws, energyP90_MWh: mc.energy_MWh.p90, energyP50_MWh: mc.energy_MWh.p50, netLossProbability: mc.netLossProbability, acceptableOxygenLoss_mgL: stored.input.settings.acceptableOxygenLoss_mgL },
+      record: null,
+    })
+    expect(typeof res.body.howSure.monteCarlo.energyP90_MWh).toBe('number')
   })
 })
 

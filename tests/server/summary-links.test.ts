@@ -89,6 +89,12 @@ describe('the public summary', () => {
     expect(s.energy).toMatchObject({ annualEnergy_MWh: stored.annualEnergy_MWh, annualUsePerHome_kWh: 2700, source: 'illustrative' })
     expect(s.energy.homesEquivalent).toBe(Math.floor((stored.annualEnergy_MWh * 1000) / 2700))
     expect(s.river.months).toHaveLength(12)
+    // How sure, from the stored Monte Carlo: its numbers, and the plain sentences made from them.
+    const mc = stored.result.uncertainty
+    expect(s.howSure).toMatchObject({ recordP90Energy_MWh: null, energyP90_MWh: mc.energy_MWh.p90, netLossProbability: mc.netLossProbability })
+    expect(s.howSure.sentences).toHaveLength(2)
+    expect(s.howSure.sentences[0]).toMatch(/^In 9 draws of 10 of the uncertain inputs, the scheme would make at least [\d.,]+ MWh in an average year\.$/)
+    expect(s.howSure.sentences[1]).toMatch(/the river would lose .*oxygen in its worst month\.$/)
     expect(s.review).toMatchObject({ state: 'draft', decisionText: null })
     expect(s.cautions.length).toBeGreaterThanOrEqual(4)
     expect(s.contact).toEqual({ organisationName: 'Org of sl-admin', preparedBy: 'Test sl-engineer' })

@@ -6,7 +6,7 @@ import { draft, parse } from '../engine/fixtures'
 // The brief only re-reads a stored result: every figure must be the result's own.
 const input = parse(draft())
 const result = assess(input)
-const brief = reviewBrief(result, input.reservedFlow)
+const brief = reviewBrief(result, input.reservedFlow, input.settings.acceptableOxygenLoss_mgL)
 
 describe('reviewBrief', () => {
   it('carries the reserved flow with its basis, and checks it is kept at every flow of the table', () => {
@@ -20,7 +20,7 @@ describe('reviewBrief', () => {
     const robbed = structuredClone(result)
     const row = robbed.perFlow.find((r) => r.unitsRunning > 0)!
     row.unitFlow_m3s = row.riverFlow_m3s / row.unitsRunning // every drop through the units
-    expect(reviewBrief(robbed, input.reservedFlow).reservedFlow.keptAtEveryFlow).toBe(false)
+    expect(reviewBrief(robbed, input.reservedFlow, input.settings.acceptableOxygenLoss_mgL).reservedFlow.keptAtEveryFlow).toBe(false)
   })
 
   it('gives oxygen by month without and with the scheme against the target', () => {
@@ -39,6 +39,29 @@ describe('reviewBrief', () => {
     const gas = result.summary.flags.find((f) => f.id === 'gas-supersaturation')!
     expect(brief.gasSupersaturation).toEqual({ raised: gas.raised, reason: gas.reason, maxUnitTotalDissolvedGas: result.summary.maxUnitTotalDissolvedGas })
     expect(brief.flags.map((f) => f.id)).toEqual(result.summary.flags.map((f) => f.id))
+  })
+})
+
+describe('the brief\'s how-sure block', () => {
+  it('carries the stored Monte Carlo\'s P90/P50 energy and chance of a net oxygen loss, with the run\'s acceptable loss', () => {
+    const mc = { seed: 1, draws: 200, energy_MWh: { p90: 8.2, p50: 9.6, p10: 11 }, netLossProbability: 0.215 } as NonNullable<typeof result.uncertainty>
+    const h = reviewBrief({ ...result, uncertainty: mc }, input.reservedFlow, input.settings.acceptableOxygenLoss_mgL).howSure
+    expect(h).toEqual({
+      stored: true,
+      monteCarlo: { draws: mc.draws, energyP90_MWh: mc.energy_MWh.p90, energyP50_MWh: mc.energy_MWh.p50, netLossProbability: mc.netLossProbability, acceptableOxygenLoss_mgL: input.settings.acceptableOxygenLoss_mgL },
+      record: null, // an entered curve holds no years
+    })
+  })
+
+  it('says when no draws ran', () => {
+    expect(brief.howSure).toEqual({ stored: true, monteCarlo: null, record: null })
+  })
+
+  it('says a result stored before these figures cannot show them (re-run it)', () => {
+    const older = structuredClone(result) as Partial<typeof result>
+    delete older.uncertainty
+    delete older.years
+    expect(reviewBrief(older as typeof result, input.reservedFlow, null).howSure).toEqual({ stored: false, monteCarlo: null, record: null })
   })
 })
 

@@ -14,7 +14,7 @@ const sources = (over: Partial<SummarySources> = {}): SummarySources => ({
   creatorName: 'Ada Engineer',
   expiresAt: '2030-01-01T00:00:00.000Z',
   review: { state: 'accepted-with-conditions', reason: 'Gain holds', conditions: 'Monitor monthly', decidedAt: '2026-03-01T10:00:00.000Z' },
-  assessment: { kind: 'under-review', createdAt: '2026-02-01T10:00:00.000Z', engineVersion: result.engineVersion, optionName: 'Two units', design: input.option, result },
+  assessment: { kind: 'under-review', createdAt: '2026-02-01T10:00:00.000Z', engineVersion: result.engineVersion, optionName: 'Two units', design: input.option, result, acceptableOxygenLoss_mgL: input.settings.acceptableOxygenLoss_mgL },
   ...over,
 })
 
@@ -31,7 +31,7 @@ describe('buildPublicSummary', () => {
   const s = buildPublicSummary(sources())
 
   it('has exactly the landowner fields and no ids', () => {
-    expect(Object.keys(s).sort()).toEqual(['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'money', 'review', 'river', 'scheme', 'site'])
+    expect(Object.keys(s).sort()).toEqual(['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'review', 'river', 'scheme', 'site'])
     const keys: string[] = []
     const walk = (v: unknown) => {
       if (Array.isArray(v)) v.forEach(walk)
@@ -71,6 +71,28 @@ describe('buildPublicSummary', () => {
     expect(bare.energy).toBeNull()
     expect(bare.scheme).toBeNull()
     expect(bare.river).toBeNull()
+    expect(bare.howSure).toBeNull()
+  })
+
+  it('says how sure the figures are in plain sentences from the stored numbers, and that an older run cannot', () => {
+    const mc = { seed: 1, draws: 200, energy_MWh: { p90: 8.24, p50: 9.6, p10: 11 }, netLossProbability: 0.2 } as NonNullable<typeof result.uncertainty>
+    const sure = buildPublicSummary(sources({ assessment: { ...sources().assessment!, result: { ...result, uncertainty: mc }, acceptableOxygenLoss_mgL: 0 } }))
+    expect(sure.howSure).toEqual({
+      recordP90Energy_MWh: null, // an entered curve holds no years
+      energyP90_MWh: 8.24,
+      netLossProbability: 0.2,
+      sentences: [
+        'In 9 draws of 10 of the uncertain inputs, the scheme would make at least 8.2 MWh in an average year.',
+        'In 1 draw of 5 of the uncertain inputs, the river would lose oxygen in its worst month.',
+      ],
+    })
+    // a run without the Monte Carlo or a record (assess alone, an entered curve): nothing to say, and no made-up figure
+    expect(s.howSure).toEqual({ recordP90Energy_MWh: null, energyP90_MWh: null, netLossProbability: null, sentences: [] })
+    const older = structuredClone(result) as Partial<typeof result>
+    delete older.uncertainty
+    delete older.years
+    const old = buildPublicSummary(sources({ assessment: { ...sources().assessment!, result: older as typeof result } }))
+    expect(old.howSure!.sentences).toEqual([expect.stringMatching(/older run/)])
   })
 })
 

@@ -11,7 +11,8 @@ function item(id: number, units: number, figures: Partial<AssessmentDto> | null,
   const o = OptionInputSchema.parse({ name: `Option ${id}`, design: { units, throatDiameter_m: 0.5, outletDiameter_m: 1, throatDepth_m: 2, air: { pipeDiameter_m: 0.4, pipeLength_m: 8 } } })
   const latest: AssessmentDto | null = figures && {
     id: id * 10, siteId: 1, optionId: id, engineVersion: '0.1.0', stale: false, createdAt: '2026-01-01', createdBy: null, supersedes: null, supersededBy: null,
-    annualEnergy_MWh: 100, capacityFactor: 0.4, ratedPower_kW: 30, minCavitationMargin_m: 4, netOxygenGainSummerLowFlow_mgL: 0.2, lcoe: 150, capex: 300_000, npv: -50_000, flagsRaised: [], ...figures,
+    annualEnergy_MWh: 100, capacityFactor: 0.4, ratedPower_kW: 30, minCavitationMargin_m: 4, netOxygenGainSummerLowFlow_mgL: 0.2, lcoe: 150, capex: 300_000, npv: -50_000,
+    energyP50_MWh: null, energyP90_MWh: null, netLossProbability: null, recordP90_MWh: null, flagsRaised: [], ...figures,
   }
   return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHead_m: 2, currency }, latestAssessment: latest, baseline }
 }
@@ -62,5 +63,28 @@ describe('money rows', () => {
     const rows = Object.fromEntries(compareRows([item(1, 2, { npv: -10_000 }), item(2, 3, { npv: 5_000 }, { code: 'EUR', symbol: '€' })]).map((r) => [r.key, r]))
     expect(rows['npv']).toMatchObject({ unit: "each option's currency", cells: ['−£10,000', '€5,000'], best: [] })
     expect(rows['lcoe']!.unit).toBe("per MWh, each option's currency")
+  })
+})
+
+describe('how-sure rows', () => {
+  const sure = { energyP50_MWh: 118.04, energyP90_MWh: 96.26, netLossProbability: 0.215, recordP90_MWh: null }
+  it('show the Monte Carlo P90/P50 energy and the chance of a net oxygen loss, the higher P90 and the lower chance marked best', () => {
+    const rows = Object.fromEntries(compareRows([
+      item(1, 2, sure),
+      item(2, 3, { energyP50_MWh: 130, energyP90_MWh: 90, netLossProbability: 0.05, recordP90_MWh: null }),
+      item(3, 3, { energyP50_MWh: null, energyP90_MWh: null, netLossProbability: null, recordP90_MWh: null }),
+      item(4, 3, null),
+    ]).map((r) => [r.key, r]))
+    expect(rows['energyP90']).toMatchObject({ unit: 'MWh/yr', cells: [96.3, 90, 'not run', null], best: [0] })
+    expect(rows['energyP50']).toMatchObject({ cells: [118, 130, 'not run', null], best: [] })
+    // 0.215 of the draws → 21.5 %
+    expect(rows['netLossChance']).toMatchObject({ unit: '% of draws', cells: [21.5, 5, 'not run', null], best: [1] })
+    // no option has a record of 9 complete years: no row for it
+    expect(rows['recordP90']).toBeUndefined()
+  })
+
+  it('add the record\'s P90 year where an option has one, and say what the others lack', () => {
+    const rows = Object.fromEntries(compareRows([item(1, 2, { ...sure, recordP90_MWh: 80.04 }), item(2, 3, sure), item(3, 3, { ...sure, recordP90_MWh: 85 })]).map((r) => [r.key, r]))
+    expect(rows['recordP90']).toMatchObject({ label: 'Driest-years P90 from the record', cells: [80, 'needs a 9-year record', 85], best: [2] })
   })
 })

@@ -1,6 +1,6 @@
 // The words of the "how sure" card: spreads, chances and the preview's form checks.
 import { describe, expect, it } from 'vitest'
-import { chanceText, previewRequest, spreadRows, spreadText } from '../../../utils/uncertainty'
+import { chancePercent, chanceText, previewRequest, spreadRows, spreadText } from '../../../utils/uncertainty'
 import type { UncertaintyResult } from '../../../shared/engine/monteCarlo'
 
 describe('the how-sure card', () => {
@@ -14,6 +14,16 @@ describe('the how-sure card', () => {
     expect(chanceText(0.004)).toBe('under 1 % of draws')
     expect(chanceText(0.25)).toBe('25 % of draws')
     expect(chanceText(1)).toBe('every draw')
+  })
+
+  it('gives a chance as a whole per cent for a table cell, "<1" and ">99" rather than a rounded 0 or 100, a dash when not run', () => {
+    expect(chancePercent(null)).toBe('–')
+    expect(chancePercent(undefined)).toBe('–')
+    expect(chancePercent(0)).toBe('0')
+    expect(chancePercent(0.004)).toBe('<1')
+    expect(chancePercent(0.21)).toBe('21')
+    expect(chancePercent(0.996)).toBe('>99')
+    expect(chancePercent(1)).toBe('100')
   })
 
   it('refuses a preview with no draws, too many, or a seed that does not fit 32 bits, naming the field', () => {
