@@ -159,11 +159,18 @@ export function unitPoint(w: WaterAt, unitFlow: number, grossHead: number, s: Sc
 }
 
 /**
+ * A suction this small is zero to rounding: heads of a few metres are added and subtracted in double
+ * precision, good to about 1e-15 m, so a suction the physics makes exactly zero can come out a few
+ * times 1e-15 m either way. A nanometre is far above that and far below any suction that draws air.
+ */
+const SUCTION_ROUNDING_m = 1e-9
+
+/**
  * Whether a candidate may run, from its unit point: it must draw air (suction above 0) and make power
  * above the turbine's cut-in; in river-first mode it must also not cost the river oxygen (`riverCheck`).
  */
 function unitVerdict(p: UnitPoint): ShutReason | null {
-  if (!(p.suction_m > 0) || !(p.air.airFlow_m3s > 0)) return 'no-suction'
+  if (!(p.suction_m > SUCTION_ROUNDING_m) || !(p.air.airFlow_m3s > 0)) return 'no-suction'
   if (p.air.state !== 'running' && p.air.state !== 'at-rating') return 'below-cut-in'
   if (!(p.air.electricalPower_W > 0)) return 'below-cut-in'
   return null

@@ -106,6 +106,23 @@ describe('operating rule: properties over random inputs', () => {
   }, 60_000)
 })
 
+describe('operating rule: a suction within rounding of zero', () => {
+  it('draws no air: a unit with its throat at the surface and no diffuser does not run on a rounding error', () => {
+    // Found by the property above: with the throat at the tail-pool surface and a nozzle with no
+    // recovery, the suction is zero in exact arithmetic but came out as +2.6e-15 m at one head and 0
+    // at a slightly higher one, so the unit "ran" at 1e-17 W at the lower head only.
+    const d = draft()
+    d.site = { ...d.site, grossHead_m: 0.9846486150076431, months: d.site.months.map((m) => ({ ...m, temperature_C: 1, upstreamOxygen_mgL: 3 })) }
+    d.option = { ...d.option, units: 1, constriction: 'short-nozzle', throatDiameter_m: 0.2, outletDiameter_m: 0.20000000000000032, throatDepth_m: 0, turbine: { ratedPower_kW: 0.5, cutInFraction: 0 } }
+    const i = parse(d)
+    const c = monthsOf(i)[0]!
+    const f = flowState(buildScheme(i, 0, c), 1e5, c)
+    // suction head at the throat (ENGINE.md §2): no depth and no recovery leave none to draw air with
+    expect(f.unitsRunning).toBe(0)
+    expect(f.shutReason).toBe('no-suction')
+  })
+})
+
 describe('operating rule: the year', () => {
   it('month energies sum to the annual energy, for a record and for a curve with a seasonal profile', () => {
     const profile = [9, 8, 7, 5, 4, 3, 2, 2, 3, 5, 7, 9]

@@ -133,7 +133,7 @@ function directPowerState(s: Scheme, flow: number, c: Conditions): PowerState {
   const check = (cand: Candidate): ShutReason | null => {
     const p = directAirPoint(airInputAt(s, cand.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W).air)
     const hyd = airInputAt(s, cand.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W).hyd
-    if (!(hyd.suction_m > 0) || !(p.airFlow_m3s > 0)) return 'no-suction'
+    if (!(hyd.suction_m > 1e-9) || !(p.airFlow_m3s > 0)) return 'no-suction' // a suction within rounding of zero draws no air (schemeKernel.ts)
     if ((p.state !== 'running' && p.state !== 'at-rating') || !(p.electricalPower_W > 0)) return 'below-cut-in'
     if (o.operation.mode !== 'river-first') return null
     const ps = directStateOf(s, river, H, c, { regime: cand.regime, shutReason: null, unitsRunning: cand.units, unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: Math.min(river, s.reserved_m3s) })
