@@ -191,6 +191,8 @@ export interface AssessmentsTable {
   net_loss_probability: number | null
   /** The daily record's annual energy exceeded in nine years of ten, MWh (null for an entered curve or under 9 complete years). */
   record_p90_mwh: number | null
+  /** Annual energy of the conventional turbine at the same weir, MWh/yr; null for a run stored before it. */
+  baseline_energy_mwh: number | null
   /** JSON: ids of the flags raised. */
   flags_raised: string
   flag_count: number

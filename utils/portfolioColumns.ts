@@ -42,6 +42,12 @@ const of = <T>(r: PortfolioRow, pick: (l: PortfolioLatest) => T) => pick(r.lates
 export const portfolioColumns = (currency: Currency): PortfolioColumn[] => [
   { key: 'river', label: 'River', sort: 'riverName', value: (r) => r.riverName },
   { key: 'energy', label: 'Annual energy', unit: 'MWh/yr', sort: 'annualEnergy_MWh', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.annualEnergy_MWh), 1) },
+  // The pair a reviewer asks for: what a conventional turbine at the same weir would make (a dash for a run stored before it).
+  {
+    key: 'baselineEnergy', label: 'Conventional turbine', unit: 'MWh/yr', sort: 'baselineEnergy_MWh', numeric: true, figure: true,
+    value: (r) => fixed(of(r, (l) => l.baselineEnergy_MWh), 1),
+    title: () => 'Annual energy of a conventional low-head turbine at the same weir, under the same flows',
+  },
   // The engine stores the capacity factor as a fraction of 1; the table shows per cent.
   { key: 'capacity', label: 'Capacity factor', unit: '%', sort: 'capacityFactor', numeric: true, figure: true, value: (r) => fixed(of(r, (l) => l.capacityFactor) * 100, 1) },
   { key: 'oxygen', label: 'Net O₂ gain at summer low flow', unit: 'mg/L', sort: 'netOxygenGainSummerLowFlow_mgL', numeric: true, figure: true, value: (r) => signed(of(r, (l) => l.netOxygenGainSummerLowFlow_mgL), 2) },

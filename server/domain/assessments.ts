@@ -83,6 +83,7 @@ export function summaryColumns(result: AssessResult) {
     npv: result.money.npv,
     energy_p50_mwh: result.uncertainty?.energy_MWh.p50 ?? null,
     energy_p90_mwh: result.uncertainty?.energy_MWh.p90 ?? null,
+    baseline_energy_mwh: result.baseline?.annualEnergy_MWh ?? null,
     net_loss_probability: result.uncertainty?.netLossProbability ?? null,
     record_p90_mwh: result.years?.p90Energy_MWh ?? null,
     flags_raised: JSON.stringify(raised),

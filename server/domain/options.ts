@@ -43,6 +43,7 @@ export function selectAssessmentSummary(eb: ExpressionBuilder<Database, 'assessm
     'assessments.energy_p90_mwh',
     'assessments.net_loss_probability',
     'assessments.record_p90_mwh',
+    'assessments.baseline_energy_mwh',
     'assessments.flags_raised',
     eb.selectFrom('users').select('users.name').whereRef('users.id', '=', 'assessments.created_by').as('creator_name'),
     eb.selectFrom('assessments as later').select('later.id').whereRef('later.supersedes_id', '=', 'assessments.id').limit(1).as('superseded_by'),
@@ -54,7 +55,7 @@ export type AssessmentSummaryRow = Pick<
   AssessmentRow,
   | 'id' | 'site_id' | 'option_id' | 'engine_version' | 'created_at' | 'created_by' | 'supersedes_id'
   | 'annual_energy_mwh' | 'capacity_factor' | 'rated_power_kw' | 'min_cavitation_margin_m' | 'net_oxygen_gain_slf_mgl' | 'lcoe' | 'capex' | 'npv'
-  | 'energy_p50_mwh' | 'energy_p90_mwh' | 'net_loss_probability' | 'record_p90_mwh' | 'flags_raised'
+  | 'energy_p50_mwh' | 'energy_p90_mwh' | 'net_loss_probability' | 'record_p90_mwh' | 'baseline_energy_mwh' | 'flags_raised'
 > & { creator_name: string | null; superseded_by: number | null }
 
 /** An assessment row as the API shows it (without its tables); `stale` compares with this server's engine. */
@@ -81,6 +82,7 @@ export function assessmentDto(row: AssessmentSummaryRow): AssessmentDto {
     energyP90_MWh: row.energy_p90_mwh,
     netLossProbability: row.net_loss_probability,
     recordP90_MWh: row.record_p90_mwh,
+    baselineEnergy_MWh: row.baseline_energy_mwh,
     flagsRaised: JSON.parse(row.flags_raised) as FlagId[],
   }
 }

@@ -28,6 +28,7 @@ const SORT_COLUMNS = {
   npv: 'a.npv',
   capex: 'a.capex',
   energyP90_MWh: 'a.energy_p90_mwh',
+  baselineEnergy_MWh: 'a.baseline_energy_mwh',
   flagsRaised: 'a.flag_count',
   reviewState: 'l.review_rank',
 } as const satisfies Record<PortfolioSort, string>
@@ -132,6 +133,7 @@ export function portfolioQuery(db: Kysely<Database>, orgId: number, query: Omit<
       'a.energy_p90_mwh',
       'a.net_loss_probability',
       'a.record_p90_mwh',
+      'a.baseline_energy_mwh',
       'a.flags_raised',
     ])
     .orderBy(sql`${sql.ref('p.sort_key')} ${dir} nulls last`)
@@ -178,6 +180,7 @@ export function portfolioRow(r: PortfolioSqlRow): PortfolioRow {
             energyP90_MWh: r.energy_p90_mwh,
             netLossProbability: r.net_loss_probability,
             recordP90_MWh: r.record_p90_mwh,
+            baselineEnergy_MWh: r.baseline_energy_mwh,
             flagsRaised: JSON.parse(r.flags_raised ?? '[]') as FlagId[],
           },
   }
@@ -192,7 +195,7 @@ export function portfolioCsv(rows: readonly PortfolioRow[], currency: Currency):
   return `${Papa.unparse({
     fields: [
       'Site id', 'Site', 'River', 'Latitude (°)', 'Longitude (°)', 'Gross head (m)', 'Option', 'Assessed at (UTC)', 'Engine version', 'Stale (-)',
-      'Annual energy (MWh/yr)', 'Capacity factor (-)', 'Rated power (kW)', 'Net oxygen gain at summer low flow (mg/L)',
+      'Annual energy (MWh/yr)', 'Annual energy of a conventional turbine at the same weir (MWh/yr)', 'Capacity factor (-)', 'Rated power (kW)', 'Net oxygen gain at summer low flow (mg/L)',
       `Levelised cost (${c}/MWh)`, `Net present value (${c})`, `Capital cost (${c})`,
       'P90 annual energy of the Monte Carlo (MWh/yr)', 'Chance of a net oxygen loss in the worst month (-)', 'Minimum cavitation margin (m)', 'Flags raised (-)', 'Review state',
     ],
@@ -201,7 +204,7 @@ export function portfolioCsv(rows: readonly PortfolioRow[], currency: Currency):
       return [
         r.siteId, safeText(r.name), safeText(r.riverName), r.location.lat, r.location.lng, r.grossHead_m,
         l ? safeText(l.optionName) : '', l?.assessedAt ?? '', l?.engineVersion ?? '', l ? (l.stale ? 'yes' : 'no') : '',
-        l?.annualEnergy_MWh ?? '', l?.capacityFactor ?? '', l?.ratedPower_kW ?? '', l?.netOxygenGainSummerLowFlow_mgL ?? '',
+        l?.annualEnergy_MWh ?? '', l?.baselineEnergy_MWh ?? '', l?.capacityFactor ?? '', l?.ratedPower_kW ?? '', l?.netOxygenGainSummerLowFlow_mgL ?? '',
         l?.lcoe ?? '', l?.npv ?? '', l?.capex ?? '',
         l?.energyP90_MWh ?? '', l?.netLossProbability ?? '', l?.minCavitationMargin_m ?? '', l ? l.flagsRaised.join(' ') : '', r.reviewState,
       ]

@@ -207,7 +207,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
     years: h.record && energy.byYear ? yearByYear(h.record.sample, energy.byYear, st.availability, main.states) : null,
     uncertainty: null,
     money,
-    baseline: assessBaseline({ input, h, reserved_m3s: reserved, curves, months: monthCond, annual, monthFlows_m3s: flows.map((f) => f.flow), venturi: { annualEnergy_MWh: energy.annualEnergy_MWh, meanNetGain_mgL: year.meanNetGain_mgL } }),
+    baseline: assessBaseline({ input, h, reserved_m3s: reserved, curves, months: monthCond, annual, monthFlows_m3s: flows.map((f) => f.flow), venturi: { annualEnergy_MWh: energy.annualEnergy_MWh, meanNetGain_mgL: year.meanNetGain_mgL }, states: main.states }),
     defaultsUsed: defaultsUsed(input),
     engineVersion: ENGINE_VERSION,
   }

@@ -10,7 +10,7 @@ import {
 } from './baselineUnits'
 import { G } from './constants'
 import { annualEnergyFromFdc, annualEnergyFromSample, DAYS_IN_MONTH, loadFigures, type AnnualEnergy, type PowerAt } from './energy'
-import { exceedanceGrid, flowAtExceedance } from './hydrology'
+import { flowAtExceedance } from './hydrology'
 import { annualOpex, lcoe, npv, simplePayback } from './money'
 import { downstreamFromDeficitRatio, mixTwoStreams } from './oxygen'
 import { oxygenSaturation } from './oxygenSaturation'
@@ -19,7 +19,7 @@ import type { Conditions } from './scheme'
 import { weirDeficitRatio } from './schemeOxygen'
 import { headAtFlow, type HeadPoint } from './venturi'
 import { waterDensity } from './water'
-import { YEAR_GRID_CELLS, type MonthCurve, type SiteHydrology } from './year'
+import type { MonthCurve, SiteHydrology, YearStates } from './year'
 
 /** A baseline unit resolved for computation. */
 export interface BaselineUnit {
@@ -115,10 +115,11 @@ export interface BaselineOxygen {
  * that for the baseline exactly as it does for the venturi scheme's weir stream, and it can outweigh
  * the unit's loss (a net gain that comes from the weir, not from the unit).
  */
-export function baselineOxygen(site: AssessInput['site'], p_atm: number, f: BaselineFlow, c: Conditions): BaselineOxygen {
+export function baselineOxygen(site: AssessInput['site'], p_atm: number, f: BaselineFlow, c: Conditions, without_mgL?: number): BaselineOxygen {
   if (!(f.riverFlow_m3s > 0)) return { without_mgL: c.upstreamO2_mgL, weirStream_mgL: c.upstreamO2_mgL, with_mgL: c.upstreamO2_mgL, netGain_mgL: 0 }
   const cs = oxygenSaturation(c.tC, p_atm, site.salinity_gkg)
-  const without = downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(site, f.riverFlow_m3s, f.grossHead_m, c.tC))
+  // without any scheme the whole river falls over the weir: the scheme's state at this flow has it already when given
+  const without = without_mgL ?? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(site, f.riverFlow_m3s, f.grossHead_m, c.tC))
   if (!(f.unitFlow_m3s > 0)) return { without_mgL: without, weirStream_mgL: without, with_mgL: without, netGain_mgL: 0 }
   const overWeir = f.riverFlow_m3s - f.unitFlow_m3s
   const weirStream = overWeir > 0 ? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(site, overWeir, f.grossHead_m, c.tC)) : c.upstreamO2_mgL
@@ -149,14 +150,17 @@ export function baselineEnergy(u: BaselineUnit, h: SiteHydrology, curves: readon
   return { annualEnergy_MWh, energyByMonth_MWh, ...loadFigures(annualEnergy_MWh, u.rating_W, 8760), hoursPerYear: 8760 }
 }
 
-/** Time-weighted mean net oxygen change of the baseline over the year, judged at the same flows as the scheme's year (YEAR_GRID_CELLS a month, each a month's share of the year). */
-function meanNetGain(u: BaselineUnit, site: AssessInput['site'], p_atm: number, curves: readonly MonthCurve[], months: readonly Conditions[]): number {
-  const grid = exceedanceGrid(YEAR_GRID_CELLS)
+/**
+ * Time-weighted mean net oxygen change of the baseline over the year, judged at the same flows as the
+ * scheme's year (its states: YEAR_GRID_CELLS a month, each a month's share of the year); the oxygen
+ * below the weir without any scheme at each of them is the scheme's own figure there.
+ */
+function meanNetGain(u: BaselineUnit, site: AssessInput['site'], p_atm: number, states: YearStates, months: readonly Conditions[]): number {
   let mean = 0
-  curves.forEach((mc, k) => {
+  states.forEach((monthStates, k) => {
     const c = months[k] as Conditions
-    const w = (DAYS_IN_MONTH[k] ?? 30) / 365 / grid.length
-    for (const p of grid) mean += baselineOxygen(site, p_atm, baselineFlow(u, flowAtExceedance(mc.curve, p), c.tC), c).netGain_mgL * w
+    const w = (DAYS_IN_MONTH[k] ?? 30) / 365 / monthStates.length
+    for (const f of monthStates) mean += baselineOxygen(site, p_atm, baselineFlow(u, f.riverFlow_m3s, c.tC), c, f.oxygen.withoutScheme_mgL).netGain_mgL * w
   })
   return mean
 }
@@ -173,6 +177,8 @@ export interface BaselineContext {
   monthFlows_m3s: readonly number[]
   /** The venturi scheme's own annual energy and time-weighted mean net oxygen change. */
   venturi: { annualEnergy_MWh: number, meanNetGain_mgL: number }
+  /** The states the scheme's year was judged at (year.ts): the baseline is judged at the same flows. */
+  states: YearStates
 }
 
 const finiteOrNull = (x: number): number | null => (Number.isFinite(x) ? x : null)
@@ -185,7 +191,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
   const u = baselineUnit(input, h, ctx.reserved_m3s)
   const p_atm = isaPressure(input.site.altitude_m)
   const energy = baselineEnergy(u, h, curves, months, annual, st.availability)
-  const meanGain = meanNetGain(u, input.site, p_atm, curves, months)
+  const meanGain = meanNetGain(u, input.site, p_atm, ctx.states, months)
   const worstMonth = Math.min(...ctx.monthFlows_m3s.map((q, m) => {
     const c = months[m] ?? annual
     return baselineOxygen(input.site, p_atm, baselineFlow(u, q, c.tC), c).netGain_mgL

@@ -77,6 +77,8 @@ export interface AssessmentDto {
   netLossProbability: number | null
   /** The daily record's annual energy exceeded in nine years of ten, MWh/yr; null for an entered curve or under 9 complete years. */
   recordP90_MWh: number | null
+  /** Annual energy of a conventional turbine at the same weir, MWh/yr; null for a run stored before the baseline. */
+  baselineEnergy_MWh: number | null
   /** Flags raised. */
   flagsRaised: FlagId[]
 }

@@ -9,7 +9,7 @@ import { REVIEW_STATES, type ReviewState } from './review'
 /** Columns the portfolio may be sorted by (allow-list). Figures sort with sites never assessed last. */
 export const PORTFOLIO_SORTS = [
   'name', 'riverName', 'grossHead_m', 'assessedAt',
-  'annualEnergy_MWh', 'capacityFactor', 'ratedPower_kW', 'minCavitationMargin_m', 'netOxygenGainSummerLowFlow_mgL', 'lcoe', 'npv', 'capex', 'energyP90_MWh', 'flagsRaised',
+  'annualEnergy_MWh', 'capacityFactor', 'ratedPower_kW', 'minCavitationMargin_m', 'netOxygenGainSummerLowFlow_mgL', 'lcoe', 'npv', 'capex', 'energyP90_MWh', 'baselineEnergy_MWh', 'flagsRaised',
   'reviewState',
 ] as const
 export type PortfolioSort = (typeof PORTFOLIO_SORTS)[number]
@@ -59,6 +59,8 @@ export interface PortfolioLatest {
   netLossProbability: number | null
   /** The daily record's P90 year, MWh/yr; null for an entered curve or under 9 complete years. */
   recordP90_MWh: number | null
+  /** Annual energy of a conventional turbine at the same weir, MWh/yr; null for a run stored before the baseline. */
+  baselineEnergy_MWh: number | null
   flagsRaised: FlagId[]
 }
 

@@ -62,6 +62,9 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     expect(alder.latest).toMatchObject({ energyP50_MWh: mc.energy_MWh.p50, energyP90_MWh: mc.energy_MWh.p90, netLossProbability: mc.netLossProbability, recordP90_MWh: null })
     expect(typeof alder.latest.energyP90_MWh).toBe('number')
     expect(latestOfAlder).toMatchObject({ energyP90_MWh: mc.energy_MWh.p90, recordP90_MWh: null })
+    // the pair a reviewer asks for: a conventional turbine at the same weir beside the scheme
+    expect(alder.latest.baselineEnergy_MWh).toBe(latestOfAlder.result.baseline.annualEnergy_MWh)
+    expect(latestOfAlder.baselineEnergy_MWh).toBe(latestOfAlder.result.baseline.annualEnergy_MWh)
     expect(res.body.rows.find((r: { name: string }) => r.name === 'Cedar weir').latest).toBeNull()
     expect(Object.fromEntries(res.body.rows.map((r: { name: string; reviewState: string }) => [r.name, r.reviewState]))).toEqual({
       '=Danger weir': 'draft', 'Alder weir': 'submitted', 'Birch weir': 'accepted', 'Cedar weir': 'draft',
@@ -109,7 +112,7 @@ describe('GET /api/orgs/[orgId]/portfolio', () => {
     expect(byP90.status).toBe(200)
     expect(names(byP90.body.rows).slice(0, 2)).toEqual(p90(bigger) > p90(latestOfAlder) ? ['Birch weir', 'Alder weir'] : ['Alder weir', 'Birch weir'])
     expect(byP90.body.rows.slice(2).every((r: { latest: unknown }) => r.latest === null)).toBe(true)
-    for (const sort of ['capacityFactor', 'lcoe', 'netOxygenGainSummerLowFlow_mgL', 'minCavitationMargin_m', 'ratedPower_kW', 'flagsRaised', 'assessedAt', 'riverName', 'grossHead_m']) {
+    for (const sort of ['baselineEnergy_MWh', 'capacityFactor', 'lcoe', 'netOxygenGainSummerLowFlow_mgL', 'minCavitationMargin_m', 'ratedPower_kW', 'flagsRaised', 'assessedAt', 'riverName', 'grossHead_m']) {
       const res = await get(`?sort=${sort}&dir=desc`)
       expect(res.status, sort).toBe(200)
       expect(res.body.total, sort).toBe(4)

@@ -13,7 +13,7 @@ import { oxygenSaturation } from '../../../shared/engine/oxygenSaturation'
 import { buildScheme, powerState, type Conditions } from '../../../shared/engine/scheme'
 import { unitCapacity } from '../../../shared/engine/venturi'
 import { waterDensity } from '../../../shared/engine/water'
-import type { SiteHydrology } from '../../../shared/engine/year'
+import { yearStates, type SiteHydrology } from '../../../shared/engine/year'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
 import { draft, numbersIn, parse, yearOfDays } from './fixtures'
 
@@ -234,6 +234,25 @@ describe('baseline: properties over random inputs', () => {
     }), { numRuns: 150 })
   }, 120_000)
 
+  it('reads the oxygen below the weir without any scheme off the scheme\'s own judged states, as working it out again gives', () => {
+    fc.assert(fc.property(inputArb, (input) => {
+      const months = monthsOf(input)
+      const h = hydrologyOf(input)
+      const reserved = reservedFlow(input.reservedFlow, h.fdc)
+      const curves = months.map(() => ({ curve: h.fdc, basis: 'annual-curve' as const, factor: 1 }))
+      const states = yearStates(buildScheme(input, reserved, months[0]!), months, curves)
+      const u = baselineUnit(input, h, reserved)
+      const p_atm = isaPressure(input.site.altitude_m)
+      for (const k of [0, 6]) {
+        for (const f of states[k]!.filter((_, i) => i % 17 === 0)) {
+          const flow = baselineFlow(u, f.riverFlow_m3s, months[k]!.tC)
+          // identity with the weir model worked out afresh (the same function, the same arguments), no outside source
+          expect(baselineOxygen(input.site, p_atm, flow, months[k]!, f.oxygen.withoutScheme_mgL)).toStrictEqual(baselineOxygen(input.site, p_atm, flow, months[k]!))
+        }
+      }
+    }), { numRuns: 25 })
+  }, 60_000)
+
   it('gives finite figures over a year and never more energy than the water holds', () => {
     fc.assert(fc.property(inputArb, (input) => {
       const months = monthsOf(input)
@@ -243,6 +262,7 @@ describe('baseline: properties over random inputs', () => {
       const b = assessBaseline({
         input, h, reserved_m3s: reserved, curves, months, annual: { month: 0, tC: 10, upstreamO2_mgL: 9 },
         monthFlows_m3s: months.map(() => flowAtExceedance(h.fdc, 50)), venturi: { annualEnergy_MWh: 10, meanNetGain_mgL: 0 },
+        states: yearStates(buildScheme(input, reserved, months[0]!), months, curves),
       })
       for (const [path, v] of numbersIn(b)) expect(Number.isNaN(v), path).toBe(false)
       // energy never created: at most ρ(4 °C)·g·Q_d·H_max over 8760 h (the rating), and CF ≤ 1

@@ -12,7 +12,7 @@ function item(id: number, units: number, figures: Partial<AssessmentDto> | null,
   const latest: AssessmentDto | null = figures && {
     id: id * 10, siteId: 1, optionId: id, engineVersion: '0.1.0', stale: false, createdAt: '2026-01-01', createdBy: null, supersedes: null, supersededBy: null,
     annualEnergy_MWh: 100, capacityFactor: 0.4, ratedPower_kW: 30, minCavitationMargin_m: 4, netOxygenGainSummerLowFlow_mgL: 0.2, lcoe: 150, capex: 300_000, npv: -50_000,
-    energyP50_MWh: null, energyP90_MWh: null, netLossProbability: null, recordP90_MWh: null, flagsRaised: [], ...figures,
+    energyP50_MWh: null, energyP90_MWh: null, netLossProbability: null, recordP90_MWh: null, baselineEnergy_MWh: null, flagsRaised: [], ...figures,
   }
   return { option: { id, name: o.name, design: o.design, settings: o.settings, version: 1 }, site: { id: 1, orgId: 1, name: 'Weir', riverName: 'Brackwin Water', grossHead_m: 2, currency }, latestAssessment: latest, baseline }
 }

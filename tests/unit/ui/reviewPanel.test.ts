@@ -10,7 +10,7 @@ function assessment(over: Partial<AssessmentDto>): AssessmentDto {
     id: 1, siteId: 7, optionId: 10, engineVersion: '1.0.0', stale: false, createdAt: '2026-03-01T10:00:00.000Z', createdBy: null,
     supersedes: null, supersededBy: null, annualEnergy_MWh: 412.34, capacityFactor: 0.41, ratedPower_kW: 115, minCavitationMargin_m: 1.2,
     netOxygenGainSummerLowFlow_mgL: 0.423, lcoe: 88, capex: 250_000, npv: -40_000,
-    energyP50_MWh: null, energyP90_MWh: null, netLossProbability: null, recordP90_MWh: null, flagsRaised: [], ...over,
+    energyP50_MWh: null, energyP90_MWh: null, netLossProbability: null, recordP90_MWh: null, baselineEnergy_MWh: null, flagsRaised: [], ...over,
   }
 }
 const list = (optionId: number, assessments: AssessmentDto[]): AssessmentListDto => ({ optionId, page: 1, pageSize: 50, total: assessments.length, assessments })

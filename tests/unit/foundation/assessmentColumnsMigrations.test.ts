@@ -3,9 +3,10 @@ import { afterEach, describe, expect, it } from 'vitest'
 import { migrateToLatest, openDatabase } from '../../../db/connection'
 import { migrationProvider, migrations } from '../../../db/migrations'
 
-// Migration 0012 (the Monte Carlo's P50/P90 energy and chance of a net oxygen loss, and the record's
-// P90 year, as assessment columns), on runs stored as the server stored them before: one with both,
-// one from an entered curve with draws set to 0, and one from before engine 0.3.0 (neither key).
+// Migrations 0012 (the Monte Carlo's P50/P90 energy and chance of a net oxygen loss, and the record's
+// P90 year, as assessment columns) and 0013 (the conventional turbine's energy), on runs stored as the
+// server stored them before: one with both, one from an entered curve with draws set to 0, and one
+// from before engine 0.3.0 (neither key).
 
 let db: ReturnType<typeof openDatabase> | undefined
 afterEach(async () => {
@@ -38,6 +39,7 @@ async function storedBefore() {
   }
   await store({
     money: { capex: 1, npv: 2 },
+    baseline: { annualEnergy_MWh: 346.5 },
     uncertainty: { draws: 200, energy_MWh: spread(16.5, 19.75, 22), worstMonthNetGain_mgL: spread(-0.2, 0.1, 0.3), netLossProbability: 0.215 },
     years: { p50Energy_MWh: 20.5, p90Energy_MWh: 14.25, years: [] },
   })
@@ -67,5 +69,17 @@ describe('uncertainty migration 0012', () => {
     for (const c of COLUMNS) expect(columns).not.toContain(c)
     expect(columns).toContain('npv')
     expect(await db.selectFrom('assessments').select('annual_energy_mwh').execute()).toHaveLength(3)
+  })
+})
+
+describe('baseline migration 0013', () => {
+  it('copies each stored run\'s conventional-turbine energy into its column, null for a run stored before the baseline', async () => {
+    db = await storedBefore()
+    await migrateToLatest(db)
+    expect((await db.selectFrom('assessments').select('baseline_energy_mwh').orderBy('id').execute()).map((r) => r.baseline_energy_mwh)).toEqual([346.5, null, null])
+    await migrations['0013_assessment_baseline']!.down!(db as never)
+    const columns = (await db.introspection.getTables()).find((t) => t.name === 'assessments')!.columns.map((c) => c.name)
+    expect(columns).not.toContain('baseline_energy_mwh')
+    expect(columns).toContain('energy_p90_mwh')
   })
 })
