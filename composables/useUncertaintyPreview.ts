@@ -3,7 +3,7 @@
 import { onBeforeUnmount, ref, shallowRef } from 'vue'
 import type { UncertaintyResult } from '#shared/engine/monteCarlo'
 import type { AssessInput } from '#shared/schemas/assess'
-import type { UncertaintyWorkerMessage, UncertaintyWorkerRequest } from '../utils/uncertainty'
+import type { UncertaintyWorkerMessage, UncertaintyWorkerRequest } from '../utils/howSure'
 
 /** Running previews: the latest result, whether one is running, and why the last one failed. */
 export function useUncertaintyPreview() {

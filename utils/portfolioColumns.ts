@@ -1,7 +1,7 @@
 // Columns of the portfolio's site table, typed on PortfolioRow (GET /api/orgs/[orgId]/portfolio).
 // The table takes a list of these, so a new headline figure needs no change to the page or table.
 import { formatMoney, formatUpTo, moneyUnit } from './format'
-import { chancePercent } from './uncertainty'
+import { chancePercent } from './howSure'
 import type { Currency } from '#shared/schemas/organisation'
 import type { PortfolioLatest, PortfolioRow, PortfolioSort } from '#shared/schemas/portfolio'
 import { REVIEW_STATE_LABELS } from '#shared/schemas/review'

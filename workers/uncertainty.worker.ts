@@ -1,7 +1,7 @@
 // Web Worker of the results page: runs the Monte Carlo (shared/engine/monteCarlo.ts) on a stored
 // assessment's input with another seed or number of draws, as a preview that is never stored.
 import { monteCarlo } from '../shared/engine/monteCarlo'
-import type { UncertaintyWorkerMessage, UncertaintyWorkerRequest } from '../utils/uncertainty'
+import type { UncertaintyWorkerMessage, UncertaintyWorkerRequest } from '../utils/howSure'
 
 const post = (m: UncertaintyWorkerMessage) => (self as unknown as { postMessage: (m: UncertaintyWorkerMessage) => void }).postMessage(m)
 

@@ -1,6 +1,6 @@
 // The words of the "how sure" card: spreads, chances and the preview's form checks.
 import { describe, expect, it } from 'vitest'
-import { chancePercent, chanceText, previewRequest, spreadRows, spreadText } from '../../../utils/uncertainty'
+import { chancePercent, chanceText, previewRequest, spreadRows, spreadText } from '../../../utils/howSure'
 import type { UncertaintyResult } from '../../../shared/engine/monteCarlo'
 
 describe('the how-sure card', () => {
