@@ -1,7 +1,7 @@
-import { Migrator } from 'kysely'
 import { afterEach, describe, expect, it } from 'vitest'
-import { migrateToLatest, openDatabase } from '../../../db/connection'
-import { migrationProvider, migrations } from '../../../db/migrations'
+import { databaseAt } from './migrationFixtures'
+import { migrateToLatest, type openDatabase } from '../../../db/connection'
+import { migrations } from '../../../db/migrations'
 
 // Migrations 0012 (the Monte Carlo's P50/P90 energy and chance of a net oxygen loss, and the record's
 // P90 year, as assessment columns) and 0013 (the conventional turbine's energy), on runs stored as the
@@ -18,15 +18,9 @@ const spread = (p90: number, p50: number, p10: number) => ({ p90, p50, p10 })
 
 /** A database at 0011 with one site, one option and three assessments whose stored results differ as said above. */
 async function storedBefore() {
-  const d = openDatabase(':memory:')
-  const { error } = await new Migrator({ db: d, provider: migrationProvider }).migrateTo('0011_assessment_money')
-  if (error) throw error
-  const org = await d.insertInto('organisations').values({ name: 'O' }).returning('id').executeTakeFirstOrThrow()
-  const site = await d.insertInto('sites').values({
-    org_id: org.id, name: 'S', river_name: 'R', lat: 54, lng: -2, altitude_m: 100, gross_head_m: 2.4, target_oxygen_mgl: 6, reach: null,
-    weir: '{}', reserved_flow: JSON.stringify({ kind: 'percentile', exceedance: 95 }), months: '[]',
-    catchment: null, created_by: null, deleted_at: null, deleted_by: null,
-  }).returning('id').executeTakeFirstOrThrow()
+  const { db: d, orgId, siteId } = await databaseAt('0011_assessment_money')
+  const org = { id: orgId }
+  const site = { id: siteId }
   const option = await d.insertInto('options').values({
     site_id: site.id, org_id: org.id, name: 'A', design: '{}', settings: '{}', created_by: null, deleted_at: null, deleted_by: null,
   }).returning('id').executeTakeFirstOrThrow()

@@ -1,7 +1,7 @@
-import { Migrator } from 'kysely'
 import { afterEach, describe, expect, it } from 'vitest'
-import { migrateToLatest, openDatabase } from '../../../db/connection'
-import { migrationProvider, migrations } from '../../../db/migrations'
+import { databaseAt } from './migrationFixtures'
+import { migrateToLatest, type openDatabase } from '../../../db/connection'
+import { migrations } from '../../../db/migrations'
 import { AssessInputSchema } from '../../../shared/schemas/assess'
 import { OptionInputSchema } from '../../../shared/schemas/option'
 
@@ -28,15 +28,9 @@ const OLD_SETTINGS = {
 }
 
 async function storedAt(migration: string) {
-  const d = openDatabase(':memory:')
-  const { error } = await new Migrator({ db: d, provider: migrationProvider }).migrateTo(migration)
-  if (error) throw error
-  const org = await d.insertInto('organisations').values({ name: 'O' }).returning('id').executeTakeFirstOrThrow()
-  const site = await d.insertInto('sites').values({
-    org_id: org.id, name: 'S', river_name: 'R', lat: 54, lng: -2, altitude_m: 100, gross_head_m: 2.4, target_oxygen_mgl: 6, reach: null,
-    weir: '{}', reserved_flow: JSON.stringify({ kind: 'percentile', exceedance: 95 }), months: '[]',
-    catchment: null, created_by: null, deleted_at: null, deleted_by: null,
-  }).returning('id').executeTakeFirstOrThrow()
+  const { db: d, orgId, siteId } = await databaseAt(migration)
+  const org = { id: orgId }
+  const site = { id: siteId }
   await d.insertInto('options').values({
     site_id: site.id, org_id: org.id, name: 'O', design: JSON.stringify(OLD_DESIGN), settings: JSON.stringify(OLD_SETTINGS), created_by: null, deleted_at: null, deleted_by: null,
   }).execute()

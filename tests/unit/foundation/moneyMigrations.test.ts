@@ -1,7 +1,7 @@
-import { Migrator } from 'kysely'
 import { afterEach, describe, expect, it } from 'vitest'
-import { migrateToLatest, openDatabase } from '../../../db/connection'
-import { migrationProvider, migrations } from '../../../db/migrations'
+import { databaseAt } from './migrationFixtures'
+import { migrateToLatest, type openDatabase } from '../../../db/connection'
+import { migrations } from '../../../db/migrations'
 import { unitCapacity } from '../../../shared/engine/venturi'
 import { OptionInputSchema } from '../../../shared/schemas/option'
 
@@ -27,15 +27,9 @@ const capacity = unitCapacity(HEAD_m, { throatDiameter_m: 0.5, outletDiameter_m:
 
 /** A database at 0008 with one organisation, a site, two options (civils at the old default, and the engineer's own) and an assessment of the second. */
 async function storedBefore() {
-  const d = openDatabase(':memory:')
-  const { error } = await new Migrator({ db: d, provider: migrationProvider }).migrateTo('0008_bubble_model')
-  if (error) throw error
-  const org = await d.insertInto('organisations').values({ name: 'O' }).returning('id').executeTakeFirstOrThrow()
-  const site = await d.insertInto('sites').values({
-    org_id: org.id, name: 'S', river_name: 'R', lat: 54, lng: -2, altitude_m: 100, gross_head_m: HEAD_m, target_oxygen_mgl: 6, reach: null,
-    weir: '{}', reserved_flow: JSON.stringify({ kind: 'percentile', exceedance: 95 }), months: '[]',
-    catchment: null, created_by: null, deleted_at: null, deleted_by: null,
-  }).returning('id').executeTakeFirstOrThrow()
+  const { db: d, orgId, siteId } = await databaseAt('0008_bubble_model', { gross_head_m: HEAD_m })
+  const org = { id: orgId }
+  const site = { id: siteId }
   const option = (name: string, civils: number) => d.insertInto('options').values({
     site_id: site.id, org_id: org.id, name, design: JSON.stringify(design(civils)), settings: '{}', created_by: null, deleted_at: null, deleted_by: null,
   }).returning('id').executeTakeFirstOrThrow()
