@@ -53,7 +53,7 @@ const LIST: Lever[] = [
   { key: 'availability', label: 'Availability', unit: '-', max: 1, get: (i) => i.settings.availability, set: (i, v) => ({ ...i, settings: { ...i.settings, availability: v } }) },
   {
     key: 'capex', label: 'Capital cost (every cost line)', unit: '×', get: () => 1,
-    set: (i, v) => ({ ...i, option: { ...i.option, costs: { fixedCost: i.option.costs.fixedCost * v, ratedPowerPrice: i.option.costs.ratedPowerPrice * v, civilsPerDesignFlow: i.option.costs.civilsPerDesignFlow * v } } }),
+    set: (i, v) => ({ ...i, option: { ...i.option, costs: { ...i.option.costs, fixedCost: i.option.costs.fixedCost * v, ratedPowerPrice: i.option.costs.ratedPowerPrice * v, civilsPerDesignFlow: i.option.costs.civilsPerDesignFlow * v } } }),
   },
   { key: 'exportPrice', label: 'Export price', unit: 'currency/MWh', get: (i) => i.settings.exportPrice, set: (i, v) => ({ ...i, settings: { ...i.settings, exportPrice: v } }) },
 ]
