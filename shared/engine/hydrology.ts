@@ -227,11 +227,6 @@ export function scaleSampleByAreaRatio(sample: RecordSample, siteArea: number, g
   return { ...sample, flows: sample.flows.map((q) => q * r) }
 }
 
-/** The annual curve of a record: Weibull over every day with data (Weibull 1939). */
-export function recordCurve(sample: RecordSample): Fdc {
-  return fdcFromSample(sample.flows.slice(), 'days')
-}
-
 /**
  * A record's annual curve and its twelve month curves, January first (null for a month with no
  * data), each by Weibull over its days (Weibull 1939). Each month's flows are sorted once, and the

@@ -64,6 +64,7 @@ function annualConditions(input: AssessInput): Conditions {
   }
 }
 
-function monthConditions(input: AssessInput): Conditions[] {
+/** Each month's conditions, January first: its temperature and upstream oxygen. */
+export function monthConditions(input: AssessInput): Conditions[] {
   return input.site.months.map((m, k) => ({ month: k + 1, tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
 }

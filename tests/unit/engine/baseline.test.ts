@@ -13,12 +13,12 @@ import { oxygenSaturation } from '../../../shared/engine/oxygenSaturation'
 import { buildScheme, powerState, type Conditions } from '../../../shared/engine/scheme'
 import { unitCapacity } from '../../../shared/engine/venturi'
 import { waterDensity } from '../../../shared/engine/water'
+import { monthConditions } from '../../../shared/engine/runBasis'
 import { yearStates, type SiteHydrology } from '../../../shared/engine/year'
-import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
+import { AssessInputSchema, type AssessInput } from '../../../shared/schemas/assess'
+import { num, operatingInputArb } from './arbitraries'
 import { draft, numbersIn, parse, yearOfDays } from './fixtures'
 
-const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true })
-const monthsOf = (i: AssessInput): Conditions[] => i.site.months.map((m, k) => ({ month: k + 1, tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
 const hydrologyOf = (i: AssessInput): SiteHydrology => {
   if (i.hydrology.kind !== 'fdc') throw new Error('the tests draw FDC sites')
   return { fdc: fdcFromPoints(i.hydrology.points), record: null }
@@ -129,36 +129,18 @@ describe('the baseline unit', () => {
   })
 })
 
-/** A random site and option in the schema's bounds, drawn as the operating-rule properties draw them (operation.test.ts), with a head table and a baseline. */
-const inputArb: fc.Arbitrary<AssessInput> = fc.record({
-  grossHead: num(0.3, 5),
+/** A random site and option as the operating-rule properties draw them (arbitraries.ts), with a head table, a crest and a baseline. */
+const inputArb: fc.Arbitrary<AssessInput> = fc.tuple(operatingInputArb, fc.record({
   headTable: fc.array(fc.record({ flow_m3s: num(0, 80), head_m: num(0.1, 5) }), { maxLength: 4 }),
-  units: fc.integer({ min: 1, max: 5 }),
-  throat: num(0.2, 1.2),
-  widen: num(1, 2.5),
-  depth: num(0, 4),
-  drawdown: fc.oneof(num(0, 0.5), fc.constant(0.05)),
-  mode: fc.constantFrom('energy-first', 'river-first'),
-  rated: fc.oneof(fc.constant(null), num(0.5, 100)),
-  cutIn: num(0, 0.5),
-  o2: fc.array(num(3, 13), { minLength: 12, maxLength: 12 }),
-  temps: fc.array(num(1, 25), { minLength: 12, maxLength: 12 }),
-  constriction: fc.constantFrom('venturi', 'short-nozzle', 'sharp-plate'),
   kind: fc.constantFrom(...BASELINE_KINDS),
   headLoss: num(0, 0.5),
   generator: num(0.5, 1),
   crest: fc.oneof(fc.constant(undefined), num(2, 40)),
-}).map((r) => {
-  const d: AssessInputDraft = draft()
-  d.site = { ...d.site, grossHead_m: r.grossHead, headTable: r.headTable, crestLength_m: r.crest, months: r.temps.map((t, i) => ({ temperature_C: t, upstreamOxygen_mgL: r.o2[i]! })) }
-  d.option = {
-    ...d.option, units: r.units, throatDiameter_m: r.throat, outletDiameter_m: r.throat * r.widen, throatDepth_m: r.depth, constriction: r.constriction,
-    operation: { mode: r.mode, allowedDrawdown_m: r.drawdown },
-    turbine: { ratedPower_kW: r.rated, cutInFraction: r.cutIn },
-    baseline: { kind: r.kind, headLossFraction: r.headLoss, generatorEfficiency: r.generator },
-  }
-  return AssessInputSchema.parse(d)
-})
+})).map(([i, r]) => AssessInputSchema.parse({
+  ...i,
+  site: { ...i.site, headTable: r.headTable, crestLength_m: r.crest },
+  option: { ...i.option, baseline: { kind: r.kind, headLossFraction: r.headLoss, generatorEfficiency: r.generator } },
+}))
 /** Evenly spread over [min, max] (fc.double leans to the ends, and most flows it draws are near 0). */
 const even = (min: number, max: number) => fc.integer({ min: 0, max: 100_000 }).map((k) => min + ((max - min) * k) / 100_000)
 const flowsArb = fc.array(fc.oneof(num(0, 80), even(0, 80), even(0, 80)), { minLength: 1, maxLength: 25 })
@@ -175,7 +157,7 @@ describe('baseline: properties over random inputs', () => {
   it('never makes less power than the venturi scheme at the same river flow and month where both run', () => {
     let compared = 0
     fc.assert(fc.property(runningArb, flowsArb, (input, flows) => {
-      const months = monthsOf(input)
+      const months = monthConditions(input)
       const h = hydrologyOf(input)
       const reserved = reservedFlow(input.reservedFlow, h.fdc)
       const s = buildScheme(input, reserved, months[0]!)
@@ -217,7 +199,7 @@ describe('baseline: properties over random inputs', () => {
       // Without a crest length the weir is taken as free at every flow (schemeOxygen.ts drownedAt), so
       // its deficit ratio does not change with the water over it and the unit's loss stands alone.
       const site = free ? { ...input.site, crestLength_m: undefined } : input.site
-      const months = monthsOf(input)
+      const months = monthConditions(input)
       const h = hydrologyOf(input)
       const u = baselineUnit(input, h, reservedFlow(input.reservedFlow, h.fdc))
       const p_atm = isaPressure(input.site.altitude_m)
@@ -236,7 +218,7 @@ describe('baseline: properties over random inputs', () => {
 
   it('reads the oxygen below the weir without any scheme off the scheme\'s own judged states, as working it out again gives', () => {
     fc.assert(fc.property(inputArb, (input) => {
-      const months = monthsOf(input)
+      const months = monthConditions(input)
       const h = hydrologyOf(input)
       const reserved = reservedFlow(input.reservedFlow, h.fdc)
       const curves = months.map(() => ({ curve: h.fdc, basis: 'annual-curve' as const, factor: 1 }))
@@ -255,7 +237,7 @@ describe('baseline: properties over random inputs', () => {
 
   it('gives finite figures over a year and never more energy than the water holds', () => {
     fc.assert(fc.property(inputArb, (input) => {
-      const months = monthsOf(input)
+      const months = monthConditions(input)
       const h = hydrologyOf(input)
       const reserved = reservedFlow(input.reservedFlow, h.fdc)
       const curves = months.map(() => ({ curve: h.fdc, basis: 'annual-curve' as const, factor: 1 }))

@@ -14,7 +14,7 @@ import {
   scaleFdcByAreaRatio,
   scaleSampleByAreaRatio,
   readRecord,
-  recordCurve,
+  recordCurves,
 } from '../../../shared/engine/hydrology'
 import { expectInputError, record } from './fixtures'
 
@@ -265,7 +265,7 @@ describe('area-ratio scaling', () => {
     const site = scaleSampleByAreaRatio(read, 30, 120)
     expect(Array.from(site.flows)).toEqual([1.25, 1, 0.75, 0.5, 0.25])
     expect(site.months).toBe(read.months)
-    const fromRecord = fdcStats(recordCurve(site))
+    const fromRecord = fdcStats(recordCurves(site).annual)
     const fromCurve = fdcStats(scaleFdcByAreaRatio(fdcFromRecord(days), 30, 120))
     expect(fromCurve.q95).toBeCloseTo(fromRecord.q95, 12)
     expect(fromCurve.mean).toBeCloseTo(fromRecord.mean, 12)

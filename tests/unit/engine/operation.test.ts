@@ -3,45 +3,17 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { assess } from '../../../shared/engine/assess'
-import { buildScheme, flowState, type Conditions } from '../../../shared/engine/scheme'
-import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
+import { buildScheme, flowState } from '../../../shared/engine/scheme'
+import { monthConditions } from '../../../shared/engine/runBasis'
+import { num, operatingInputArb } from './arbitraries'
 import { draft, parse, yearOfDays } from './fixtures'
 
-const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true })
-
-/** A random site and option in the schema's bounds, in either operating mode. */
-const inputArb: fc.Arbitrary<AssessInput> = fc.record({
-  grossHead: num(0.3, 5),
-  units: fc.integer({ min: 1, max: 5 }),
-  throat: num(0.2, 1.2),
-  widen: num(1, 2.5),
-  depth: num(0, 4),
-  drawdown: fc.oneof(num(0, 0.5), fc.constant(0.05)),
-  mode: fc.constantFrom('energy-first', 'river-first'),
-  rated: fc.oneof(fc.constant(null), num(0.5, 100)),
-  cutIn: num(0, 0.5),
-  o2: fc.array(num(3, 13), { minLength: 12, maxLength: 12 }),
-  temps: fc.array(num(1, 25), { minLength: 12, maxLength: 12 }),
-  constriction: fc.constantFrom('venturi', 'short-nozzle', 'sharp-plate'),
-  quality: fc.constantFrom('clean', 'moderately-polluted'),
-}).map((r) => {
-  const d: AssessInputDraft = draft()
-  d.site = { ...d.site, grossHead_m: r.grossHead, waterQuality: r.quality, months: r.temps.map((t, i) => ({ temperature_C: t, upstreamOxygen_mgL: r.o2[i]! })) }
-  d.option = {
-    ...d.option, units: r.units, throatDiameter_m: r.throat, outletDiameter_m: r.throat * r.widen, throatDepth_m: r.depth, constriction: r.constriction,
-    operation: { mode: r.mode, allowedDrawdown_m: r.drawdown },
-    turbine: { ratedPower_kW: r.rated, cutInFraction: r.cutIn },
-  }
-  return AssessInputSchema.parse(d)
-})
-
 const flowsArb = fc.array(num(0, 80), { minLength: 1, maxLength: 25 })
-const monthsOf = (i: AssessInput): Conditions[] => i.site.months.map((m, k) => ({ month: k + 1, tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
 
 describe('operating rule: properties over random inputs', () => {
   it('no unit runs without drawing air and making power, and the head pool is never drawn past its allowance', () => {
-    fc.assert(fc.property(inputArb, flowsArb, num(0, 3), (input, flows, reserved) => {
-      const months = monthsOf(input)
+    fc.assert(fc.property(operatingInputArb, flowsArb, num(0, 3), (input, flows, reserved) => {
+      const months = monthConditions(input)
       const s = buildScheme(input, reserved, months[0]!)
       flows.forEach((q, i) => {
         const f = flowState(s, q, months[i % 12]!)
@@ -63,8 +35,8 @@ describe('operating rule: properties over random inputs', () => {
   }, 60_000)
 
   it('the reserved flow and the spill always fall the full gross head', () => {
-    fc.assert(fc.property(inputArb, flowsArb, (input, flows) => {
-      const months = monthsOf(input)
+    fc.assert(fc.property(operatingInputArb, flowsArb, (input, flows) => {
+      const months = monthConditions(input)
       const s = buildScheme(input, 0.5, months[0]!)
       for (const q of flows) {
         const f = flowState(s, q, months[6]!)
@@ -75,8 +47,8 @@ describe('operating rule: properties over random inputs', () => {
   }, 60_000)
 
   it('river first never leaves less oxygen below the weir than energy first, at any flow and month', () => {
-    fc.assert(fc.property(inputArb, flowsArb, (input, flows) => {
-      const months = monthsOf(input)
+    fc.assert(fc.property(operatingInputArb, flowsArb, (input, flows) => {
+      const months = monthConditions(input)
       const withMode = (mode: 'energy-first' | 'river-first') => buildScheme({ ...input, option: { ...input.option, operation: { ...input.option.operation, mode } } }, 0.5, months[0]!)
       const energy = withMode('energy-first')
       const river = withMode('river-first')
@@ -93,11 +65,11 @@ describe('operating rule: properties over random inputs', () => {
   }, 60_000)
 
   it('with water enough for every unit, more head never stops a unit that ran at less head', () => {
-    fc.assert(fc.property(inputArb, num(0.3, 4), num(0.01, 2), (input, h1, more) => {
+    fc.assert(fc.property(operatingInputArb, num(0.3, 4), num(0.01, 2), (input, h1, more) => {
       const h2 = h1 + more
       const at = (H: number) => {
         const i = { ...input, site: { ...input.site, grossHead_m: H }, option: { ...input.option, operation: { ...input.option.operation, mode: 'energy-first' as const } } }
-        const months = monthsOf(i)
+        const months = monthConditions(i)
         return flowState(buildScheme(i, 0, months[0]!), 1e5, months[0]!)
       }
       // suction rises with head (ENGINE.md §2 monotonicity), so a unit that drew air at less head still does
@@ -115,7 +87,7 @@ describe('operating rule: a suction within rounding of zero', () => {
     d.site = { ...d.site, grossHead_m: 0.9846486150076431, months: d.site.months.map((m) => ({ ...m, temperature_C: 1, upstreamOxygen_mgL: 3 })) }
     d.option = { ...d.option, units: 1, constriction: 'short-nozzle', throatDiameter_m: 0.2, outletDiameter_m: 0.20000000000000032, throatDepth_m: 0, turbine: { ratedPower_kW: 0.5, cutInFraction: 0 } }
     const i = parse(d)
-    const c = monthsOf(i)[0]!
+    const c = monthConditions(i)[0]!
     const f = flowState(buildScheme(i, 0, c), 1e5, c)
     // suction head at the throat (ENGINE.md §2): no depth and no recovery leave none to draw air with
     expect(f.unitsRunning).toBe(0)

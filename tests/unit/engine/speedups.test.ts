@@ -20,6 +20,7 @@ import { annualEnergyFromFdc } from '../../../shared/engine/energy'
 import { exceedanceGrid, fdcFromPoints, fdcFromRecord, flowAtExceedance, monthlyFdcs, readRecord, recordCurves, sortFlows, type DailyFlow } from '../../../shared/engine/hydrology'
 import { rememberRecent } from '../../../shared/engine/memo'
 import { buildScheme, flowState, powerSample, powerState, type Conditions, type OxygenState, type PowerState, type Scheme } from '../../../shared/engine/scheme'
+import { monthConditions } from '../../../shared/engine/runBasis'
 import { oxygenState } from '../../../shared/engine/schemeOxygen'
 import { NET_LOSS_TOLERANCE_mgL } from '../../../shared/engine/flags'
 import { operate, type Candidate, type ShutReason } from '../../../shared/engine/operation'
@@ -198,14 +199,10 @@ const inputArb: fc.Arbitrary<AssessInput> = fc.record({
 const flowsArb = fc.array(fc.oneof(num(0, 120), fc.constantFrom(0, 1, 1, 5, 20, 60, 200)), { minLength: 1, maxLength: 30 })
   .chain((qs) => fc.shuffledSubarray(qs).map((again) => [...qs, ...qs.slice(0, 3), ...again]))
 
-function conditionsOf(input: AssessInput): Conditions[] {
-  return input.site.months.map((m, k) => ({ month: k + 1, tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
-}
-
 describe('the scheme kernel against a direct evaluation', () => {
   it('gives the same power state, field by field and in the same order, at every flow and temperature', () => {
     fc.assert(fc.property(inputArb, flowsArb, num(0, 5), (input, flows, reserved) => {
-      const months = conditionsOf(input)
+      const months = monthConditions(input)
       const s = buildScheme(input, reserved, months[0]!)
       flows.forEach((q, i) => {
         // alternate the temperature every other flow, so the per-temperature records are switched between
@@ -224,7 +221,7 @@ describe('the scheme kernel against a direct evaluation', () => {
 
   it('sizes an unrated unit at the design point as a direct air-path evaluation does', () => {
     fc.assert(fc.property(inputArb, (input) => {
-      const design = conditionsOf(input)[3]!
+      const design = monthConditions(input)[3]!
       const s = buildScheme(input, 0.5, design)
       const H = input.site.grossHead_m
       const expected = input.option.turbine.ratedPower_kW === null
@@ -237,7 +234,7 @@ describe('the scheme kernel against a direct evaluation', () => {
 
   it('gives the same oxygen state', () => {
     fc.assert(fc.property(inputArb, flowsArb, (input, flows) => {
-      const months = conditionsOf(input)
+      const months = monthConditions(input)
       const s = buildScheme(input, 0.8, months[0]!)
       flows.forEach((q, i) => {
         const c = months[i % months.length]!
