@@ -6,9 +6,8 @@ import { defaultsUsed } from './defaultsUsed'
 import { exceedanceGrid, fdcStats, flowAtExceedance } from './hydrology'
 import { yearByYear } from './recordYears'
 import { runBasis, type RunBasis } from './runBasis'
-import { moneySummary } from './money'
 import { monteCarlo } from './monteCarlo'
-import { buildScheme, designFlow, flowState, powerState, riverFirstState, type FlowState, type Scheme } from './scheme'
+import { buildScheme, flowState, powerState, riverFirstState, schemeMoney, type FlowState, type Scheme } from './scheme'
 import { buildFlags, moneyFlag, withMoneyAtP50 } from './flags'
 import type { AssessResult, MethodsComparison, ModeFigures, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { recoveredFraction, throatAreaRatio } from './venturi'
@@ -147,10 +146,7 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
   const slfState = monthStates[slf.month - 1] ?? flowState(s, slf.flow_m3s, monthCond[slf.month - 1] ?? annual)
 
   // Civils are priced on the design flow: every unit running full at the gross head.
-  const money = moneySummary({
-    ...o.costs, rating_W, designFlow_m3s: designFlow(s), annualEnergy_MWh: energy.annualEnergy_MWh,
-    opexFraction: st.opexFraction, discountRate: st.discountRate, life_yr: st.life_yr, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
-  })
+  const money = schemeMoney(s, energy.annualEnergy_MWh)
 
   const flags = [...buildFlags({ s, year, energy, grid }), moneyFlag(money, st.exportPrice)]
   const worstCav = year.worstCavitation

@@ -4,12 +4,11 @@
 // month table's oxygen) from the same hydrology (runBasis.ts), so a draw costs a year's energy, not a
 // whole assessment. The same seed always gives the same draws.
 import type { AssessInput } from '../schemas/assess'
-import { annualOpex, capex, lcoe, npv } from './money'
 import { atExceedance } from './recordYears'
 import { LEVERS, type LeverKey } from './levers'
 import { drawFrom, seededRandom, type Spread } from './random'
 import { runBasis, type RunBasis } from './runBasis'
-import { buildScheme, designFlow, flowState } from './scheme'
+import { buildScheme, flowState, schemeMoney } from './scheme'
 import { yearEnergy } from './year'
 
 /** The inputs the Monte Carlo draws. */
@@ -131,14 +130,11 @@ function runDraw(input: AssessInput, b: RunBasis): DrawFigures {
     const g = flowState(s, (b.flows[m] as { flow: number }).flow, b.monthCond[m] ?? b.annual).oxygen.netGain_mgL
     if (g < worst) worst = g
   }
-  const st = input.settings
-  const o = input.option
-  const c = capex(o.costs, s.ratedPerUnit_W * o.units, designFlow(s))
-  const op = annualOpex(c, st.opexFraction)
+  const money = schemeMoney(s, e)
   return {
     energy_MWh: e,
-    lcoe: lcoe(c, op, e, st.discountRate, st.life_yr),
-    npv: npv(c, op, e, st.exportPrice, st.discountRate, st.life_yr),
+    lcoe: money.lcoe,
+    npv: money.npv,
     worstMonthNetGain_mgL: Number.isFinite(worst) ? worst : 0,
   }
 }

@@ -4,6 +4,7 @@ import type { AssessInput } from '../schemas/assess'
 import { isaPressure } from './atmosphere'
 import { G } from './constants'
 import type { TurbineState } from './airPath'
+import { moneySummary, type MoneySummary } from './money'
 import { diffuserLength } from './oxygen'
 import { NET_LOSS_TOLERANCE_mgL } from './flags'
 import type { Regime, ShutReason } from './operation'
@@ -119,8 +120,18 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
 }
 
 /** The scheme's design flow: every unit at its capacity at the site's gross head, m³/s (what its civil works are priced on). */
-export function designFlow(s: Scheme): number {
+function designFlow(s: Scheme): number {
   return s.input.option.units * unitCapacity(s.input.site.grossHead_m, s.geometry)
+}
+
+/** The scheme's money at an annual energy: its costs on its rating and design flow, at the input's money settings (money.ts). */
+export function schemeMoney(s: Scheme, annualEnergy_MWh: number): MoneySummary {
+  const o = s.input.option
+  const st = s.input.settings
+  return moneySummary({
+    ...o.costs, rating_W: s.ratedPerUnit_W * o.units, designFlow_m3s: designFlow(s), annualEnergy_MWh,
+    opexFraction: st.opexFraction, discountRate: st.discountRate, life_yr: st.life_yr, exportPrice: st.exportPrice, gridFactor: st.gridFactor,
+  })
 }
 
 /**

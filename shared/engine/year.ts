@@ -96,10 +96,7 @@ export function yearEnergy(input: AssessInput, h: SiteHydrology, s: Scheme, mont
   const power: PowerAt = tabulatedPower(stateAt, range.min, range.max)
   const rating_W = s.ratedPerUnit_W * input.option.units
   const availability = input.settings.availability
-  if (h.record) {
-    const e = annualEnergyFromSample(h.record.sample, power, { rating_W, availability, memoise: false })
-    return { ...e, byYear: e.byYear }
-  }
+  if (h.record) return annualEnergyFromSample(h.record.sample, power, { rating_W, availability, memoise: false })
   const energyByMonth_MWh = curves.map((c, k) => {
     const flows = gridFlows(c.curve, ENERGY_GRID_CELLS)
     let sum = 0
