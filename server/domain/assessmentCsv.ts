@@ -29,6 +29,9 @@ const PER_FLOW: Column<PerFlowRow>[] = [
   ['Downstream oxygen with scheme (mg/L)', (r) => r.downstreamOxygenWith_mgL],
   ['Net oxygen gain (mg/L)', (r) => r.netOxygenGain_mgL],
   ['Unit total dissolved gas (fraction of saturation)', (r) => r.unitTotalDissolvedGas],
+  ['Tail depth (m)', (r) => r.tailDepth_m ?? null],
+  ['Throat depth below tail (m)', (r) => r.throatDepth_m ?? null],
+  ['Weir drowned (-)', (r) => (r.weirDrowned === undefined ? null : r.weirDrowned ? 'drowned' : 'free')],
 ]
 
 const MONTHS: Column<MonthRow>[] = [

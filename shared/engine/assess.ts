@@ -27,6 +27,7 @@ function perFlowRow(exceedance: number, f: FlowState): PerFlowRow {
     waterToWire: f.waterToWire, downstreamOxygenWithout_mgL: f.oxygen.withoutScheme_mgL,
     downstreamOxygenWith_mgL: f.oxygen.withScheme_mgL, netOxygenGain_mgL: f.oxygen.netGain_mgL,
     unitTotalDissolvedGas: f.oxygen.unitTdg, unitGasExcess_mmHg: f.oxygen.unitGasExcess_mmHg, mixedTotalDissolvedGas: f.oxygen.mixedTdg,
+    throatDepth_m: f.throatDepth_m, tailDepth_m: f.tailDepth_m, weirDrowned: f.oxygen.weirDrowned,
   }
 }
 
@@ -45,7 +46,7 @@ interface YearRun {
  * would cost the river.
  */
 function runYear(input: AssessInput, b: RunBasis, energyFirst?: YearRun): YearRun {
-  const s = buildScheme(input, b.reserved, b.annual)
+  const s = buildScheme(input, b.reserved, b.annual, flowAtExceedance(b.h.fdc, 50))
   const energy = yearEnergy(input, b.h, s, b.monthCond, b.curves)
   const states = yearStates(s, b.monthCond, b.curves, energyFirst?.states)
   const year = judgeYear(s, b.curves, states)

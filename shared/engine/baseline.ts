@@ -17,7 +17,7 @@ import { oxygenSaturation } from './oxygenSaturation'
 import type { AssessResult, BaselineLine, BaselineResult } from './results'
 import type { Conditions } from './scheme'
 import { weirDeficitRatio } from './schemeOxygen'
-import { headAtFlow, type HeadPoint } from './venturi'
+import { grossHeadAt, siteHeads, type SiteHeads } from './siteHeads'
 import { waterDensity } from './water'
 import type { MonthCurve, SiteHydrology, YearStates } from './year'
 
@@ -30,9 +30,8 @@ export interface BaselineUnit {
   headLossFraction: number
   generatorEfficiency: number
   reserved_m3s: number
-  /** The site's head table, sorted by flow once. */
-  heads: readonly HeadPoint[]
-  grossHead_m: number
+  /** Where the site's heads come from (the weir's hydraulics or the head table), as the scheme reads them. */
+  heads: SiteHeads
   /** Electrical rating: full-load power at the design flow, the most head the site gives and 4 °C water, W. */
   rating_W: number
 }
@@ -57,16 +56,18 @@ export function defaultDesignFlow(h: SiteHydrology, reserved_m3s: number): numbe
 /** Resolve the option's baseline at a site: curve, design flow (given, or the default rule), rating. */
 export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s: number): BaselineUnit {
   const b = input.option.baseline
-  const heads = [...input.site.headTable].sort((a, c) => a.flow_m3s - c.flow_m3s)
+  const heads = siteHeads(input.site)
   const designFlow = b.designFlow_m3s ?? defaultDesignFlow(h, reserved_m3s)
   const curve = EFFICIENCY_CURVES[b.kind]
   const unit: BaselineUnit = {
     kind: b.kind, curve, designFlow_m3s: designFlow, designFlowFromRule: b.designFlow_m3s === null,
-    headLossFraction: b.headLossFraction, generatorEfficiency: b.generatorEfficiency, reserved_m3s, heads,
-    grossHead_m: input.site.grossHead_m, rating_W: 0,
+    headLossFraction: b.headLossFraction, generatorEfficiency: b.generatorEfficiency, reserved_m3s, heads, rating_W: 0,
   }
   // Rated at full load at the most head the site gives and 4 °C water (the densest): no flow or month passes it.
-  const H_max = Math.max(input.site.grossHead_m, ...heads.map((p) => p.head_m))
+  // With the weir's hydraulics the head varies smoothly with flow: the most it gives over the site's flow curve.
+  const H_max = heads.hydraulics === null
+    ? Math.max(input.site.grossHead_m, ...heads.table.map((p) => p.head_m))
+    : Math.max(...Array.from({ length: 101 }, (_, p) => grossHeadAt(heads, flowAtExceedance(h.fdc, p))))
   const eta = partLoadEfficiency(curve, 1)
   unit.rating_W = eta * waterDensity(4) * G * designFlow * H_max * (1 - b.headLossFraction) * b.generatorEfficiency
   return unit
@@ -79,7 +80,7 @@ export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s:
 export function baselineFlow(u: BaselineUnit, river_m3s: number, tC: number): BaselineFlow {
   const river = Math.max(0, river_m3s)
   const take = Math.max(0, river - u.reserved_m3s)
-  const H = headAtFlow(u.heads, river, u.grossHead_m)
+  const H = grossHeadAt(u.heads, river)
   const netHead = H * (1 - u.headLossFraction)
   const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
   const eta = q > 0 ? partLoadEfficiency(u.curve, q / u.designFlow_m3s) : 0
@@ -94,7 +95,7 @@ function baselinePower(u: BaselineUnit, river_m3s: number, rho: number): number 
   const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
   const eta = q > 0 ? partLoadEfficiency(u.curve, q / u.designFlow_m3s) : 0
   if (!(eta > 0)) return 0
-  const netHead = headAtFlow(u.heads, river, u.grossHead_m) * (1 - u.headLossFraction)
+  const netHead = grossHeadAt(u.heads, river) * (1 - u.headLossFraction)
   return eta * rho * G * q * netHead * u.generatorEfficiency
 }
 
@@ -122,7 +123,7 @@ export function baselineOxygen(site: AssessInput['site'], p_atm: number, f: Base
   const without = without_mgL ?? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(site, f.riverFlow_m3s, f.grossHead_m, c.tC))
   if (!(f.unitFlow_m3s > 0)) return { without_mgL: without, weirStream_mgL: without, with_mgL: without, netGain_mgL: 0 }
   const overWeir = f.riverFlow_m3s - f.unitFlow_m3s
-  const weirStream = overWeir > 0 ? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(site, overWeir, f.grossHead_m, c.tC)) : c.upstreamO2_mgL
+  const weirStream = overWeir > 0 ? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, weirDeficitRatio(site, overWeir, f.grossHead_m, c.tC, f.riverFlow_m3s)) : c.upstreamO2_mgL
   const withUnit = mixTwoStreams(f.unitFlow_m3s, c.upstreamO2_mgL, overWeir, weirStream, c.upstreamO2_mgL)
   return { without_mgL: without, weirStream_mgL: weirStream, with_mgL: withUnit, netGain_mgL: withUnit - without }
 }
@@ -205,7 +206,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
 
   const givenUp = e - ctx.venturi.annualEnergy_MWh
   const oxygenGained = ctx.venturi.meanNetGain_mgL - meanGain
-  const designHead = headAtFlow(u.heads, u.designFlow_m3s + u.reserved_m3s, u.grossHead_m)
+  const designHead = grossHeadAt(u.heads, u.designFlow_m3s + u.reserved_m3s)
   return {
     kind: b.kind,
     kindLabel: BASELINE_KIND_LABEL[b.kind],

@@ -34,7 +34,11 @@ const LIST: Lever[] = [
     key: 'grossHead', label: 'Gross head', unit: 'm', get: (i) => i.site.grossHead_m,
     set: (i, v) => {
       const f = i.site.grossHead_m > 0 ? v / i.site.grossHead_m : 1
-      return { ...i, site: { ...i.site, grossHead_m: v, headTable: i.site.headTable.map((p) => ({ ...p, head_m: p.head_m * f })) } }
+      // With the weir's hydraulics the head comes from the crest: it is raised (or lowered) by the same change,
+      // so the head at every flow moves by that much until the tail drowns the crest.
+      const h = i.site.hydraulics
+      const hydraulics = h ? { ...h, crestHeight_m: Math.max(0, h.crestHeight_m + (v - i.site.grossHead_m)) } : h
+      return { ...i, site: { ...i.site, grossHead_m: v, headTable: i.site.headTable.map((p) => ({ ...p, head_m: p.head_m * f })), hydraulics } }
     },
   },
   {

@@ -71,6 +71,12 @@ export interface PerFlowRow {
   unitGasExcess_mmHg: number
   /** Total dissolved gas below the weir after full mixing, fraction. */
   mixedTotalDissolvedGas: number
+  /** Throat depth below the tail surface at this flow, m (moves with the tail when heads come from the weir's hydraulics); absent from results stored before it. */
+  throatDepth_m?: number
+  /** Tail depth over the tail-pool bed by the weir's hydraulics, m; null with the head table; absent from results stored before it. */
+  tailDepth_m?: number | null
+  /** The weir is drowned at this flow (its aeration is a submerged sluice's); absent from results stored before it. */
+  weirDrowned?: boolean
 }
 
 /** One row of the month table. */

@@ -11,6 +11,7 @@ import type { Regime, ShutReason } from './operation'
 import { evaluate, unitPoint, waterAt, type RiverCheck } from './schemeKernel'
 import { oxygenState, riverTestOxygen } from './schemeOxygen'
 import { constrictionDefaults, unitCapacity, type UnitGeometry } from './venturi'
+import { grossHeadAt, siteHeads, tailDepthAt, type SiteHeads } from './siteHeads'
 
 /** Water conditions at one moment: calendar month, temperature and upstream oxygen. */
 export interface Conditions {
@@ -30,6 +31,15 @@ export interface Scheme {
   /** Electrical rating of one unit, W. */
   readonly ratedPerUnit_W: number
   readonly ratingSizedToDesign: boolean
+  /** Where the site's heads come from: the weir's hydraulics or the head table (siteHeads.ts). */
+  readonly heads: SiteHeads
+  /**
+   * With the weir's hydraulics, the tail depth at the median river flow, m: the option's throat depth is its depth
+   * below the tail there, and deeper or shallower as the tail moves. Null: the throat depth holds at every flow.
+   */
+  readonly medianTail_m: number | null
+  /** Gross head the units are rated and priced at: the site's gross head, or by the hydraulics at the median flow, m. */
+  readonly designHead_m: number
 }
 
 /** Power-side state of the units at one river flow. */
@@ -43,6 +53,10 @@ export interface PowerState {
   unitFlow_m3s: number
   spill_m3s: number
   reserved_m3s: number
+  /** Depth of the throat below the tail surface at this flow, m (the option's, or moved with the tail by the weir's hydraulics). */
+  throatDepth_m: number
+  /** Tail depth over the tail-pool bed by the weir's hydraulics, m; null when heads come from the head table. */
+  tailDepth_m: number | null
   workingHead_m: number
   throatVelocity_ms: number
   /** Suction head with the air valve shut (the vacuum the throat could hold), m. */
@@ -73,6 +87,8 @@ export interface OxygenState {
   weirModel: 'butts-evans' | 'avery-novak' | 'measured'
   /** What the chosen weir figure stands on (e.g. a drowned weir taken as a submerged sluice). */
   weirModelNote: string
+  /** The weir is drowned at this flow (tail above crest): its aeration is that of a submerged sluice. */
+  weirDrowned: boolean
   /** The water still falling over the weir with the scheme, after its fall. */
   weirStream_mgL: number
   unitFieldTransfer_mgL: number
@@ -96,8 +112,11 @@ export interface FlowState extends PowerState {
   oxygen: OxygenState
 }
 
-/** Resolve geometry, atmosphere, reserved flow and the unit rating of an input. */
-export function buildScheme(input: AssessInput, reserved_m3s: number, design: Conditions): Scheme {
+/**
+ * Resolve geometry, atmosphere, reserved flow, heads and the unit rating of an input. `medianFlow_m3s`, the
+ * median river flow, sets where the option's throat depth is read when heads come from the weir's hydraulics.
+ */
+export function buildScheme(input: AssessInput, reserved_m3s: number, design: Conditions, medianFlow_m3s: number | null = null): Scheme {
   const o = input.option
   const base = constrictionDefaults(o.constriction)
   const geometry: UnitGeometry = {
@@ -107,13 +126,18 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
     diffuserEfficiency: o.diffuserEfficiency ?? base.diffuserEfficiency,
     flowCoefficient: o.flowCoefficient ?? base.flowCoefficient,
   }
+  const heads = siteHeads(input.site)
+  const median = heads.hydraulics !== null ? medianFlow_m3s : null
   const partial: Scheme = {
+    heads,
+    medianTail_m: median !== null ? tailDepthAt(heads, median) : null,
+    designHead_m: median !== null ? grossHeadAt(heads, median) : input.site.grossHead_m,
     input, geometry, p_atm: isaPressure(input.site.altitude_m), reserved_m3s,
     diffuserLength_m: o.diffuserLength_m ?? diffuserLength(o.throatDiameter_m, o.outletDiameter_m, input.settings.diffuserHalfAngle_deg),
     ratedPerUnit_W: 0, ratingSizedToDesign: o.turbine.ratedPower_kW === null,
   }
   if (o.turbine.ratedPower_kW !== null) return { ...partial, ratedPerUnit_W: o.turbine.ratedPower_kW * 1000 }
-  const H = input.site.grossHead_m
+  const H = partial.designHead_m
   const q = unitCapacity(H, geometry)
   const p = unitPoint(waterAt(partial, design.tC, null), q, H, partial)
   return { ...partial, ratedPerUnit_W: p.air.availableElectricalPower_W }
@@ -121,7 +145,7 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
 
 /** The scheme's design flow: every unit at its capacity at the site's gross head, m³/s (what its civil works are priced on). */
 function designFlow(s: Scheme): number {
-  return s.input.option.units * unitCapacity(s.input.site.grossHead_m, s.geometry)
+  return s.input.option.units * unitCapacity(s.designHead_m, s.geometry)
 }
 
 /** The scheme's money at an annual energy: its costs on its rating and design flow, at the input's money settings (money.ts). */
@@ -147,6 +171,7 @@ function riverCheckOf(s: Scheme, c: Conditions): RiverCheck | null {
     const ps: PowerState = {
       riverFlow_m3s: river, grossHead_m: H, regime: cand.regime, shutReason: null, unitsRunning: n,
       unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: Math.min(river, s.reserved_m3s),
+      throatDepth_m: p.throatDepth_m, tailDepth_m: tailDepthAt(s.heads, river),
       workingHead_m: p.workingHead_m, throatVelocity_ms: p.throatVelocity_ms, suction_m: p.suction_m,
       operatingSuction_m: p.air.pumpPressure_Pa / (w.rho * G),
       cavitationMargin_m: p.cavitationMargin_m, cavitationIndex: p.cavitationIndex,
@@ -176,11 +201,12 @@ export function riverFirstState(s: Scheme, energyFirst: FlowState, c: Conditions
 
 /** Split, hydraulics and air path of all units at one river flow, under the option's operating rule. */
 export function powerState(s: Scheme, flow_m3s: number, c: Conditions): PowerState {
-  const { river, H, split, point: p, w } = evaluate(s, flow_m3s, c, riverCheckOf(s, c))
+  const { river, H, d, tail, split, point: p, w } = evaluate(s, flow_m3s, c, riverCheckOf(s, c))
   const n = split.unitsRunning
   return {
     riverFlow_m3s: river, grossHead_m: H, regime: split.regime, shutReason: split.shutReason, unitsRunning: n,
     unitFlow_m3s: split.unitFlow_m3s, spill_m3s: split.spill_m3s, reserved_m3s: split.reserved_m3s,
+    throatDepth_m: d, tailDepth_m: tail,
     workingHead_m: n > 0 ? p.workingHead_m : 0,
     throatVelocity_ms: p.throatVelocity_ms,
     suction_m: n > 0 ? p.suction_m : 0,

@@ -7,6 +7,7 @@ import {
   throatVelocity, unitCapacity, vapourSuctionLimit, type HeadPoint,
 } from './venturi'
 import { vapourPressure, waterDensity } from './water'
+import { crestHead, tailDepth, throatDepthAt } from './weirHydraulics'
 import type { Conditions, Scheme } from './scheme'
 
 // An assessment evaluates the units at a few thousand river flows (the energy integral, the summary
@@ -17,8 +18,10 @@ import type { Conditions, Scheme } from './scheme'
 // arguments as a direct evaluation, so the answers are identical to the last bit
 // (tests/unit/engine/speedups.test.ts checks this against a fresh composition).
 
-/** Hydraulics and air path of one running unit at one unit flow and gross head. */
+/** Hydraulics and air path of one running unit at one unit flow, gross head and throat depth. */
 export interface UnitPoint {
+  /** Depth of the throat below the tail surface it was worked out at, m. */
+  throatDepth_m: number
   workingHead_m: number
   throatVelocity_ms: number
   suction_m: number
@@ -35,17 +38,24 @@ export interface WaterAt {
   /** (p_atm − p_v)/ρg, ≥ 0: the shut-off suction cap, and the cavitation margin of stopped units. */
   suctionLimit_m: number
   air: AirPathSetting
-  /** The last unit point, valid for `lastFlow` and `lastHead`: a river above the units' capacity at a fixed head repeats it. */
+  /** The last unit point, valid for `lastFlow`, `lastHead` and `lastDepth`: a river above the units' capacity at a fixed head repeats it. */
   point: UnitPoint
   hasPoint: boolean
   lastFlow: number
   lastHead: number
+  lastDepth: number
+  /** The throat depth `air.dischargePressure_Pa` stands for (it moves with the tail when heads come from the weir's hydraulics). */
+  airDepth_m: number
 }
 
 /** One river flow's split and unit point (scratch, see evaluate). */
 interface Evaluation {
   river: number
   H: number
+  /** Throat depth below the tail surface at this flow, m. */
+  d: number
+  /** Tail depth by the weir's hydraulics, m; null when heads come from the head table. */
+  tail: number | null
   split: FlowSplit
   w: WaterAt
   point: UnitPoint
@@ -68,7 +78,7 @@ interface Kernel {
   /** Filled by evaluate once a flow has been asked (null before). */
   at: Evaluation | null
   /** The flow evaluate is asking about, read by `check` (one check function per scheme, not one per flow). */
-  query: { w: WaterAt | null, river: number, H: number, riverCheck: RiverCheck | null }
+  query: { w: WaterAt | null, river: number, H: number, d: number, riverCheck: RiverCheck | null }
   check: (cand: Candidate) => ShutReason | null
 }
 
@@ -78,20 +88,18 @@ function kernelOf(s: Scheme): Kernel {
   let k = kernels.get(s)
   if (k) return k
   const o = s.input.option
-  // Array sort is stable, so sorting once gives the very order headAtFlow's per-call sort gives.
-  const heads = [...s.input.site.headTable].sort((a, b) => a.flow_m3s - b.flow_m3s)
   const g = s.geometry
   const kk: Kernel = {
-    heads, capHead: 0, cap: 0, hasCap: false,
+    heads: s.heads.table, capHead: 0, cap: 0, hasCap: false,
     level: { riverFlow_m3s: 0, reservedFlow_m3s: s.reserved_m3s, grossHead_m: 0, units: o.units, allowedDrawdown_m: o.operation.allowedDrawdown_m },
     // The full-head capacity is asked once per flow and again by level control: answer it from the kernel's cache.
     curve: { capacityAt: (h) => (kk.hasCap && Object.is(kk.capHead, h) ? kk.cap : unitCapacity(h, g)), headFor: (q) => headForUnitFlow(q, g) },
     closed: new Set(o.operation.closedMonths),
     temps: [], lastTemp: null, at: null,
-    query: { w: null, river: 0, H: 0, riverCheck: null },
+    query: { w: null, river: 0, H: 0, d: o.throatDepth_m, riverCheck: null },
     check: (cand) => {
-      const { w, river, H, riverCheck } = kk.query
-      const p = unitPoint(w as WaterAt, cand.unitFlow_m3s, H, s)
+      const { w, river, H, d, riverCheck } = kk.query
+      const p = unitPoint(w as WaterAt, cand.unitFlow_m3s, H, s, d)
       return unitVerdict(p) ?? (riverCheck ? riverCheck(cand, p, river, H, w as WaterAt) : null)
     },
   }
@@ -119,8 +127,8 @@ export function waterAt(s: Scheme, tC: number, rated: number | null): WaterAt {
   })
   return {
     tC, p_v, rho, suctionLimit_m, air,
-    point: { workingHead_m: 0, throatVelocity_ms: 0, suction_m: 0, cavitationMargin_m: 0, cavitationIndex: null, air: blankAirPoint() },
-    hasPoint: false, lastFlow: 0, lastHead: 0,
+    point: { throatDepth_m: o.throatDepth_m, workingHead_m: 0, throatVelocity_ms: 0, suction_m: 0, cavitationMargin_m: 0, cavitationIndex: null, air: blankAirPoint() },
+    hasPoint: false, lastFlow: 0, lastHead: 0, lastDepth: o.throatDepth_m, airDepth_m: o.throatDepth_m,
   }
 }
 
@@ -137,15 +145,24 @@ function ratedWaterAt(s: Scheme, k: Kernel, tC: number): WaterAt {
   return w
 }
 
-/** Hydraulics and air path of one unit, as unitHydraulics and airOperatingPoint give them; the result is `w.point`, overwritten by the next call. */
-export function unitPoint(w: WaterAt, unitFlow: number, grossHead: number, s: Scheme): UnitPoint {
+/**
+ * Hydraulics and air path of one unit, as unitHydraulics and airOperatingPoint give them, with the throat `d` m
+ * below the tail surface (the option's depth unless the weir's hydraulics move the tail); the result is
+ * `w.point`, overwritten by the next call.
+ */
+export function unitPoint(w: WaterAt, unitFlow: number, grossHead: number, s: Scheme, d: number = s.input.option.throatDepth_m): UnitPoint {
   const pt = w.point
-  if (w.hasPoint && Object.is(w.lastFlow, unitFlow) && Object.is(w.lastHead, grossHead)) return pt
+  if (w.hasPoint && Object.is(w.lastFlow, unitFlow) && Object.is(w.lastHead, grossHead) && Object.is(w.lastDepth, d)) return pt
   const g = s.geometry
-  const d = s.input.option.throatDepth_m
+  if (!Object.is(w.airDepth_m, d)) {
+    // the air leaves with the water at the throat's depth: p_atm + ρg·d, as airPathSetting writes it
+    w.air.dischargePressure_Pa = w.air.p_atm + w.air.rhoG * Math.max(0, d)
+    w.airDepth_m = d
+  }
   const Vt = throatVelocity(unitFlow, g)
   const Hw = unitFlow > 0 ? Math.min(grossHead, headForUnitFlow(unitFlow, g)) : 0
   const suction = unitFlow > 0 ? suctionHead(Hw, d, Vt, g.inletLoss) : -d
+  pt.throatDepth_m = d
   pt.workingHead_m = Hw
   pt.throatVelocity_ms = Vt
   pt.suction_m = suction
@@ -155,6 +172,7 @@ export function unitPoint(w: WaterAt, unitFlow: number, grossHead: number, s: Sc
   w.hasPoint = true
   w.lastFlow = unitFlow
   w.lastHead = grossHead
+  w.lastDepth = d
   return pt
 }
 
@@ -183,7 +201,17 @@ export type RiverCheck = (c: Candidate, p: UnitPoint, river: number, H: number, 
 export function evaluate(s: Scheme, flow_m3s: number, c: Conditions, riverCheck: RiverCheck | null = null): Evaluation {
   const k = kernelOf(s)
   const river = Math.max(0, flow_m3s)
-  const H = headAtFlow(k.heads, river, s.input.site.grossHead_m)
+  const hyd = s.heads.hydraulics
+  let H: number
+  let d = s.input.option.throatDepth_m
+  let tail: number | null = null
+  if (hyd === null) H = headAtFlow(k.heads, river, s.input.site.grossHead_m)
+  else {
+    // heads from the weir's hydraulics (weirHydraulics.ts); siteHeads.grossHeadAt gives the same figure
+    tail = tailDepth(hyd, river)
+    H = Math.max(0, hyd.crestHeight_m + crestHead(hyd, river) - tail)
+    if (s.medianTail_m !== null) d = throatDepthAt(d, tail, s.medianTail_m)
+  }
   if (!k.hasCap || !Object.is(k.capHead, H)) {
     k.cap = unitCapacity(H, s.geometry)
     k.capHead = H
@@ -196,13 +224,16 @@ export function evaluate(s: Scheme, flow_m3s: number, c: Conditions, riverCheck:
   q.w = w
   q.river = river
   q.H = H
+  q.d = d
   q.riverCheck = riverCheck
   const split = operate(k.level, k.curve, k.closed.has(c.month), k.check)
-  const point = unitPoint(w, split.unitFlow_m3s, H, s)
+  const point = unitPoint(w, split.unitFlow_m3s, H, s, d)
   const at = k.at
-  if (at === null) return (k.at = { river, H, split, w, point })
+  if (at === null) return (k.at = { river, H, d, tail, split, w, point })
   at.river = river
   at.H = H
+  at.d = d
+  at.tail = tail
   at.split = split
   at.w = w
   at.point = point

@@ -10,6 +10,7 @@ import { waterDensity } from './water'
 import { crestDischargePerMetre, crestFormOf, headOverCrest, WEIR_DISCHARGE_COEFFICIENT, weirAerationModels, type WeirAerationModels } from './weirAeration'
 import type { AssessInput } from '../schemas/assess'
 import type { Conditions, OxygenState, PowerState, Scheme } from './scheme'
+import { siteHeads, tailDepthAt } from './siteHeads'
 
 type Site = AssessInput['site']
 
@@ -21,6 +22,7 @@ interface UnitSide {
   airMass: number
   air: number
   suction: number
+  depth: number
   field: TransferResult
   bubble: BubbleTransferResult
 }
@@ -35,9 +37,10 @@ function unitSide(s: Scheme, ps: PowerState, c: Conditions, n2In: number): UnitS
   const air = ps.unitsRunning > 0 ? ps.airFlow_m3s / ps.unitsRunning : 0
   const suction = ps.unitsRunning > 0 ? ps.operatingSuction_m : 0
   if (last && Object.is(last.tC, c.tC) && Object.is(last.upstream, c.upstreamO2_mgL) && Object.is(last.unitFlow, ps.unitFlow_m3s)
-    && Object.is(last.airMass, ps.airMassFlowPerUnit_kgs) && Object.is(last.air, air) && Object.is(last.suction, suction)) return last
+    && Object.is(last.airMass, ps.airMassFlowPerUnit_kgs) && Object.is(last.air, air) && Object.is(last.suction, suction)
+    && Object.is(last.depth, ps.throatDepth_m)) return last
   const side: UnitSide = {
-    tC: c.tC, upstream: c.upstreamO2_mgL, unitFlow: ps.unitFlow_m3s, airMass: ps.airMassFlowPerUnit_kgs, air, suction,
+    tC: c.tC, upstream: c.upstreamO2_mgL, unitFlow: ps.unitFlow_m3s, airMass: ps.airMassFlowPerUnit_kgs, air, suction, depth: ps.throatDepth_m,
     field: unitFieldTransfer(s, ps, c),
     bubble: unitBubbles(s, ps, c, air, suction, n2In),
   }
@@ -46,35 +49,38 @@ function unitSide(s: Scheme, ps: PowerState, c: Conditions, n2In: number): UnitS
 }
 
 /**
- * Whether the weir is drowned at this state: the head over the crest needed to pass what goes over it
- * (weir equation, C_d by crest form) reaches past the fall, so the tail stands above the crest
- * (ENGINE.md §13). Needs the crest length; a site without one is taken as free.
+ * Whether the weir is drowned at this state (ENGINE.md §13). With the weir's hydraulics: the tail, which the
+ * whole river sets (what the units pass reaches it too), stands above the crest. Without them: the head over the
+ * crest needed to pass what goes over it (weir equation, C_d by crest form) reaches past the fall, so the tail
+ * stands above the crest. Needs the crest length; a site without one is taken as free.
  */
-function drownedAt(site: Site, overWeir_m3s: number, fall_m: number): boolean {
+function drownedAt(site: Site, overWeir_m3s: number, fall_m: number, river_m3s: number): boolean {
+  const heads = siteHeads(site)
+  if (heads.hydraulics !== null) return (tailDepthAt(heads, river_m3s) as number) > heads.hydraulics.crestHeight_m
   const L = site.crestLength_m
   const form = crestFormOf(site.weirShape)
   if (L === undefined || !(L > 0) || form === null || !(overWeir_m3s > 0)) return false
   return headOverCrest(overWeir_m3s, L, WEIR_DISCHARGE_COEFFICIENT[form].value) > fall_m
 }
 
-/** Deficit ratios of the water falling over the weir (the chosen model, every model, the range). */
-function weirModels(site: Site, overWeir_m3s: number, fall_m: number, tC: number): WeirAerationModels {
+/** Deficit ratios of the water falling over the weir at river flow `river_m3s` (the chosen model, every model, the range). */
+function weirModels(site: Site, overWeir_m3s: number, fall_m: number, tC: number, river_m3s: number = overWeir_m3s): WeirAerationModels {
   const L = site.crestLength_m
   const chosen = site.weirAeration.model === 'avery-novak' && !(L !== undefined && L > 0) ? 'butts-evans' : site.weirAeration.model
   return weirAerationModels({
     fall_m, q_m2s: L !== undefined && L > 0 ? crestDischargePerMetre(overWeir_m3s, L) : 0, tC,
     a: WATER_QUALITY_A[site.waterQuality].value, b: WEIR_SHAPE_B[site.weirShape].value,
-    measured: site.weirAeration.measured, drowned: drownedAt(site, overWeir_m3s, fall_m), chosen,
+    measured: site.weirAeration.measured, drowned: drownedAt(site, overWeir_m3s, fall_m, river_m3s), chosen,
   })
 }
 
 /**
  * Deficit ratio r of `overWeir_m3s` falling `fall_m` over the site's weir at `tC` °C, by the site's
  * chosen weir model (as the scheme's own "without" and weir-stream figures): for the conventional
- * baseline, whose water bypasses the weir.
+ * baseline, whose water bypasses the weir. `river_m3s` sets the tail when heads come from the weir's hydraulics.
  */
-export function weirDeficitRatio(site: Site, overWeir_m3s: number, fall_m: number, tC: number): number {
-  return weirModels(site, overWeir_m3s, fall_m, tC).chosen.r
+export function weirDeficitRatio(site: Site, overWeir_m3s: number, fall_m: number, tC: number, river_m3s: number = overWeir_m3s): number {
+  return weirModels(site, overWeir_m3s, fall_m, tC, river_m3s).chosen.r
 }
 
 /** The oxygen side of one power state that the river-first test needs, and that oxygenState builds on. */
@@ -111,7 +117,7 @@ function riverCore(s: Scheme, ps: PowerState, c: Conditions): RiverCore {
   // control holds the head pool, so both fall the full gross head; a flow-dependent model (Avery &
   // Novak) aerates the smaller overfall differently.
   const alone = weirModels(site, ps.riverFlow_m3s, H, c.tC)
-  const rest = unitsQ > 0 ? weirModels(site, weirQ, H, c.tC) : alone
+  const rest = unitsQ > 0 ? weirModels(site, weirQ, H, c.tC, ps.riverFlow_m3s) : alone
   const without = ps.riverFlow_m3s > 0 ? downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, alone.chosen.r) : c.upstreamO2_mgL
   const weirStream = downstreamFromDeficitRatio(cs, c.upstreamO2_mgL, rest.chosen.r)
   const { field, bubble } = unitSide(s, ps, c, n2Up)
@@ -154,7 +160,7 @@ export function oxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenSta
     : { min_mgL: c.upstreamO2_mgL, max_mgL: c.upstreamO2_mgL }
   return {
     saturation_mgL: cs, upstream_mgL: c.upstreamO2_mgL, withoutScheme_mgL: without, withoutSchemeRange_mgL: range,
-    weirModel: alone.chosen.model, weirModelNote: alone.chosen.note, weirStream_mgL: weirStream,
+    weirModel: alone.chosen.model, weirModelNote: alone.chosen.note, weirDrowned: alone.drowned, weirStream_mgL: weirStream,
     unitFieldTransfer_mgL: r.field.cOut_mgL, unitBubbleModel_mgL: unitBubbleO2,
     withSchemeFieldTransfer_mgL: r.withField, withSchemeBubbleModel_mgL: r.withBubble, withScheme_mgL: r.withScheme,
     netGain_mgL: r.netGain,
@@ -168,7 +174,7 @@ function unitFieldTransfer(s: Scheme, ps: PowerState, c: Conditions): TransferRe
   const st = s.input.settings
   return fieldTransfer({
     cIn_mgL: c.upstreamO2_mgL, tC: c.tC, unitFlow_m3s: ps.unitFlow_m3s, airMassFlow_kgs: ps.airMassFlowPerUnit_kgs,
-    submergence_m: s.input.option.throatDepth_m, sotePerMetre: st.sotePerMetre, inDeviceTransfer: st.inDeviceTransfer,
+    submergence_m: ps.throatDepth_m, sotePerMetre: st.sotePerMetre, inDeviceTransfer: st.inDeviceTransfer,
     alpha: st.alpha, beta: st.beta, theta: st.theta, p_atm: s.p_atm, rho: waterDensity(c.tC), salinity_gkg: s.input.site.salinity_gkg,
   })
 }
@@ -180,12 +186,12 @@ function unitFieldTransfer(s: Scheme, ps: PowerState, c: Conditions): TransferRe
  */
 function unitBubbles(s: Scheme, ps: PowerState, c: Conditions, perUnitAir: number, suction_m: number, n2In: number): BubbleTransferResult {
   const st = s.input.settings
-  const o = s.input.option
+  const d = ps.throatDepth_m
   return bubbleTransfer({
     tC: c.tC, airTemperatureC: c.tC + st.airTemperatureOffset_K, p_atm: s.p_atm, salinity_gkg: s.input.site.salinity_gkg,
     unitFlow_m3s: ps.unitsRunning > 0 ? ps.unitFlow_m3s : 0, airFlow_m3s: perUnitAir,
     // bubbles.ts counts suction below the local hydrostatic pressure: the venturi's vacuum against the atmosphere plus the depth
-    suction_m: o.throatDepth_m + Math.max(0, suction_m), throatDepth_m: o.throatDepth_m, outletDepth_m: o.throatDepth_m,
+    suction_m: d + Math.max(0, suction_m), throatDepth_m: d, outletDepth_m: d,
     throatArea_m2: circleArea(s.geometry.throatDiameter_m), outletArea_m2: circleArea(s.geometry.outletDiameter_m),
     diffuserLength_m: s.diffuserLength_m, o2In_mgL: c.upstreamO2_mgL, n2In_mgL: n2In,
   }, { bubbleDiameter_m: st.bubbleDiameter_m, plumeVelocity_ms: st.plumeVelocity_ms, filmModel: st.filmModel, oxygenDiffusivity20: st.oxygenDiffusivity20 })

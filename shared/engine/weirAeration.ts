@@ -152,6 +152,8 @@ export interface WeirModelResult {
 
 /** Every applicable model, the chosen one, and the spread between them. */
 export interface WeirAerationModels {
+  /** The weir was taken as drowned. */
+  drowned: boolean
   chosen: WeirModelResult
   all: WeirModelResult[]
   rMin: number
@@ -193,7 +195,7 @@ export function weirAerationModels(input: WeirAerationInput): WeirAerationModels
     rMin = Math.min(rMin, m.r)
     rMax = Math.max(rMax, m.r)
   }
-  return { chosen: picked, all, rMin, rMax }
+  return { drowned, chosen: picked, all, rMin, rMax }
 }
 
 /**

@@ -41,6 +41,8 @@ export interface WeirHydraulics {
   tail: TailRating
   /** C_d·L·√(2g), m^1.5/s: the head over the crest is (Q/k)^(2/3). */
   crestConstant: number
+  /** The last tail depth worked out (see tailDepth). */
+  last: { has: boolean, flow: number, depth: number }
 }
 
 /** Manning's equation in SI units for a rectangular section of width B at depth y: Q = (1/n)·A·R^(2/3)·S^(1/2), A = B·y, R = B·y/(B + 2y). */
@@ -150,13 +152,22 @@ export function resolveWeirHydraulics(h: WeirHydraulicsInput, crestLength_m: num
     })
     tail = { kind: 'table', rows: [...h.tail.rows].sort((a, b) => a.flow_m3s - b.flow_m3s) }
   }
-  return { crestLength_m: L, crestHeight_m, dischargeCoefficient: cd, tail, crestConstant: cd.value * L * Math.sqrt(2 * G) }
+  return { crestLength_m: L, crestHeight_m, dischargeCoefficient: cd, tail, crestConstant: cd.value * L * Math.sqrt(2 * G), last: { has: false, flow: 0, depth: 0 } }
 }
 
-/** Depth of water over the tail-pool bed at river flow Q, m (Manning's normal depth, or the table). */
+/**
+ * Depth of water over the tail-pool bed at river flow Q, m (Manning's normal depth, or the table). The last answer
+ * is kept on the resolved hydraulics: an assessment asks the gross head and the throat depth at the same flow in turn.
+ */
 export function tailDepth(h: WeirHydraulics, flow_m3s: number): number {
+  const last = h.last
+  if (last.has && Object.is(last.flow, flow_m3s)) return last.depth
   const t = h.tail
-  return t.kind === 'manning' ? manningDepth(flow_m3s, t.channelWidth_m, t.bedSlope, t.roughnessN) : tableDepth(t.rows, flow_m3s)
+  const y = t.kind === 'manning' ? manningDepth(flow_m3s, t.channelWidth_m, t.bedSlope, t.roughnessN) : tableDepth(t.rows, flow_m3s)
+  last.has = true
+  last.flow = flow_m3s
+  last.depth = y
+  return y
 }
 
 /** Head over the crest for the whole river, h = (Q/(C_d·L·√(2g)))^(2/3), m (the weir equation inverted). */

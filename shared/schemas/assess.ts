@@ -102,6 +102,48 @@ export const WeirAerationInputSchema = z.object({
   }).nullable().default(null),
 }).refine((w) => w.model !== 'measured' || w.measured !== null, { path: ['measured'], message: 'is needed when the weir model is "measured"' })
 
+/** Largest crest height, channel width and tail depth accepted for the weir hydraulics, m. */
+const MAX_HYDRAULIC_LEVEL_M = 30
+
+/** One row of the tail pool's stage–discharge table: river flow and depth over the tail-pool bed. */
+export const TailRowSchema = z.object({
+  flow_m3s: flow,
+  depth_m: nonNegative.max(MAX_HYDRAULIC_LEVEL_M, `must be ${MAX_HYDRAULIC_LEVEL_M} m or less`),
+})
+
+/**
+ * How the tail level follows the river: Manning's equation for a rectangular channel, or a stage–discharge
+ * table (at least 2 rows, by rising flow without repeats, depth never falling).
+ */
+export const TailRatingSchema = z.discriminatedUnion('kind', [
+  z.object({
+    kind: z.literal('manning'),
+    channelWidth_m: positive.max(1000, 'must be 1000 m or less'),
+    bedSlope: num.min(0.00001, 'must be between 0.00001 and 0.1').max(0.1, 'must be between 0.00001 and 0.1'),
+    roughnessN: num.min(0.01, 'must be between 0.01 and 0.2').max(0.2, 'must be between 0.01 and 0.2'),
+  }),
+  z.object({
+    kind: z.literal('table'),
+    rows: z.array(TailRowSchema).min(2, 'needs at least 2 rows').max(50, 'may have 50 rows at most').superRefine((rows, ctx) => {
+      rows.forEach((r, i) => {
+        const prev = rows[i - 1]
+        if (prev && r.flow_m3s <= prev.flow_m3s) ctx.addIssue({ code: 'custom', path: [i, 'flow_m3s'], message: 'rows must be sorted by rising flow, without repeats' })
+        if (prev && r.depth_m < prev.depth_m) ctx.addIssue({ code: 'custom', path: [i, 'depth_m'], message: 'depth must not fall as flow rises' })
+      })
+    }),
+  }),
+], { error: "must be 'manning' or 'table'" })
+
+/**
+ * Heads from the weir's hydraulics (ENGINE.md §13), in place of the head table: crest height above the tail-pool
+ * bed, the weir equation's coefficient (null: the default for the crest form), and the tail rating.
+ */
+export const WeirHydraulicsInputSchema = z.object({
+  crestHeight_m: positive.max(MAX_HYDRAULIC_LEVEL_M, `must be ${MAX_HYDRAULIC_LEVEL_M} m or less`),
+  dischargeCoefficient: num.min(0.1, 'must be between 0.1 and 1').max(1, 'must be between 0.1 and 1').nullable().default(null),
+  tail: TailRatingSchema,
+})
+
 /** The site: head, altitude, water and its months. */
 export const EngineSiteSchema = z.object({
   altitude_m: num.min(-100).max(5000, 'must be 5000 m or less').default(0),
@@ -116,6 +158,8 @@ export const EngineSiteSchema = z.object({
   /** Crest length of the weir, m: the discharge per metre for Avery & Novak and whether the weir drowns. */
   crestLength_m: positive.max(1000, 'must be 1000 m or less').optional(),
   weirAeration: WeirAerationInputSchema.prefault({}),
+  /** Heads from the weir's hydraulics; null (the default) takes them from grossHead_m and the head table. */
+  hydraulics: WeirHydraulicsInputSchema.nullable().default(null),
 })
 
 /** The air pipe of each unit. */

@@ -6,7 +6,7 @@
 import { z } from 'zod'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
 import type { WeirAerationModel } from '../engine/weirAeration'
-import { MAX_FLOW_M3S, areaRatioProblem } from './assess'
+import { MAX_FLOW_M3S, WeirHydraulicsInputSchema, areaRatioProblem } from './assess'
 import { IdSchema, NameSchema } from './common'
 import type { FlowRecordSummary } from './flowRecord'
 import type { Currency } from './organisation'
@@ -84,6 +84,9 @@ export const WeirSchema = z.object({
     /** When and how it was measured, in the user's words. */
     note: z.string({ error: 'must be text' }).max(500, 'is too long (500 characters at most)').default(''),
   }).nullable().optional(),
+
+  /** Heads from the weir's hydraulics (crest height, weir coefficient, tail rating) instead of the head table; null or left out: the head table. */
+  hydraulics: WeirHydraulicsInputSchema.nullable().optional(),
 }).refine((w) => w.aerationModel !== 'measured' || !!w.measuredDeficitRatio, { path: ['measuredDeficitRatio'], message: 'is needed when the aeration model is "measured"' })
 
 /** One row of the gross head against river flow (tailwater rises in floods). */

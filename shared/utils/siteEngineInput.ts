@@ -100,6 +100,8 @@ export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null
           ? { r: site.weir.measuredDeficitRatio.r, tC: site.weir.measuredDeficitRatio.temperature_C, drowned: site.weir.measuredDeficitRatio.drowned }
           : null,
       },
+      // Sites stored before the weir hydraulics came have none: heads from the head table.
+      hydraulics: site.weir.hydraulics ?? null,
     },
     hydrology,
     gaugeScaling,

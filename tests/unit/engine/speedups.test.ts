@@ -28,6 +28,7 @@ import { headAtFlow, headForUnitFlow, unitCapacity, unitHydraulics, type HeadPoi
 import { vapourPressure, waterDensity } from '../../../shared/engine/water'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../../shared/schemas/assess'
 import { draft } from './fixtures'
+import { hydraulicState, resolveWeirHydraulics, throatDepthAt } from '../../../shared/engine/weirHydraulics'
 
 // ——— the direct evaluations the shortcuts must match ———
 
@@ -70,14 +71,14 @@ function directAirPoint(a: AirPathInput): AirOperatingPoint {
 }
 
 /** The unit's air-path input at one unit flow and head, everything evaluated afresh. */
-function airInputAt(s: Scheme, unitFlow: number, head: number, tC: number, rated: number | null): { air: AirPathInput, hyd: ReturnType<typeof unitHydraulics> } {
+function airInputAt(s: Scheme, unitFlow: number, head: number, tC: number, rated: number | null, depth: number = s.input.option.throatDepth_m): { air: AirPathInput, hyd: ReturnType<typeof unitHydraulics> } {
   const o = s.input.option
   const env = { p_atm: s.p_atm, p_v: vapourPressure(tC), rho: waterDensity(tC) }
-  const hyd = unitHydraulics(unitFlow, head, o.throatDepth_m, s.geometry, env)
+  const hyd = unitHydraulics(unitFlow, head, depth, s.geometry, env)
   return {
     hyd,
     air: {
-      suction_m: hyd.suction_m, suctionLimit_m: Math.max(0, (env.p_atm - env.p_v) / (env.rho * G)), dischargeDepth_m: o.throatDepth_m,
+      suction_m: hyd.suction_m, suctionLimit_m: Math.max(0, (env.p_atm - env.p_v) / (env.rho * G)), dischargeDepth_m: depth,
       unitFlow_m3s: unitFlow, workingHead_m: hyd.workingHead_m, waterDensity: env.rho, p_atm: env.p_atm,
       airTemperature_C: tC + s.input.settings.airTemperatureOffset_K, jetPumpEfficiency: o.air.jetPumpEfficiency, maxGasLiquidRatio: o.air.maxGasLiquidRatio,
       pipe: { diameter_m: o.air.pipeDiameter_m, length_m: o.air.pipeLength_m, lossK: o.air.pipeLossK, frictionFactor: o.air.frictionFactor },
@@ -106,14 +107,25 @@ function directHeadAt(table: ReadonlyArray<HeadPoint>, flow: number, fallback: n
   return Math.max(0, last.head_m)
 }
 
+/** Gross head, tail and throat depth at one river flow, from the weir's hydraulics resolved afresh, else the head table. */
+function directHeads(s: Scheme, river: number): { H: number, d: number, tail: number | null } {
+  const site = s.input.site
+  const d0 = s.input.option.throatDepth_m
+  if (!site.hydraulics) return { H: directHeadAt(site.headTable, river, site.grossHead_m), d: d0, tail: null }
+  const st = hydraulicState(resolveWeirHydraulics(site.hydraulics, site.crestLength_m, site.weirShape), river)
+  return { H: st.grossHead_m, d: s.medianTail_m === null ? d0 : throatDepthAt(d0, st.tailDepth_m, s.medianTail_m), tail: st.tailDepth_m }
+}
+
 /** The power state of `n` units at one split, everything evaluated afresh. */
 function directStateOf(s: Scheme, river: number, H: number, c: Conditions, split: { regime: PowerState['regime'], shutReason: ShutReason | null, unitsRunning: number, unitFlow_m3s: number, spill_m3s: number, reserved_m3s: number }): PowerState {
-  const { air: a, hyd } = airInputAt(s, split.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W)
+  const { d, tail } = directHeads(s, river)
+  const { air: a, hyd } = airInputAt(s, split.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W, d)
   const p = directAirPoint(a)
   const n = split.unitsRunning
   return {
     riverFlow_m3s: river, grossHead_m: H, regime: split.regime, shutReason: split.shutReason, unitsRunning: n,
     unitFlow_m3s: split.unitFlow_m3s, spill_m3s: split.spill_m3s, reserved_m3s: split.reserved_m3s,
+    throatDepth_m: d, tailDepth_m: tail,
     workingHead_m: n > 0 ? hyd.workingHead_m : 0, throatVelocity_ms: hyd.throatVelocity_ms, suction_m: n > 0 ? hyd.suction_m : 0,
     operatingSuction_m: n > 0 ? p.pumpPressure_Pa / (waterDensity(c.tC) * G) : 0,
     cavitationMargin_m: n > 0 ? hyd.cavitationMargin_m : Math.max(0, (s.p_atm - vapourPressure(c.tC)) / (waterDensity(c.tC) * G)),
@@ -129,11 +141,11 @@ function directPowerState(s: Scheme, flow: number, c: Conditions): PowerState {
   const o = s.input.option
   const st = s.input.settings
   const river = Math.max(0, flow)
-  const H = directHeadAt(s.input.site.headTable, river, s.input.site.grossHead_m)
+  const { H, d } = directHeads(s, river)
   const curve = { capacityAt: (h: number) => unitCapacity(h, s.geometry), headFor: (q: number) => headForUnitFlow(q, s.geometry) }
   const check = (cand: Candidate): ShutReason | null => {
-    const p = directAirPoint(airInputAt(s, cand.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W).air)
-    const hyd = airInputAt(s, cand.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W).hyd
+    const p = directAirPoint(airInputAt(s, cand.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W, d).air)
+    const hyd = airInputAt(s, cand.unitFlow_m3s, H, c.tC, s.ratedPerUnit_W, d).hyd
     if (!(hyd.suction_m > 1e-9) || !(p.airFlow_m3s > 0)) return 'no-suction' // a suction within rounding of zero draws no air (schemeKernel.ts)
     if ((p.state !== 'running' && p.state !== 'at-rating') || !(p.electricalPower_W > 0)) return 'below-cut-in'
     if (o.operation.mode !== 'river-first') return null
@@ -149,7 +161,7 @@ function directPowerState(s: Scheme, flow: number, c: Conditions): PowerState {
 
 /** The oxygen state worked out afresh: a scheme built anew for each call has nothing remembered from an earlier state. */
 function directOxygenState(s: Scheme, ps: PowerState, c: Conditions): OxygenState {
-  return oxygenState(buildScheme(s.input, s.reserved_m3s, { month: 0, tC: c.tC, upstreamO2_mgL: c.upstreamO2_mgL }), ps, c)
+  return oxygenState(buildScheme({ ...s.input, site: { ...s.input.site } }, s.reserved_m3s, { month: 0, tC: c.tC, upstreamO2_mgL: c.upstreamO2_mgL }), ps, c)
 }
 
 // ——— random inputs ———
@@ -179,10 +191,18 @@ const inputArb: fc.Arbitrary<AssessInput> = fc.record({
   offset: num(-5, 5),
   quality: fc.constantFrom('clean', 'moderately-polluted'),
   weir: fc.constantFrom('sharp-crested-vertical-face', 'flat-broad-crested-regular-step'),
+  // heads from the weir's hydraulics half the time: a Manning tail or a stage–discharge table
+  hydraulics: fc.oneof(
+    fc.constant(null),
+    fc.record({ crestHeight_m: num(0.1, 4), dischargeCoefficient: fc.constant(null), tail: fc.record({ kind: fc.constant('manning' as const), channelWidth_m: num(2, 60), bedSlope: num(0.0001, 0.01), roughnessN: num(0.02, 0.08) }) }),
+    fc.record({ crestHeight_m: num(0.1, 4), dischargeCoefficient: num(0.3, 0.5), tail: fc.constant({ kind: 'table' as const, rows: [{ flow_m3s: 1, depth_m: 0.3 }, { flow_m3s: 20, depth_m: 1.4 }, { flow_m3s: 80, depth_m: 2.9 }] }) }),
+  ),
+  crestLength: num(3, 40),
 }).map((r) => {
   const d: AssessInputDraft = draft()
   d.site = {
     ...d.site, altitude_m: r.altitude, grossHead_m: r.grossHead, headTable: r.headTable, waterQuality: r.quality, weirShape: r.weir,
+    hydraulics: r.hydraulics, crestLength_m: r.crestLength,
     months: r.temps.map((t, i) => ({ temperature_C: t, upstreamOxygen_mgL: r.o2[i]! })),
   }
   d.option = {
@@ -203,7 +223,7 @@ describe('the scheme kernel against a direct evaluation', () => {
   it('gives the same power state, field by field and in the same order, at every flow and temperature', () => {
     fc.assert(fc.property(inputArb, flowsArb, num(0, 5), (input, flows, reserved) => {
       const months = monthConditions(input)
-      const s = buildScheme(input, reserved, months[0]!)
+      const s = buildScheme(input, reserved, months[0]!, 4)
       flows.forEach((q, i) => {
         // alternate the temperature every other flow, so the per-temperature records are switched between
         const c = months[(i >> 1) % months.length]!
@@ -235,7 +255,7 @@ describe('the scheme kernel against a direct evaluation', () => {
   it('gives the same oxygen state', () => {
     fc.assert(fc.property(inputArb, flowsArb, (input, flows) => {
       const months = monthConditions(input)
-      const s = buildScheme(input, 0.8, months[0]!)
+      const s = buildScheme(input, 0.8, months[0]!, 4)
       flows.forEach((q, i) => {
         const c = months[i % months.length]!
         const fs = flowState(s, q, c)
@@ -371,7 +391,7 @@ describe('the second operating mode', () => {
     // than the units at some flows, so the river test refuses there and both branches are walked.
     const biting = fc.tuple(inputArb, num(0.3, 1.2), num(1.5, 4), fc.array(num(3, 9), { minLength: 12, maxLength: 12 })).map(([input, depth, head, o2]) => ({
       ...input,
-      site: { ...input.site, grossHead_m: head, headTable: [], months: input.site.months.map((m, k) => ({ ...m, upstreamOxygen_mgL: o2[k]! })) },
+      site: { ...input.site, grossHead_m: head, headTable: [], hydraulics: null, months: input.site.months.map((m, k) => ({ ...m, upstreamOxygen_mgL: o2[k]! })) },
       option: { ...input.option, throatDepth_m: depth, operation: { ...input.option.operation, closedMonths: [] } },
     }))
     let refused = 0
