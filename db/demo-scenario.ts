@@ -122,7 +122,12 @@ export const DEMO_SITES: readonly DemoSite[] = [
       location: { lat: 54.5604, lng: -2.635 },
       reach: { type: 'LineString', coordinates: [[-2.6361, 54.5609], [-2.6352, 54.5605], [-2.6341, 54.5601]] },
       altitude_m: 141,
-      weir: { grossHead_m: 1.6, crestWidth_m: 22, shape: 'sharp-crested-straight-slope', waterQuality: 'clean' },
+      weir: {
+        grossHead_m: 1.6, crestWidth_m: 22, shape: 'sharp-crested-straight-slope', waterQuality: 'clean',
+        // Heads from the weir's hydraulics: a surveyed crest 1.9 m above the channel bed, and the cobbled channel below it
+        // (14 m wide, 1 in 670, Manning's n 0.04); about 1.6 m of head at the median flow, and the weir drowns above about 34 m³/s.
+        hydraulics: { crestHeight_m: 1.9, dischargeCoefficient: null, tail: { kind: 'manning', channelWidth_m: 14, bedSlope: 0.0015, roughnessN: 0.04 } },
+      },
       headTable: [],
       reservedFlow: { kind: 'fixed', flow: 1.1 },
       months: months(TEMPS, [99, 99, 98, 97, 95, 91, 86, 85, 89, 94, 97, 98], '%sat', { flows: SKELBY_MONTH_FLOWS }),

@@ -6,6 +6,7 @@ import type { WeirAerationModel } from '#shared/engine/weirAeration'
 import type { WaterQualityClass, WeirShapeClass } from '#shared/engine/oxygen'
 import { type CheckIssue, type FormMessages, samePlain } from './formState'
 import { checkHeadRows, headRowsFrom, headTableText, type HeadTableRow } from './headTable'
+import { hydraulicsDraftFrom, hydraulicsFromDraft, tailRowsText, type HydraulicsDraft } from './weirHydraulicsDraft'
 
 /** One month row as the months table edits it. */
 export interface MonthDraft {
@@ -18,8 +19,8 @@ export interface MonthDraft {
   flow_m3s: number | null
 }
 
-/** What the site form's inputs hold. */
-export interface SiteDraft {
+/** What the site form's inputs hold (the weir hydraulics' fields from HydraulicsDraft, utils/weirHydraulicsDraft.ts). */
+export interface SiteDraft extends HydraulicsDraft {
   name: string
   riverName: string
   lat: number | null
@@ -79,6 +80,7 @@ export function blankSiteDraft(): SiteDraft {
     notes: '',
     months: MONTH_NAMES.map(() => ({ ...STARTING_MONTH })),
     headRows: [],
+    ...hydraulicsDraftFrom(null),
   }
 }
 
@@ -117,12 +119,16 @@ export function draftFromSite(site: SiteDto): SiteDraft {
       flow_m3s: m.flow_m3s ?? null,
     })),
     headRows: headRowsFrom(site.headTable),
+    ...hydraulicsDraftFrom(site.weir.hydraulics ?? null),
   }
 }
 
 /** True when two drafts hold the same values (the head rows by their texts, as typed). */
 function sameSiteDraft(a: SiteDraft, b: SiteDraft): boolean {
-  return samePlain({ ...a, headRows: headTableText(a.headRows) }, { ...b, headRows: headTableText(b.headRows) })
+  return samePlain(
+    { ...a, headRows: headTableText(a.headRows), tailRows: tailRowsText(a.tailRows) },
+    { ...b, headRows: headTableText(b.headRows), tailRows: tailRowsText(b.tailRows) },
+  )
 }
 
 /** The months as the API takes them (unchecked). */
@@ -156,6 +162,7 @@ export function overviewFromDraft(d: SiteDraft) {
       waterQuality: d.waterQuality,
       aerationModel: d.aerationModel,
       measuredDeficitRatio: measuredRatioFromDraft(d),
+      hydraulics: hydraulicsFromDraft(d),
     },
     reservedFlow: d.reservedKind === 'fixed' ? { kind: 'fixed' as const, flow: d.reservedFlow } : { kind: 'percentile' as const, exceedance: d.reservedExceedance },
     catchment: bothAreasBlank ? null : { siteArea_km2: d.siteArea_km2, gaugeArea_km2: d.gaugeArea_km2 },

@@ -143,6 +143,7 @@ export const WeirHydraulicsInputSchema = z.object({
   dischargeCoefficient: num.min(0.1, 'must be between 0.1 and 1').max(1, 'must be between 0.1 and 1').nullable().default(null),
   tail: TailRatingSchema,
 })
+export type WeirHydraulicsInput = z.infer<typeof WeirHydraulicsInputSchema>
 
 /** The site: head, altitude, water and its months. */
 export const EngineSiteSchema = z.object({

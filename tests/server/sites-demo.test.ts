@@ -36,5 +36,9 @@ describe('demo sites (npm run db:seed)', () => {
     expect(cragg.body.headTable.length).toBeGreaterThan(0)
     const craggHyd = await client.get(`/api/sites/${list.body.sites[0].id}/hydrology`)
     expect(craggHyd.body.scale.factor).toBeCloseTo(148 / 121, 12)
+
+    // the gauging weir takes its heads from the weir's hydraulics, with a Manning tail
+    const skelby = await client.get(`/api/sites/${list.body.sites[2].id}`)
+    expect(skelby.body.weir.hydraulics).toMatchObject({ crestHeight_m: 1.9, tail: { kind: 'manning', channelWidth_m: 14 } })
   })
 })

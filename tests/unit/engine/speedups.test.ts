@@ -195,7 +195,7 @@ const inputArb: fc.Arbitrary<AssessInput> = fc.record({
   hydraulics: fc.oneof(
     fc.constant(null),
     fc.record({ crestHeight_m: num(0.1, 4), dischargeCoefficient: fc.constant(null), tail: fc.record({ kind: fc.constant('manning' as const), channelWidth_m: num(2, 60), bedSlope: num(0.0001, 0.01), roughnessN: num(0.02, 0.08) }) }),
-    fc.record({ crestHeight_m: num(0.1, 4), dischargeCoefficient: num(0.3, 0.5), tail: fc.constant({ kind: 'table' as const, rows: [{ flow_m3s: 1, depth_m: 0.3 }, { flow_m3s: 20, depth_m: 1.4 }, { flow_m3s: 80, depth_m: 2.9 }] }) }),
+    fc.record({ crestHeight_m: num(0.1, 4), dischargeCoefficient: num(0.3, 0.5), tail: fc.constant<{ kind: 'table', rows: Array<{ flow_m3s: number, depth_m: number }> }>({ kind: 'table', rows: [{ flow_m3s: 1, depth_m: 0.3 }, { flow_m3s: 20, depth_m: 1.4 }, { flow_m3s: 80, depth_m: 2.9 }] }) }),
   ),
   crestLength: num(3, 40),
 }).map((r) => {
