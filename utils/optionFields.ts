@@ -74,7 +74,7 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'design.units', label: 'Number of units', unit: 'units', group: 'geometry', kind: 'number', integer: true },
   { path: 'design.throatDiameter_m', label: 'Throat diameter', unit: 'm', group: 'geometry', kind: 'number' },
   { path: 'design.outletDiameter_m', label: 'Outlet diameter', unit: 'm', group: 'geometry', kind: 'number', hint: 'at least the throat diameter' },
-  { path: 'design.throatDepth_m', label: 'Throat submergence', unit: 'm', group: 'geometry', kind: 'number', hint: 'depth of the throat centreline below the tail-pool surface' },
+  { path: 'design.throatDepth_m', label: 'Throat submergence', unit: 'm', group: 'geometry', kind: 'number', hint: 'depth of the throat centreline below the tail-pool surface; where the site takes its heads from the weir hydraulics, its depth at the median river flow (it moves with the tail at other flows)' },
   { path: 'design.constriction', label: 'Constriction type', unit: '–', group: 'losses', kind: 'select', choices: CONSTRICTIONS },
   { path: 'design.inletLoss', label: 'Inlet loss coefficient k_in', unit: '–', group: 'losses', kind: 'number', defaultOf: fixed(DEFAULTS.inletLoss), hint: 'on the throat velocity head' },
   { path: 'design.diffuserEfficiency', label: 'Diffuser efficiency η_d', unit: 'fraction', group: 'losses', kind: 'number', defaultOf: byConstriction(DIFFUSER_EFFICIENCY), hint: 'share of the ideal pressure recovery' },

@@ -1,3 +1,4 @@
+import { weirHeadsLine } from '../../shared/utils/weirHeads'
 import { storedVerdict, type StoredMoney } from '../../shared/engine/money'
 import { baselineLineOf } from '../../shared/engine/baseline'
 import type { AssessResult, FlagId } from '../../shared/engine/results'
@@ -98,7 +99,7 @@ export function reservedFlowBasis(setting: ReservedFlow, flow_m3s: number, hydro
 }
 
 /** Fields of the brief that come from the stored result alone (the route adds the site and assessment). */
-export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'howSure' | 'flags'> & {
+export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'howSure' | 'flags' | 'weirHeads'> & {
   money: Omit<ReviewBriefDto['money'], 'currency'>
 }
 
@@ -140,6 +141,7 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow, accepta
       maxUnitTotalDissolvedGas: result.summary.maxUnitTotalDissolvedGas,
     },
     baseline: baselineLineOf(result),
+    weirHeads: weirHeadsLine(result.perFlow),
     howSure: howSureOf(result, acceptableOxygenLoss_mgL),
     // A result stored by an older engine has no level or share of time: its safety flag says which it was.
     flags: result.summary.flags.map((f) => ({

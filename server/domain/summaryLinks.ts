@@ -1,3 +1,4 @@
+import { weirHeadsLine } from '../../shared/utils/weirHeads'
 import { sql, type Kysely } from 'kysely'
 import type { Database, SiteRow, SummaryLinkRow } from '../../db/schema'
 import { storedVerdict, type StoredMoney } from '../../shared/engine/money'
@@ -113,6 +114,9 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
           ? `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the scheme would add about ${fmt(gain)} mg/L of dissolved oxygen below the weir, compared with the weir alone.`
           : `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the river below the weir would carry about ${fmt(-gain)} mg/L less dissolved oxygen than with the weir alone.`,
     }
+    // only where heads come from the weir's hydraulics: a site with a head table has no such line
+    const heads = weirHeadsLine(a.result.perFlow)
+    if (heads) river.weirHeads = heads.plain
   }
   let howSure: PublicSummaryDto['howSure'] = null
   if (a) {

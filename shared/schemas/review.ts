@@ -2,6 +2,7 @@
 // comment thread and what GET /api/sites/[id]/review and /review/brief answer. Shared by the server
 // routes (server/api/sites/[id]/review/**, server/api/sites/[id]/comments*) and the review forms.
 // Keep the exported names stable: the UI imports them.
+import type { WeirHeadsLine } from '../utils/weirHeads'
 import { z } from 'zod'
 import type { MoneySummary, StoredMoney } from '../engine/money'
 import type { BaselineLine, FlagId, FlagLevel } from '../engine/results'
@@ -205,6 +206,8 @@ export interface ReviewBriefDto {
   }[]
   netGainSummerLowFlow: { value_mgL: number; month: number; flow_m3s: number; temperature_C: number; basis: string }
   gasSupersaturation: { raised: boolean; reason: string; maxUnitTotalDissolvedGas: number }
+  /** Heads from the weir's hydraulics: how the head moves with the flow and when the weir drowns; null with a head table (or absent: a brief before it). */
+  weirHeads?: WeirHeadsLine | null
   /** A conventional turbine at the same weir, for the one plain line on what the river gains for the energy given up; null for a run stored before it. */
   baseline: BaselineLine | null
   /** How sure the energy and oxygen figures are: the Monte Carlo's P90/P50 energy and chance of a net oxygen loss, the record's P90 and driest years (`stored: false` for a run before them). */

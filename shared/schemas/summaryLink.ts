@@ -119,6 +119,8 @@ export interface PublicSummaryDto {
     months: { month: number; name: string; without_mgL: number; with_mgL: number; target_mgL: number }[]
     /** Plain words: the summer low-flow gain. */
     summary: string
+    /** Plain words on how the fall at the weir changes with the river, when heads come from the weir's hydraulics (absent before it). */
+    weirHeads?: string | null
   } | null
   /** How sure the energy and oxygen figures are, in plain sentences made from the numbers beside them; null when the site has no assessment yet. */
   howSure: {

@@ -118,7 +118,24 @@ describe('site draft', () => {
     expect(form.toBody()!.weir).toEqual({
       grossHead_m: 2.1, crestWidth_m: 14, shape: 'sharp-crested-vertical-face', waterQuality: 'clean',
       aerationModel: 'measured', measuredDeficitRatio: { r: 1.8, temperature_C: 12, drowned: true, note: 'June, low flow' },
+      hydraulics: null,
     })
+  })
+
+  it('sends the weir hydraulics when heads come from them, naming a bad field, and none for the head table', () => {
+    const form = sectionForm(storedSite(), overviewBody)
+    expect(form.draft.headsFrom).toBe('head-table')
+    Object.assign(form.draft, { headsFrom: 'hydraulics', crestHeight_m: 1.9, channelWidth_m: 14, bedSlope: 0.0015, roughnessN: 0.5 })
+    expect(form.toBody()).toBeNull()
+    expect(form.errors.value['weir.hydraulics.tail.roughnessN']).toBe('must be between 0.01 and 0.2')
+    form.draft.roughnessN = 0.04
+    expect(form.toBody()!.weir.hydraulics).toEqual({ crestHeight_m: 1.9, dischargeCoefficient: null, tail: { kind: 'manning', channelWidth_m: 14, bedSlope: 0.0015, roughnessN: 0.04 } })
+    form.draft.tailKind = 'table'
+    form.draft.tailRows = [{ key: 1, flow_m3s: '2', depth_m: '0.4' }, { key: 2, flow_m3s: '1', depth_m: '0.6' }]
+    expect(form.toBody()).toBeNull()
+    expect(form.errors.value['weir.hydraulics.tail.rows.1.flow_m3s']).toBe('rows must be sorted by rising flow, without repeats')
+    form.draft.headsFrom = 'head-table'
+    expect(form.toBody()!.weir.hydraulics).toBeNull()
   })
 
   it('reads a site stored before month flows and the measured mark as measured, no flows, and unchanged', () => {
