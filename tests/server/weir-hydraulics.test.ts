@@ -21,7 +21,7 @@ describe('the weir hydraulics of a site', () => {
     const site = await createSite(team.engineer, team.orgId, { weir })
     const cases: [unknown, RegExp][] = [
       [{ ...hydraulics, crestHeight_m: -1 }, /^weir\.hydraulics\.crestHeight_m:/],
-      [{ ...hydraulics, tail: { kind: 'weir' } }, /^weir\.hydraulics\.tail:/],
+      [{ ...hydraulics, tail: { kind: 'weir' } }, /^weir\.hydraulics\.tail\.kind: must be 'manning' or 'table'/],
       [{ ...hydraulics, tail: { kind: 'table', rows: [{ flow_m3s: 5, depth_m: 1 }] } }, /^weir\.hydraulics\.tail\.rows:/],
       [{ ...hydraulics, tail: { kind: 'table', rows: [{ flow_m3s: 5, depth_m: 1 }, { flow_m3s: 2, depth_m: 1.2 }] } }, /^weir\.hydraulics\.tail\.rows\.1\.flow_m3s:/],
       [{ ...hydraulics, dischargeCoefficient: 3 }, /^weir\.hydraulics\.dischargeCoefficient:/],
