@@ -41,51 +41,55 @@ export interface WeirHydraulics {
   tail: TailRating
   /** C_d·L·√(2g), m^1.5/s: the head over the crest is (Q/k)^(2/3). */
   crestConstant: number
-  /** The last tail depth worked out (see tailDepth). */
-  last: { has: boolean, flow: number, depth: number }
+  /** Tail depths already worked out, by river flow (see tailDepth). */
+  memo: Map<number, number>
 }
 
 /** Manning's equation in SI units for a rectangular section of width B at depth y: Q = (1/n)·A·R^(2/3)·S^(1/2), A = B·y, R = B·y/(B + 2y). */
 export function manningFlow(depth_m: number, channelWidth_m: number, bedSlope: number, roughnessN: number): number {
   if (!(depth_m > 0)) return 0
-  const A = channelWidth_m * depth_m
-  const R = A / (channelWidth_m + 2 * depth_m)
-  return (A * R ** (2 / 3) * Math.sqrt(bedSlope)) / roughnessN
+  return conveyance(depth_m, channelWidth_m) * (Math.sqrt(bedSlope) / roughnessN)
 }
 
-/** Most steps of the normal-depth solve; Newton inside a bracket converges in well under ten, bisection in about sixty. */
+/** A·R^(2/3) of a rectangular section, m^(8/3): R^(2/3) taken as ∛(R²), the same number and cheaper than a power. */
+function conveyance(depth_m: number, width_m: number): number {
+  const A = width_m * depth_m
+  const R = A / (width_m + 2 * depth_m)
+  return A * Math.cbrt(R * R)
+}
+
+/** Most steps of the normal-depth solve; Newton from a close start converges in a few, bisection in about sixty. */
 const MAX_ITERATIONS = 200
 
 /**
- * Normal depth y of a rectangular channel carrying Q (Manning's equation solved for y). Q(y) rises with y, so the
- * root is bracketed between 0 and a depth found by doubling from the wide-channel estimate (nQ/(B√S))^(3/5), which
- * is never above the root (R < y); Newton steps are taken where they stay inside the bracket, bisection otherwise,
- * until the flow matches to 1e-12 relative or the bracket closes. No flow: depth 0.
+ * Normal depth y of a rectangular channel carrying Q (Manning's equation solved for y). Written as the fixed point
+ * y = y_w·((B + 2y)/B)^(2/5), y_w = (nQ/(B√S))^(3/5) the wide-channel depth, whose right side rises with y: started
+ * from y_w (never above the root, as R < y) one step stays below the root and lands close to it. From there Newton
+ * steps are taken inside a bracket (bisection where a step would leave it; the upper end found by doubling) until
+ * the flow matches to 1e-12 relative or the bracket closes. No flow: depth 0.
  */
 export function manningDepth(flow_m3s: number, channelWidth_m: number, bedSlope: number, roughnessN: number): number {
   if (!(flow_m3s > 0)) return 0
   const B = channelWidth_m
   const target = flow_m3s
-  const f = (y: number): number => manningFlow(y, B, bedSlope, roughnessN) - target
-  let lo = 0
-  let hi = ((roughnessN * target) / (B * Math.sqrt(bedSlope))) ** 0.6
-  if (!(hi > 0) || !Number.isFinite(hi)) return 0
-  for (let i = 0; i < 200 && f(hi) < 0; i++) {
-    lo = hi
-    hi *= 2
-  }
-  let y = hi
+  const yw = ((roughnessN * target) / (B * Math.sqrt(bedSlope))) ** 0.6
+  if (!(yw > 0) || !Number.isFinite(yw)) return 0
+  const k = Math.sqrt(bedSlope) / roughnessN
+  const f = (y: number): number => (y > 0 ? conveyance(y, B) * k : 0) - target
+  let lo = yw
+  let y = yw * ((B + 2 * yw) / B) ** 0.4
+  let hi = Infinity
   for (let i = 0; i < MAX_ITERATIONS; i++) {
     const fy = f(y)
     if (Math.abs(fy) <= 1e-12 * target) return y
     if (fy > 0) hi = y
-    else lo = y
+    else lo = Math.max(lo, y)
     // dQ/dy = Q·(5/(3y) − 4/(3(B + 2y))) for the rectangular section
     const q = fy + target
     const slope = q * (5 / (3 * y) - 4 / (3 * (B + 2 * y)))
     let next = slope > 0 ? y - fy / slope : NaN
-    if (!(next > lo && next < hi)) next = (lo + hi) / 2
-    if (next === y || hi - lo <= Number.EPSILON * hi) return next
+    if (!(next > lo && next < hi)) next = Number.isFinite(hi) ? (lo + hi) / 2 : 2 * Math.max(lo, y)
+    if (next === y || (Number.isFinite(hi) && hi - lo <= Number.EPSILON * hi)) return next
     y = next
   }
   return y
@@ -152,21 +156,24 @@ export function resolveWeirHydraulics(h: WeirHydraulicsInput, crestLength_m: num
     })
     tail = { kind: 'table', rows: [...h.tail.rows].sort((a, b) => a.flow_m3s - b.flow_m3s) }
   }
-  return { crestLength_m: L, crestHeight_m, dischargeCoefficient: cd, tail, crestConstant: cd.value * L * Math.sqrt(2 * G), last: { has: false, flow: 0, depth: 0 } }
+  return { crestLength_m: L, crestHeight_m, dischargeCoefficient: cd, tail, crestConstant: cd.value * L * Math.sqrt(2 * G), memo: new Map() }
 }
 
+/** Most tail depths kept per resolved hydraulics: a century of days and the year's grids with room to spare (a few MB). */
+const MEMO_LIMIT = 200_000
+
 /**
- * Depth of water over the tail-pool bed at river flow Q, m (Manning's normal depth, or the table). The last answer
- * is kept on the resolved hydraulics: an assessment asks the gross head and the throat depth at the same flow in turn.
+ * Depth of water over the tail-pool bed at river flow Q, m (Manning's normal depth, or the table). Answers are kept
+ * on the resolved hydraulics by flow: an assessment asks each day's flow in each operating mode, and a Monte Carlo
+ * asks them again in every draw of the same site, so each distinct flow is solved once (the same figure each time).
  */
 export function tailDepth(h: WeirHydraulics, flow_m3s: number): number {
-  const last = h.last
-  if (last.has && Object.is(last.flow, flow_m3s)) return last.depth
+  const known = h.memo.get(flow_m3s)
+  if (known !== undefined) return known
   const t = h.tail
   const y = t.kind === 'manning' ? manningDepth(flow_m3s, t.channelWidth_m, t.bedSlope, t.roughnessN) : tableDepth(t.rows, flow_m3s)
-  last.has = true
-  last.flow = flow_m3s
-  last.depth = y
+  if (h.memo.size >= MEMO_LIMIT) h.memo.clear()
+  h.memo.set(flow_m3s, y)
   return y
 }
 
