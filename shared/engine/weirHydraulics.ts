@@ -136,7 +136,7 @@ export function resolveWeirHydraulics(h: WeirHydraulicsInput, crestLength_m: num
   }
   else {
     const form = crestFormOf(shape)
-    if (form === null) throw new EngineInputError(`${field}.dischargeCoefficient`, 'is needed: a sluice has no crest form to take it from')
+    if (form === null) throw new EngineInputError(`${field}.dischargeCoefficient`, 'is needed: a sluice has no crest form to give a default')
     cd = WEIR_DISCHARGE_COEFFICIENT[form]
   }
   let tail: TailRating
