@@ -35,7 +35,7 @@ describe('the weir hydraulics of a site', () => {
 
   it('stores good hydraulics, and an assessment takes each flow\'s heads from them', async () => {
     const site = await createSite(team.engineer, team.orgId, { weir: { ...weir, hydraulics } })
-    expect(site.weir.hydraulics).toEqual(hydraulics)
+    expect((site.weir as { hydraulics: unknown }).hydraulics).toEqual(hydraulics)
     const option = await createOption(team.engineer, site.id, { name: 'Hydraulic heads' })
     const a = await createAssessment(team.engineer, option.id)
     const rows = a.result.perFlow as { grossHead_m: number, tailDepth_m: number | null, throatDepth_m: number, weirDrowned: boolean }[]

@@ -129,13 +129,13 @@ describe('site draft', () => {
     expect(form.toBody()).toBeNull()
     expect(form.errors.value['weir.hydraulics.tail.roughnessN']).toBe('must be between 0.01 and 0.2')
     form.draft.roughnessN = 0.04
-    expect(form.toBody()!.weir.hydraulics).toEqual({ crestHeight_m: 1.9, dischargeCoefficient: null, tail: { kind: 'manning', channelWidth_m: 14, bedSlope: 0.0015, roughnessN: 0.04 } })
+    expect(form.toBody()!.weir!.hydraulics).toEqual({ crestHeight_m: 1.9, dischargeCoefficient: null, tail: { kind: 'manning', channelWidth_m: 14, bedSlope: 0.0015, roughnessN: 0.04 } })
     form.draft.tailKind = 'table'
     form.draft.tailRows = [{ key: 1, flow_m3s: '2', depth_m: '0.4' }, { key: 2, flow_m3s: '1', depth_m: '0.6' }]
     expect(form.toBody()).toBeNull()
     expect(form.errors.value['weir.hydraulics.tail.rows.1.flow_m3s']).toBe('rows must be sorted by rising flow, without repeats')
     form.draft.headsFrom = 'head-table'
-    expect(form.toBody()!.weir.hydraulics).toBeNull()
+    expect(form.toBody()!.weir!.hydraulics).toBeNull()
   })
 
   it('reads a site stored before month flows and the measured mark as measured, no flows, and unchanged', () => {
