@@ -21,7 +21,7 @@ import {
 } from '../../shared/schemas/review'
 import type { ReservedFlow } from '../../shared/schemas/site'
 import type { Role } from '../../shared/utils/roles'
-import { CONSENT_KINDS, type ConsentKind } from '../../shared/utils/consents'
+import { CONSENT_KINDS, requiredConsentsLine, type ConsentKind } from '../../shared/utils/consents'
 import { loadConsentSummary } from './consents'
 import { conflict, unprocessable } from './errors'
 import { sendAll, type Mailer } from './mail/outbox'
@@ -271,7 +271,7 @@ export async function decideReview(
   const engineers = await membersWithRoles(db, site.org_id, ['engineer'])
   const submitter = done.submittedBy === null ? [] : await db.selectFrom('users').select(['id', 'name', 'email']).where('id', '=', done.submittedBy).execute()
   const to = uniquePeople([...submitter, ...engineers]).filter((p) => p.id !== user.id)
-  const mail = reviewDecidedMail({ siteName: site.name, deciderName: user.name, decisionLabel: REVIEW_STATE_LABELS[decision], reason, conditions, link: args.mailer.link(siteReviewPath(site.id)) })
+  const mail = reviewDecidedMail({ siteName: site.name, deciderName: user.name, decisionLabel: REVIEW_STATE_LABELS[decision], reason, conditions, requires: requiredConsentsLine(args.requiredConsents ?? []), link: args.mailer.link(siteReviewPath(site.id)) })
   await sendAll(args.mailer, to.map((p) => ({ to: p.email, ...mail, kind: 'review-decided' as const, orgId: site.org_id })))
   return { state: done.row.to_state, event: reviewEventDto(done.row, new Map([[user.id, user.name]])) }
 }

@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { createAssessment, createOption } from './options-helpers'
-import { makePeople, siteWithAssessment } from './review-helpers'
+import { lastOutboxId, makePeople, outboxSince, siteWithAssessment } from './review-helpers'
 
 // A site's consents and constraints list over HTTP: every kind listed, who may read and change it,
 // refusals naming the field, the version check, another organisation's site, the noise and eel
@@ -134,10 +134,13 @@ describe('a review decision requiring permissions', () => {
     const bad = await team.reviewer.client.post(`/api/sites/${site.siteId}/review/decision`, { decision: 'accepted', reason: 'Fine', requiredConsents: ['planning'] })
     expect(bad.status).toBe(400)
     expect(bad.body.message).toMatch(/^requiredConsents\.0: /)
+    const mailedBefore = lastOutboxId()
     const res = await team.reviewer.client.post(`/api/sites/${site.siteId}/review/decision`, { decision: 'accepted', reason: 'Fine once the landowner agrees', requiredConsents: ['landowner'] })
     expect(res.status, JSON.stringify(res.body)).toBe(200)
     expect(res.body.event.requiredConsents).toEqual(['landowner'])
     const review = await team.viewer.client.get(`/api/sites/${site.siteId}/review`)
     expect(review.body.decision.requiredConsents).toEqual(['landowner'])
+    const mail = outboxSince(mailedBefore).find((m) => m.kind === 'review-decided')
+    expect(mail?.text).toContain('The decision requires: landowner consent granted.')
   })
 })
