@@ -2,6 +2,7 @@
 import type { SiteInput } from '../shared/schemas/site'
 import type { OptionInputDraft } from '../shared/schemas/option'
 import type { Role } from '../shared/utils/roles'
+import type { ConsentKind, ConsentStatus } from '../shared/utils/consents'
 
 // The invented demo scenario: no real organisation, river, site or person. E-mail addresses use
 // the reserved .example domain. Later features add their part of the story here.
@@ -230,6 +231,8 @@ export const DEMO_OPTIONS: readonly DemoOption[] = [
       notes: 'Both venturis set side by side in the silted leat mouth, air pipes up the left-bank wall to one turbine house.',
       design: {
         units: 2, throatDiameter_m: 0.55, outletDiameter_m: 1.1, throatDepth_m: 2.5, air: { pipeDiameter_m: 0.45, pipeLength_m: 9 },
+        // The maker's sound power level of one air turbine, for the noise check at Mill Cottage.
+        turbine: { soundPower_dBA: 92 },
         // The leat walls stand already: less civil work per m³/s than a new cut.
         costs: { fixedCost: 45_000, ratedPowerPrice: 650, civilsPerDesignFlow: 60_000 },
       },
@@ -331,6 +334,8 @@ export const DEMO_REVIEW = {
       'The Q95 reserved flow is kept at every flow, the river stays above the 6 mg/L target in every month with and without the scheme, the scheme never costs the river oxygen, and the gas check is clear. The summer months, when the river is most at risk, are dealt with by condition 2.',
     conditions:
       '1. Keep at least the Q95 flow over the weir crest and fish pass at all times.\n2. Hold the units off from June to September until two years of monitoring show no net oxygen loss and no gas supersaturation below the weir.\n3. Log dissolved oxygen below the weir monthly for the first two years and send the readings to the agency.\n4. Screen the venturi intakes before the first run.',
+    /** The permissions of the consents list the decision requires granted. */
+    requiredConsents: ['abstraction-licence', 'fish-passage'] as ConsentKind[],
   },
 }
 
@@ -343,3 +348,55 @@ export const DEMO_SUMMARY_LINK = { siteName: 'Hollin Mill weir', note: 'For Tobi
 
 /** A pending invitation: a second (invented) agency officer, asked to review one site. */
 export const DEMO_INVITATION = { email: 'rhiannon@fellside-agency.example', role: 'reviewer' as const, siteName: 'Skelby gauging weir' }
+
+// ——— Consents and constraints ———
+// Hollin Mill weir's consents list part-way through: the landowner and heritage consents in hand, the
+// flood-risk permit granted with conditions, the abstraction licence and fish passage applied for,
+// the grid connection refused (no capacity at the village substation), the rest not started or not
+// needed. Mill Cottage stands 120 m from the turbine house, so the noise check shows a figure.
+// Skelby gauging weir is a gauging station: its warning shows. References are invented.
+
+/** One permission of a demo site's consents list. */
+export interface DemoConsent {
+  kind: ConsentKind
+  status: ConsentStatus
+  reference?: string
+  appliedOn?: string
+  decidedOn?: string
+  conditions?: string
+  notes?: string
+}
+
+/** The consents list and constraints of a demo site. */
+export interface DemoConsents {
+  siteName: string
+  constraints: { nearestDwelling_m: number | null; noiseLimit_dBA: number | null; isGaugingStation: boolean }
+  consents: DemoConsent[]
+}
+
+export const DEMO_CONSENTS: readonly DemoConsents[] = [
+  {
+    siteName: 'Hollin Mill weir',
+    constraints: { nearestDwelling_m: 120, noiseLimit_dBA: null, isGaugingStation: false },
+    consents: [
+      { kind: 'abstraction-licence', status: 'applied', reference: 'FRA/AB/2026/0117', appliedOn: '2026-06-15', notes: 'Q95 hands-off flow proposed; the agency asked for the twelve-year logger record, sent 2 July.' },
+      { kind: 'impoundment-licence', status: 'not-needed', notes: 'The crest is not raised and no new structure holds water back; the agency agreed by e-mail.' },
+      {
+        kind: 'flood-risk-permit', status: 'granted-with-conditions', reference: 'FRA/FRP/2026/0342', appliedOn: '2026-04-02', decidedOn: '2026-07-20',
+        conditions: 'No plant in the channel from 1 October to 31 March. Spoil kept above the 1-in-100-year flood line.',
+      },
+      { kind: 'fish-passage', status: 'applied', reference: 'FRA/FP/2026/0058', appliedOn: '2026-06-15', notes: 'Notch in the existing fish pass kept wet at Q95.' },
+      { kind: 'eel-screening', status: 'not-started', notes: 'Screen design to follow the abstraction licence.' },
+      { kind: 'heritage', status: 'granted', reference: 'HDC/LBC/26/0088', appliedOn: '2026-02-10', decidedOn: '2026-04-28', notes: 'The mill race wall is listed; the turbine house stands clear of it.' },
+      { kind: 'landowner', status: 'granted', reference: 'Letter of agreement, Brackwin Farm', appliedOn: '2026-02-01', decidedOn: '2026-03-10' },
+      { kind: 'grid-connection', status: 'refused', reference: 'NW-CQ-558213', appliedOn: '2026-05-05', decidedOn: '2026-08-14', notes: 'No capacity at the village substation before 2029; to ask again for export behind the farm meter.' },
+    ],
+  },
+  {
+    siteName: 'Skelby gauging weir',
+    constraints: { nearestDwelling_m: null, noiseLimit_dBA: null, isGaugingStation: true },
+    consents: [
+      { kind: 'gauging-station', status: 'applied', reference: 'FRA/HYD/2026/0021', appliedOn: '2026-08-03', notes: 'The agency\'s hydrometry team wants check gaugings before and after the works.' },
+    ],
+  },
+]

@@ -228,6 +228,8 @@ export interface SiteReviewsTable {
   reason: string | null
   conditions: string | null
   updated_at: ColumnType<string, string | undefined, string>
+  /** JSON: the consent kinds the latest decision requires granted (migration 0015). */
+  required_consents: ColumnType<string, string | undefined, string>
 }
 
 /** Every change of a review: who, from, to, reason, conditions, assessment, when. */
@@ -244,6 +246,8 @@ export interface ReviewEventsTable {
   reason: string | null
   conditions: string | null
   created_at: CreatedAt
+  /** JSON: the consent kinds a decision requires granted (migration 0015). */
+  required_consents: ColumnType<string, string | undefined, string>
 }
 
 export interface CommentsTable {
@@ -324,6 +328,44 @@ export interface SummaryLinksTable {
   last_viewed_at: string | null
 }
 
+// ——— Consents and constraints (migration 0015) ———
+
+/** One permission of a site, once someone has saved it; a kind without a row is not started. */
+export interface SiteConsentsTable {
+  id: Generated<number>
+  site_id: number
+  org_id: number
+  /** shared/utils/consents.ts CONSENT_KINDS. */
+  kind: string
+  /** shared/utils/consents.ts CONSENT_STATUSES. */
+  status: string
+  reference: string
+  /** YYYY-MM-DD. */
+  applied_on: string | null
+  decided_on: string | null
+  conditions: string
+  notes: string
+  version: ColumnType<number, number | undefined, number>
+  created_by: number | null
+  updated_by: number | null
+  created_at: CreatedAt
+  updated_at: ColumnType<string, string | undefined, string>
+}
+
+/** What a site's checks need that is not a permission: the nearest dwelling, its noise limit, a gauging station. */
+export interface SiteConstraintsTable {
+  site_id: number
+  org_id: number
+  nearest_dwelling_m: number | null
+  /** dB(A); null takes the default limit. */
+  noise_limit_dba: number | null
+  /** 0 or 1. */
+  is_gauging_station: ColumnType<number, number | undefined, number>
+  version: ColumnType<number, number | undefined, number>
+  updated_by: number | null
+  updated_at: ColumnType<string, string | undefined, string>
+}
+
 /** The whole database, as Kysely sees it. */
 export interface Database {
   users: UsersTable
@@ -348,6 +390,8 @@ export interface Database {
   invitations: InvitationsTable
   password_resets: PasswordResetsTable
   summary_links: SummaryLinksTable
+  site_consents: SiteConsentsTable
+  site_constraints: SiteConstraintsTable
 }
 
 export type UserRow = Selectable<UsersTable>
@@ -367,3 +411,5 @@ export type CommentRow = Selectable<CommentsTable>
 export type InvitationRow = Selectable<InvitationsTable>
 export type SummaryLinkRow = Selectable<SummaryLinksTable>
 export type OutboxRow = Selectable<OutboxTable>
+export type SiteConsentRow = Selectable<SiteConsentsTable>
+export type SiteConstraintsRow = Selectable<SiteConstraintsTable>

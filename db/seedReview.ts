@@ -72,7 +72,7 @@ export async function seedReviewDemo(trx: Transaction<Database>, orgId: number, 
 
     const decidedAt = (mailedAt = at(1))
     const d = DEMO_REVIEW.decision
-    await decideReview(trx, { site, user: reviewer, decision: d.decision, reason: d.reason, conditions: d.conditions, now: decidedAt, mailer })
+    await decideReview(trx, { site, user: reviewer, decision: d.decision, reason: d.reason, conditions: d.conditions, requiredConsents: d.requiredConsents, now: decidedAt, mailer })
     await recordAudit(trx, {
       orgId,
       userId: reviewer.id,

@@ -92,6 +92,10 @@ export const OPTION_FIELDS: readonly OptionField[] = [
   { path: 'design.turbine.ratedPower_kW', label: 'Rated electrical power per unit', unit: 'kW', group: 'turbine', kind: 'number', blankMeans: 'sized to the design point' },
   { path: 'design.turbine.cutInFraction', label: 'Turbine cut-in', unit: 'fraction', group: 'turbine', kind: 'number', defaultOf: fixed(DEFAULTS.turbineCutInFraction), hint: 'of the rating' },
   {
+    path: 'design.turbine.soundPower_dBA', label: 'Air turbine sound power level', unit: 'dB(A)', group: 'turbine', kind: 'number', blankMeans: 'no noise check',
+    hint: 'enter the maker\'s figure (A-weighted sound power of one turbine, 40–140 dB(A)); the site\'s consents list works out the level at the nearest dwelling',
+  },
+  {
     path: 'design.operation.mode', label: 'Operating mode', unit: '–', group: 'operation', kind: 'select',
     choices: [{ value: 'energy-first', label: 'Energy first: every unit that can run does' }, { value: 'river-first', label: 'River first: never at the river\'s oxygen cost' }],
     hint: 'river first shuts a unit wherever running it would cost the river more oxygen than the acceptable loss, or lower it while the river is below its target',

@@ -1,6 +1,7 @@
 // The sections of the site page and which one the address asks for.
 /** A section of the site page. */
 export type SiteTab = 'overview' | 'hydrology' | 'months' | 'options' | 'review' | 'sharing' | 'attachments'
+  | 'consents'
 
 /** Sections in the order shown. */
 export const SITE_TABS: readonly { id: SiteTab; label: string }[] = [
@@ -8,6 +9,7 @@ export const SITE_TABS: readonly { id: SiteTab; label: string }[] = [
   { id: 'hydrology', label: 'Hydrology' },
   { id: 'months', label: 'Months' },
   { id: 'options', label: 'Design options' },
+  { id: 'consents', label: 'Consents' },
   { id: 'review', label: 'Review' },
   { id: 'sharing', label: 'Landowner links' },
   { id: 'attachments', label: 'Photos and documents' },

@@ -21,6 +21,8 @@ import {
 } from '../../shared/schemas/review'
 import type { ReservedFlow } from '../../shared/schemas/site'
 import type { Role } from '../../shared/utils/roles'
+import { CONSENT_KINDS, requiredConsentsLine, type ConsentKind } from '../../shared/utils/consents'
+import { loadConsentSummary } from './consents'
 import { conflict, unprocessable } from './errors'
 import { sendAll, type Mailer } from './mail/outbox'
 import { organisationCurrency } from './organisations'
@@ -44,6 +46,12 @@ export async function peopleById(db: Kysely<Database>, ids: readonly (number | n
 
 const ref = (names: Map<number, string>, id: number | null): PersonRef | null => (id !== null && names.has(id) ? { id, name: names.get(id)! } : null)
 
+/** The consent kinds stored as JSON on a review row (unknown kinds dropped). */
+function consentKindsOf(json: string | null | undefined): ConsentKind[] {
+  const list: unknown = json ? JSON.parse(json) : []
+  return Array.isArray(list) ? list.filter((k): k is ConsentKind => (CONSENT_KINDS as readonly unknown[]).includes(k)) : []
+}
+
 /** One review_events row as the API shows it. */
 export function reviewEventDto(row: ReviewEventRow, names: Map<number, string>): ReviewEventDto {
   return {
@@ -56,6 +64,7 @@ export function reviewEventDto(row: ReviewEventRow, names: Map<number, string>):
     note: row.note,
     reason: row.reason,
     conditions: row.conditions,
+    requiredConsents: consentKindsOf(row.required_consents),
     at: row.created_at,
   }
 }
@@ -111,7 +120,7 @@ export async function loadReview(db: Kysely<Database>, site: SiteRow, role: Role
     submittedAt: current?.submitted_at ?? null,
     decision:
       decided && current?.decided_at
-        ? { decision: state as ReviewDecision, reason: current.reason ?? '', conditions: current.conditions, by: ref(names, current.decided_by), at: current.decided_at }
+        ? { decision: state as ReviewDecision, reason: current.reason ?? '', conditions: current.conditions, requiredConsents: consentKindsOf(current.required_consents), by: ref(names, current.decided_by), at: current.decided_at }
         : null,
     history: events.map((e) => reviewEventDto(e, names)),
     can: {
@@ -207,7 +216,7 @@ export async function submitReview(
     const current = await trx.selectFrom('site_reviews').selectAll().where('site_id', '=', site.id).executeTakeFirst()
     const step = reviewTransition(current?.state ?? 'draft', { kind: 'submit' })
     if (!step.ok) throw conflict(step.message, { state: step.from })
-    const values = { state: step.to, assessment_id: assessmentId, submitted_by: user.id, submitted_at: at, decided_by: null, decided_at: null, reason: null, conditions: null, updated_at: at }
+    const values = { state: step.to, assessment_id: assessmentId, submitted_by: user.id, submitted_at: at, decided_by: null, decided_at: null, reason: null, conditions: null, required_consents: '[]', updated_at: at }
     if (current) await trx.updateTable('site_reviews').set(values).where('site_id', '=', site.id).execute()
     else await trx.insertInto('site_reviews').values({ site_id: site.id, org_id: site.org_id, ...values }).execute()
     const row = await trx
@@ -239,21 +248,22 @@ export async function submitReview(
  */
 export async function decideReview(
   db: Kysely<Database>,
-  args: { site: SiteRow; user: Actor; decision: ReviewDecision; reason: string; conditions: string | null; now: string; mailer: Mailer },
+  args: { site: SiteRow; user: Actor; decision: ReviewDecision; reason: string; conditions: string | null; requiredConsents?: readonly ConsentKind[]; now: string; mailer: Mailer },
 ): Promise<ReviewChangeDto> {
   const { site, user, decision, reason, conditions, now: at } = args
+  const required = JSON.stringify(args.requiredConsents ?? [])
   const done = await inTransaction(db, async (trx) => {
     const current = await trx.selectFrom('site_reviews').selectAll().where('site_id', '=', site.id).executeTakeFirst()
     const step = reviewTransition(current?.state ?? 'draft', { kind: 'decide', decision })
     if (!step.ok || !current) throw conflict(step.ok ? 'review: the review is draft' : step.message, { state: step.from })
     await trx
       .updateTable('site_reviews')
-      .set({ state: step.to, decided_by: user.id, decided_at: at, reason, conditions, updated_at: at })
+      .set({ state: step.to, decided_by: user.id, decided_at: at, reason, conditions, required_consents: required, updated_at: at })
       .where('site_id', '=', site.id)
       .execute()
     const row = await trx
       .insertInto('review_events')
-      .values({ site_id: site.id, org_id: site.org_id, kind: 'decided', from_state: step.from, to_state: step.to, user_id: user.id, assessment_id: current.assessment_id, reason, conditions, created_at: at })
+      .values({ site_id: site.id, org_id: site.org_id, kind: 'decided', from_state: step.from, to_state: step.to, user_id: user.id, assessment_id: current.assessment_id, reason, conditions, required_consents: required, created_at: at })
       .returningAll()
       .executeTakeFirstOrThrow()
     return { row, submittedBy: current.submitted_by }
@@ -261,7 +271,7 @@ export async function decideReview(
   const engineers = await membersWithRoles(db, site.org_id, ['engineer'])
   const submitter = done.submittedBy === null ? [] : await db.selectFrom('users').select(['id', 'name', 'email']).where('id', '=', done.submittedBy).execute()
   const to = uniquePeople([...submitter, ...engineers]).filter((p) => p.id !== user.id)
-  const mail = reviewDecidedMail({ siteName: site.name, deciderName: user.name, decisionLabel: REVIEW_STATE_LABELS[decision], reason, conditions, link: args.mailer.link(siteReviewPath(site.id)) })
+  const mail = reviewDecidedMail({ siteName: site.name, deciderName: user.name, decisionLabel: REVIEW_STATE_LABELS[decision], reason, conditions, requires: requiredConsentsLine(args.requiredConsents ?? []), link: args.mailer.link(siteReviewPath(site.id)) })
   await sendAll(args.mailer, to.map((p) => ({ to: p.email, ...mail, kind: 'review-decided' as const, orgId: site.org_id })))
   return { state: done.row.to_state, event: reviewEventDto(done.row, new Map([[user.id, user.name]])) }
 }
@@ -335,5 +345,6 @@ export async function loadReviewBrief(db: Kysely<Database>, site: SiteRow): Prom
   const result = JSON.parse(payload.result_json) as AssessResult
   const setting = (payload.reserved_json ? JSON.parse(payload.reserved_json) : JSON.parse(site.reserved_flow)) as ReservedFlow
   const brief = reviewBrief(result, setting, payload.acceptable_loss_mgl)
-  return { siteId: site.id, siteName: site.name, assessment, ...brief, money: { ...brief.money, currency: await organisationCurrency(db, site.org_id) } }
+  const [currency, consents] = await Promise.all([organisationCurrency(db, site.org_id), loadConsentSummary(db, site.id)])
+  return { siteId: site.id, siteName: site.name, assessment, ...brief, money: { ...brief.money, currency }, consents }
 }

@@ -11,6 +11,7 @@ import type { Reach } from '../../shared/schemas/site'
 import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type SummaryLinkState } from '../../shared/schemas/summaryLink'
 import { CAUTIONS } from '../../shared/utils/cautions'
 import { howSureOf, howSureSentences } from '../../shared/utils/howSure'
+import { loadConsentSummary } from './consents'
 import { conflict } from './errors'
 import { hashLinkToken, linkTokenMatches, newLinkToken } from './tokens'
 
@@ -90,6 +91,8 @@ export interface SummarySources {
     /** The acceptable oxygen loss the run used, mg/L; null when the stored input does not say. */
     acceptableOxygenLoss_mgL: number | null
   } | null
+  /** The consents list in one plain line, with the gauging-station warning. */
+  permissions?: { line: string; gaugingWarning: string | null } | null
 }
 
 /** The landowner summary from its sources: only the named fields, no ids, no e-mail addresses. */
@@ -163,6 +166,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
     cautions,
     contact: { organisationName: s.organisationName, preparedBy: s.creatorName },
     expiresAt: s.expiresAt,
+    permissions: s.permissions ?? null,
   }
 }
 
@@ -177,10 +181,11 @@ function publicMoney(m: StoredMoney): Omit<NonNullable<PublicSummaryDto['money']
 
 /** Loads the sources of a live link's summary: the assessment under review, else the site's latest of a live option. */
 export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkRow, site: SiteRow): Promise<PublicSummaryDto> {
-  const [org, creator, review] = await Promise.all([
+  const [org, creator, review, consents] = await Promise.all([
     db.selectFrom('organisations').select(['name', 'currency_code', 'currency_symbol']).where('id', '=', site.org_id).executeTakeFirstOrThrow(),
     link.created_by === null ? undefined : db.selectFrom('users').select('name').where('id', '=', link.created_by).executeTakeFirst(),
     db.selectFrom('site_reviews').selectAll().where('site_id', '=', site.id).executeTakeFirst(),
+    loadConsentSummary(db, site.id),
   ])
   const pick = (q: ReturnType<typeof assessmentQuery>) => q.executeTakeFirst()
   const assessmentQuery = () =>
@@ -209,6 +214,7 @@ export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkR
     currency: { code: org.currency_code, symbol: org.currency_symbol },
     creatorName: creator?.name ?? null,
     expiresAt: link.expires_at,
+    permissions: { line: consents.line, gaugingWarning: consents.gaugingWarning },
     review: { state: review?.state ?? 'draft', reason: review?.reason ?? null, conditions: review?.conditions ?? null, decidedAt: review?.decided_at ?? null },
     assessment: row
       ? {

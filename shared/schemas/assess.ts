@@ -180,6 +180,8 @@ export const TurbineInputSchema = z.object({
   /** Electrical rating per unit, kW; null sizes it to the design point. */
   ratedPower_kW: positive.max(100000).nullable().default(null),
   cutInFraction: fraction.default(d('turbineCutInFraction')),
+  /** The maker's A-weighted sound power level of one air turbine, dB(A), for the noise check at the nearest dwelling; null when not known (no figure changes). */
+  soundPower_dBA: num.min(40, 'must be 40 dB(A) or more').max(140, 'must be 140 dB(A) or less').nullable().default(null),
 })
 
 /** Costs of an option (defaults and their origins in MONEY_DEFAULTS). */

@@ -10,6 +10,8 @@ import { IdSchema, fromDigits } from './common'
 import type { Currency } from './organisation'
 import type { ReservedFlow } from './site'
 import type { HowSure } from '../utils/howSure'
+import { CONSENT_KINDS, type ConsentKind } from '../utils/consents'
+import type { ConsentSummaryDto } from './consent'
 import type { Role } from '../utils/roles'
 
 /** Every state a site's review can be in; a site nobody has submitted is `draft`. */
@@ -68,6 +70,12 @@ export const ReviewDecisionSchema = z
     decision: z.enum(REVIEW_DECISIONS, { error: `must be one of ${REVIEW_DECISIONS.join(', ')}` }),
     reason: text(REVIEW_REASON_MAX).min(1, 'is required: say why'),
     conditions: text(REVIEW_CONDITIONS_MAX).optional(),
+    /** Permissions of the site's consents list the decision requires granted. */
+    requiredConsents: z
+      .array(z.enum(CONSENT_KINDS, { error: `must be one of ${CONSENT_KINDS.join(', ')}` }), { error: 'must be a list of consent kinds' })
+      .max(CONSENT_KINDS.length, `lists at most ${CONSENT_KINDS.length} kinds`)
+      .refine((ks) => new Set(ks).size === ks.length, 'lists a kind twice')
+      .default([]),
   })
   .superRefine((v, ctx) => {
     const has = !!v.conditions
@@ -76,6 +84,9 @@ export const ReviewDecisionSchema = z
     }
     if (v.decision !== 'accepted-with-conditions' && has) {
       ctx.addIssue({ code: 'custom', path: ['conditions'], message: 'only goes with accepted-with-conditions' })
+    }
+    if (v.decision === 'returned' && v.requiredConsents.length) {
+      ctx.addIssue({ code: 'custom', path: ['requiredConsents'], message: 'only goes with an acceptance' })
     }
   })
   .transform((v) => ({ ...v, conditions: v.conditions || undefined }))
@@ -128,6 +139,8 @@ export interface ReviewEventDto {
   note: string | null
   reason: string | null
   conditions: string | null
+  /** Permissions the decision requires granted (empty for none, and for a submission). */
+  requiredConsents: ConsentKind[]
   at: string
 }
 
@@ -141,7 +154,7 @@ export interface ReviewDto {
   submittedBy: PersonRef | null
   submittedAt: string | null
   /** The latest decision, while the site is in a decided state. */
-  decision: { decision: ReviewDecision; reason: string; conditions: string | null; by: PersonRef | null; at: string } | null
+  decision: { decision: ReviewDecision; reason: string; conditions: string | null; requiredConsents: ConsentKind[]; by: PersonRef | null; at: string } | null
   /** Every change, oldest first. */
   history: ReviewEventDto[]
   /** What the caller may do now (the server checks again). */
@@ -216,4 +229,6 @@ export interface ReviewBriefDto {
   flags: { id: FlagId; raised: boolean; level: FlagLevel; safety: boolean; shareOfTime: number | null; reason: string }[]
   /** Whether the scheme pays at the export price, amounts in the site's organisation's currency. */
   money: StoredMoney & Pick<MoneySummary, 'pays' | 'shortfalls' | 'breakEvenPrice'> & { currency: Currency }
+  /** The site's consents list in brief: counts by status, refused and outstanding permissions, the gauging and eel checks. */
+  consents: ConsentSummaryDto
 }

@@ -145,4 +145,6 @@ export interface PublicSummaryDto {
   cautions: { title: string; text: string }[]
   contact: { organisationName: string; preparedBy: string | null }
   expiresAt: string
+  /** The site's consents list in one plain line ("Permissions: 3 of 10 granted, 2 applied for, 1 refused (flood-risk permit)"), and the gauging-station warning; null when the sources gave none. */
+  permissions: { line: string; gaugingWarning: string | null } | null
 }

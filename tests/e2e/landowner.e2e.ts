@@ -127,7 +127,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.equal(json.status, 200)
   assert.equal(json.cache, 'no-store', 'the summary is never cached')
   const body = json.body as Record<string, unknown>
-  assert.deepEqual(Object.keys(body).sort(), ['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'review', 'river', 'scheme', 'site'])
+  assert.deepEqual(Object.keys(body).sort(), ['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'permissions', 'review', 'river', 'scheme', 'site'])
   const shape = (o: unknown) => Object.keys(o as object).sort()
   assert.deepEqual(shape(body.site), ['grossHead_m', 'location', 'name', 'reach', 'riverName'])
   assert.deepEqual(shape(body.scheme), ['description', 'optionName', 'outletDiameter_m', 'throatDiameter_m', 'units'])
@@ -137,6 +137,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.deepEqual(shape(body.river), ['months', 'summary', 'target_mgL'])
   assert.deepEqual(shape(body.review), ['conditions', 'decidedAt', 'decisionText', 'state', 'stateLabel'])
   assert.deepEqual(shape(body.contact), ['organisationName', 'preparedBy'])
+  assert.deepEqual(shape(body.permissions), ['gaugingWarning', 'line'])
   const paths = keyPaths(body)
   assert.deepEqual(paths.filter((p) => /(^|\.)([a-z]*Id|id|email|token|comments?|note|createdBy|version)$/i.test(p)), [], 'no ids, e-mails, tokens, notes or comments at any depth')
   const raw = JSON.stringify(body)

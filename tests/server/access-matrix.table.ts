@@ -121,6 +121,9 @@ export const ACCESS_TABLE: Record<string, Row> = {
   'DELETE /api/attachments/:id': SITE_WRITERS,
   'GET /api/sites/:id/options': SITE_READERS,
   'POST /api/sites/:id/options': SITE_WRITERS,
+  'GET /api/sites/:id/consents': SITE_READERS,
+  'PATCH /api/sites/:id/consents/:kind': SITE_WRITERS,
+  'PATCH /api/sites/:id/constraints': SITE_WRITERS,
 
   // ——— options and assessments of A1 ———
   'GET /api/options/:id': SITE_READERS,

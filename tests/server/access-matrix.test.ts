@@ -221,6 +221,9 @@ function fill(pattern: string, params: Record<string, string | number>): string 
 }
 
 const siteVersion = async () => must(await who.admin.client.get(`/api/sites/${fx.siteA1}`), 200, 'read A1').body.version as number
+const consentVersion = async (kind: string) =>
+  (must(await who.admin.client.get(`/api/sites/${fx.siteA1}/consents`), 200, 'read consents').body.consents as { kind: string; version: number }[]).find((c) => c.kind === kind)!.version
+const constraintsVersion = async () => must(await who.admin.client.get(`/api/sites/${fx.siteA1}/consents`), 200, 'read consents').body.constraints.version as number
 const optionVersion = async () => must(await who.admin.client.get(`/api/options/${fx.optionId}`), 200, 'read option').body.version as number
 
 /** One recipe per table row, in the order they run: reads, then writes, then destructive calls. */
@@ -249,6 +252,7 @@ const RECIPES: Record<string, Recipe> = {
   'GET /api/sites/:id/attachments': {},
   'GET /api/attachments/:id': {},
   'GET /api/sites/:id/options': {},
+  'GET /api/sites/:id/consents': {},
   'GET /api/options/:id': {},
   'GET /api/options/:id/assessments': {},
   'GET /api/assessments/:id': {},
@@ -327,6 +331,8 @@ const RECIPES: Record<string, Recipe> = {
   'POST /api/sites/:id/attachments': { prepare: () => ({ upload: { file: { name: 'pool.png', type: 'image/png', data: PNG } } }) },
   'POST /api/sites/:id/options': { prepare: (caller) => ({ body: optionBody({ name: `Option by ${caller}` }) }) },
   'PATCH /api/options/:id': { prepare: async (caller) => ({ body: { version: await optionVersion(), notes: `Tuned by ${caller}` } }) },
+  'PATCH /api/sites/:id/consents/:kind': { prepare: async (caller) => ({ params: { kind: 'heritage' }, body: { version: await consentVersion('heritage'), notes: `Listed-building search by ${caller}` } }) },
+  'PATCH /api/sites/:id/constraints': { prepare: async () => ({ body: { version: await constraintsVersion(), nearestDwelling_m: 180 } }) },
   'POST /api/options/:id/assessments': { prepare: () => ({ body: {} }) },
   'POST /api/options/:id/sweep/save': { prepare: (caller) => ({ body: { throatDiameter_m: 0.45, units: 2, throatDepth_m: 2.5, name: `Sweep point saved by ${caller}` } }) },
   'POST /api/sites/:id/comments': { prepare: (caller) => ({ body: { body: `Comment from ${caller}`, assessmentId: fx.assessmentId } }) },

@@ -7,6 +7,8 @@ export function reviewDecidedMail(v: {
   decisionLabel: string
   reason: string
   conditions: string | null
+  /** "requires: flood-risk permit granted", or '' for none. */
+  requires?: string
   link: string
 }): RenderedMail {
   const who = v.deciderName ?? 'The reviewer'
@@ -14,6 +16,7 @@ export function reviewDecidedMail(v: {
     { p: `${who} has recorded a decision on ${v.siteName}: ${v.decisionLabel.toLowerCase()}.` },
     { quote: v.reason, label: 'Reason' },
     ...(v.conditions ? [{ quote: v.conditions, label: 'Conditions' }] : []),
+    ...(v.requires ? [{ p: `The decision ${v.requires}.` }] : []),
     { link: v.link, label: 'Open the review' },
   ])
 }

@@ -7,15 +7,15 @@ import { REVIEW_DECIDE_ROLES, ReviewDecisionSchema, ReviewParamsSchema, type Rev
 export default defineEventHandler(async (event): Promise<ReviewChangeDto> => {
   const { id } = await getValidatedRouterParams(event, validator(ReviewParamsSchema, 'params'))
   const { user, site } = await requireSite(event, id, REVIEW_DECIDE_ROLES)
-  const { decision, reason, conditions } = await readValidatedJson(event, ReviewDecisionSchema, BODY_LIMITS.form)
-  const change = await decideReview(useDb(), { site, user, decision, reason, conditions: conditions ?? null, now: nowIso(), mailer: useMailer() })
+  const { decision, reason, conditions, requiredConsents } = await readValidatedJson(event, ReviewDecisionSchema, BODY_LIMITS.form)
+  const change = await decideReview(useDb(), { site, user, decision, reason, conditions: conditions ?? null, requiredConsents, now: nowIso(), mailer: useMailer() })
   await audit({
     orgId: site.org_id,
     userId: user.id,
     action: 'review.decided',
     targetType: 'site',
     targetId: site.id,
-    detail: { before: { state: change.event.from }, after: { state: change.event.to, reason, conditions: conditions ?? null }, assessmentId: change.event.assessmentId, reviewEventId: change.event.id },
+    detail: { before: { state: change.event.from }, after: { state: change.event.to, reason, conditions: conditions ?? null, requiredConsents }, assessmentId: change.event.assessmentId, reviewEventId: change.event.id },
   })
   return change
 })
