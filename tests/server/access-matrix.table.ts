@@ -119,6 +119,9 @@ export const ACCESS_TABLE: Record<string, Row> = {
   'POST /api/sites/:id/attachments': SITE_WRITERS,
   'GET /api/attachments/:id': SITE_READERS,
   'DELETE /api/attachments/:id': SITE_WRITERS,
+  'GET /api/sites/:id/commissioning': SITE_READERS,
+  'POST /api/sites/:id/commissioning': SITE_WRITERS,
+  'DELETE /api/commissioning/:id': SITE_WRITERS,
   'GET /api/sites/:id/options': SITE_READERS,
   'POST /api/sites/:id/options': SITE_WRITERS,
 
