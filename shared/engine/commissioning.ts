@@ -6,7 +6,7 @@
 import type { AssessInput } from '../schemas/assess'
 import { isaPressure } from './atmosphere'
 import { EngineInputError } from './errors'
-import { type SourcedValue } from './defaults'
+import type { SourcedValue } from './defaults'
 import { flowFromDifferential, manometerDifferential, type ReadingUnit } from './metering'
 import { oxygenSaturation } from './oxygenSaturation'
 import { runBasis } from './runBasis'
