@@ -10,6 +10,7 @@ import type { Reach } from '../../shared/schemas/site'
 import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type SummaryLinkState } from '../../shared/schemas/summaryLink'
 import { CAUTIONS } from '../../shared/utils/cautions'
 import { howSureOf, howSureSentences } from '../../shared/utils/howSure'
+import { latestCommissioningLine } from './commissioning'
 import { conflict } from './errors'
 import { hashLinkToken, linkTokenMatches, newLinkToken } from './tokens'
 
@@ -89,6 +90,8 @@ export interface SummarySources {
     /** The acceptable oxygen loss the run used, mg/L; null when the stored input does not say. */
     acceptableOxygenLoss_mgL: number | null
   } | null
+  /** The latest commissioning record's plain line, if the scheme has been measured. */
+  commissioning?: string | null
 }
 
 /** The landowner summary from its sources: only the named fields, no ids, no e-mail addresses. */
@@ -159,6 +162,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
     cautions,
     contact: { organisationName: s.organisationName, preparedBy: s.creatorName },
     expiresAt: s.expiresAt,
+    commissioning: s.commissioning ?? null,
   }
 }
 
@@ -205,6 +209,7 @@ export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkR
     currency: { code: org.currency_code, symbol: org.currency_symbol },
     creatorName: creator?.name ?? null,
     expiresAt: link.expires_at,
+    commissioning: (await latestCommissioningLine(db, site.id))?.sentence ?? null,
     review: { state: review?.state ?? 'draft', reason: review?.reason ?? null, conditions: review?.conditions ?? null, decidedAt: review?.decided_at ?? null },
     assessment: row
       ? {

@@ -9,6 +9,7 @@ import { IdSchema, fromDigits } from './common'
 import type { Currency } from './organisation'
 import type { ReservedFlow } from './site'
 import type { HowSure } from '../utils/howSure'
+import type { CommissioningLine } from './commissioning'
 import type { Role } from '../utils/roles'
 
 /** Every state a site's review can be in; a site nobody has submitted is `draft`. */
@@ -213,4 +214,6 @@ export interface ReviewBriefDto {
   flags: { id: FlagId; raised: boolean; level: FlagLevel; safety: boolean; shareOfTime: number | null; reason: string }[]
   /** Whether the scheme pays at the export price, amounts in the site's organisation's currency. */
   money: StoredMoney & Pick<MoneySummary, 'pays' | 'shortfalls' | 'breakEvenPrice'> & { currency: Currency }
+  /** The site's latest commissioning record against its assessment, in a line; null before the scheme is measured. */
+  commissioning: CommissioningLine | null
 }

@@ -143,4 +143,6 @@ export interface PublicSummaryDto {
   cautions: { title: string; text: string }[]
   contact: { organisationName: string; preparedBy: string | null }
   expiresAt: string
+  /** The latest commissioning record in one plain line ("Measured on 12 May 2027: performs as assessed"); null before the scheme is measured. */
+  commissioning: string | null
 }

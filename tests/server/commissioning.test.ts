@@ -93,6 +93,24 @@ describe('POST /api/sites/[id]/commissioning', () => {
   })
 })
 
+describe('the latest record in the reviewer\'s brief and the landowner summary', () => {
+  it('shows the newest measurement\'s verdicts in a line', async () => {
+    const site = await siteWithAssessment(t.engineer.client, t.orgId, 'Briefed weir')
+    const link = await t.engineer.client.post(`/api/sites/${site.siteId}/summary-links`, { expiresIn_d: 7 })
+    const before = await t.engineer.client.get(`/api/public/summary/${link.body.token}`)
+    expect(before.body.commissioning).toBeNull()
+    const made = await post(t.engineer.client, { assessmentId: site.assessmentId, measuredAt: '2026-05-12T10:30' }, site.siteId)
+    expect(made.status).toBe(201)
+    expect((await t.engineer.client.post(`/api/sites/${site.siteId}/review/submit`, { assessmentId: site.assessmentId })).status).toBe(200)
+    const brief = await t.reviewer.client.get(`/api/sites/${site.siteId}/review/brief`)
+    expect(brief.status).toBe(200)
+    expect(brief.body.commissioning).toMatchObject({ measuredAt: '2026-05-12T10:30', measuredBy: 'Ada Fellgate', flow: made.body.result.flowVerdict, oxygen: made.body.result.oxygenVerdict })
+    expect(brief.body.commissioning.sentence).toMatch(/^Measured on 12 May 2026: /)
+    const after = await t.engineer.client.get(`/api/public/summary/${link.body.token}`)
+    expect(after.body.commissioning).toBe(brief.body.commissioning.sentence)
+  })
+})
+
 describe('DELETE /api/commissioning/[id]', () => {
   it('marks the record deleted for engineers and admins, 403 for a reviewer, 404 after', async () => {
     const made = await post(t.engineer.client, { measuredAt: '2026-04-01T08:00' })
