@@ -2,11 +2,12 @@
 // `node scripts/e2e.mjs tests/e2e/commissioning.e2e.ts` after `npm run build`): the engineer sees the
 // demo record's verdict, is told about a bad reading and an upstream oxygen at saturation, watches the
 // preview, stores a record and finds it again after a reload; the reviewer reads the records without
-// a form and sees the latest verdict in the brief.
+// a form and sees the latest verdict in the brief; the landowner's summary says it in one line.
 // Drives Debian's chromium through playwright-core, saves screenshots to tests/e2e/screenshots/ and
 // exits non-zero on the first failed check or on any console error, page error or failed request.
 import assert from 'node:assert/strict'
 import type { Browser, Page } from 'playwright-core'
+import { DEMO_SUMMARY_TOKEN } from '../../db/demo-scenario'
 import { BASE, expectRefusal, openPage, runJourney, shot, signIn } from './journey'
 
 const ENGINEER = 'idris@tarnbeck.example'
@@ -104,7 +105,18 @@ async function reviewerJourney(browser: Browser, siteId: number) {
   await page.context().close()
 }
 
+/** The landowner's summary (no sign-in) says the latest measurement in one plain line. */
+async function landownerLine(browser: Browser) {
+  const page = await openPage(browser)
+  await page.goto(`${BASE}/s/${DEMO_SUMMARY_TOKEN}`)
+  await page.waitForSelector('[data-testid=summary-commissioning]')
+  assert.match(await page.innerText('[data-testid=summary-commissioning]'), /Measured on 20 November 2026: /)
+  await shot(page, 'c05-commissioning-landowner')
+  await page.context().close()
+}
+
 await runJourney('commissioning', async (browser) => {
   const siteId = await engineerJourney(browser)
   await reviewerJourney(browser, siteId)
+  await landownerLine(browser)
 })
