@@ -85,6 +85,9 @@ export function manometerFlow(m: ManometerFlowInput): ManometerFlow {
     dp = Math.abs(manometerDifferential(m.reading_m, m.manometerDensity_kgm3, rho))
   }
   const D = m.upstreamTapDiameter_m
+  if (D !== null && !(D > m.throatDiameter_m)) {
+    throw new EngineInputError('upstreamTapDiameter_m', `must be larger than the unit's throat (${m.throatDiameter_m} m): the upstream tap sits where the bore is wider`)
+  }
   const beta = D !== null && D > 0 ? m.throatDiameter_m / D : 0
   // flowFromDifferential takes β from the two diameters; a tap in the head pool is an infinite bore.
   const flow = flowFromDifferential(m.dischargeCoefficient, m.throatDiameter_m, D ?? Number.POSITIVE_INFINITY, dp, rho)

@@ -1,5 +1,8 @@
+import fc from 'fast-check'
 import { beforeAll, describe, expect, it } from 'vitest'
+import { CommissioningInputSchema } from '../../shared/schemas/commissioning'
 import type { Client } from './client'
+import { bodiesFor, expectFieldRefusal, expectSafe, orgRows, refusedBodies, refuses, show } from './hostile-arbitraries'
 import { makePeople, siteWithAssessment } from './review-helpers'
 import { createSite } from './sites-helpers'
 
@@ -90,6 +93,41 @@ describe('POST /api/sites/[id]/commissioning', () => {
     expect((await post(t.outsider.client)).status).toBe(404)
     expect((await t.outsider.client.get(`/api/sites/${siteId}/commissioning`)).status).toBe(404)
     expect((await t.reviewer.client.get(`/api/sites/${siteId}/commissioning`)).status).toBe(200)
+  })
+})
+
+describe('hostile bodies', () => {
+  it('a body the schema refuses is a 400 naming its field and stores nothing; one it accepts is stored or refused with a 4xx, never a 5xx', async () => {
+    const tables = ['commissioning_records']
+    const before = orgRows(t.orgId, tables)
+    await fc.assert(
+      fc.asyncProperty(refusedBodies(CommissioningInputSchema, bodiesFor(body())), async (b) => {
+        const res = await t.engineer.client.request('POST', `/api/sites/${siteId}/commissioning`, JSON.stringify(b))
+        expectFieldRefusal(res, show(b), b)
+      }),
+      { numRuns: 60 },
+    )
+    expect(orgRows(t.orgId, tables)).toEqual(before)
+    // Accepted bodies at the edges of every range: the engine answers or refuses a field, never fails.
+    const edge = (min: number, max: number) => fc.oneof(fc.constantFrom(min, max), fc.double({ min, max, noNaN: true }))
+    const accepted = fc.record({
+      riverFlow_m3s: edge(1e-6, 1_000_000), waterTemp_C: edge(0, 40), reading_m: edge(1e-6, 20),
+      upstreamOxygen_mgL: edge(0, 30), downstreamOxygen_mgL: edge(0, 30), upstreamTapDiameter_m: fc.oneof(fc.constant(null), edge(1e-6, 20)),
+      dischargeCoefficient: fc.oneof(fc.constant(null), edge(1e-6, 1)), manometerFluid: fc.constantFrom('mercury', 'gauge-oil', 'water'),
+      readingUnit: fc.constantFrom('m-of-water', 'm-of-manometer-fluid'), oxygenMeasuredAt: fc.constantFrom('unit-outlet', 'below-weir'),
+    }).map((over) => body(over)).filter((b) => !refuses(CommissioningInputSchema, b))
+    await fc.assert(
+      fc.asyncProperty(accepted, async (b) => {
+        const res = await t.engineer.client.request('POST', `/api/sites/${siteId}/commissioning`, JSON.stringify(b))
+        expectSafe(res, show(b))
+        expect([201, 422], show(res.body)).toContain(res.status)
+        if (res.status === 201) {
+          const r = res.body.result
+          for (const x of [r.measured.flow.flow_m3s, r.measured.oxygen.deficitClosed, r.measured.oxygen.saturation_mgL, r.assessed.unitFlow_m3s, r.assessed.downstreamOxygen_mgL]) expect(Number.isFinite(x), show(r)).toBe(true)
+        }
+      }),
+      { numRuns: 25 },
+    )
   })
 })
 
