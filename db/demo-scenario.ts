@@ -400,3 +400,27 @@ export const DEMO_CONSENTS: readonly DemoConsents[] = [
     ],
   },
 ]
+
+// ——— Commissioning ———
+// The two-unit leat scheme at Hollin Mill weir, built and measured one October morning (invented):
+// a mercury manometer on the first unit's throat, oxygen in the head pool and below the weir after
+// mixing. It performs as assessed.
+
+/** The demo commissioning record, as the form would send it (the assessment is the option's stored one). */
+export const DEMO_COMMISSIONING = {
+  siteName: 'Hollin Mill weir',
+  optionName: 'Two units in the old leat',
+  record: {
+    measuredAt: '2026-10-14T11:20',
+    measuredBy: 'Cerys Dunmoor (site technician)',
+    riverFlow_m3s: 6.2,
+    waterTemp_C: 10.5,
+    manometerFluid: 'mercury' as const,
+    reading_m: 0.872,
+    readingUnit: 'm-of-manometer-fluid' as const,
+    upstreamOxygen_mgL: 9.7,
+    downstreamOxygen_mgL: 10.45,
+    oxygenMeasuredAt: 'below-weir' as const,
+    notes: 'Unit 1 only, unit 2 shut for the reading. Manometer read from the bank platform with the tappings valved; oxygen by handheld probe, calibrated that morning, in the head pool and 40 m below the weir.',
+  },
+}

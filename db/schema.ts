@@ -366,6 +366,39 @@ export interface SiteConstraintsTable {
   updated_at: ColumnType<string, string | undefined, string>
 }
 
+/** Measurements on a built scheme against the assessment they check (migration 0016). */
+export interface CommissioningRecordsTable {
+  id: Generated<number>
+  site_id: number
+  org_id: number
+  option_id: number | null
+  assessment_id: number | null
+  measured_at: string
+  measured_by: string
+  entered_by: number | null
+  river_flow_m3s: number
+  water_temp_c: number
+  manometer_fluid: string
+  manometer_density_kgm3: number
+  reading_m: number
+  reading_unit: string
+  upstream_tap_diameter_m: number | null
+  discharge_coefficient: number | null
+  upstream_oxygen_mgl: number
+  downstream_oxygen_mgl: number
+  oxygen_measured_at: string
+  notes: ColumnType<string, string | undefined, string>
+  /** Verdict kinds: as-assessed, below, above, not-comparable. */
+  flow_verdict: string
+  oxygen_verdict: string
+  /** JSON: the whole CommissioningResult (shared/engine/commissioning.ts). */
+  result_json: string
+  engine_version: string
+  created_at: CreatedAt
+  deleted_at: string | null
+  deleted_by: number | null
+}
+
 /** The whole database, as Kysely sees it. */
 export interface Database {
   users: UsersTable
@@ -392,6 +425,7 @@ export interface Database {
   summary_links: SummaryLinksTable
   site_consents: SiteConsentsTable
   site_constraints: SiteConstraintsTable
+  commissioning_records: CommissioningRecordsTable
 }
 
 export type UserRow = Selectable<UsersTable>
@@ -413,3 +447,4 @@ export type SummaryLinkRow = Selectable<SummaryLinksTable>
 export type OutboxRow = Selectable<OutboxTable>
 export type SiteConsentRow = Selectable<SiteConsentsTable>
 export type SiteConstraintsRow = Selectable<SiteConstraintsTable>
+export type CommissioningRecordRow = Selectable<CommissioningRecordsTable>

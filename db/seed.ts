@@ -8,6 +8,7 @@ import { OptionInputSchema } from '../shared/schemas/option'
 import type { Database } from './schema'
 import { seedReviewDemo } from './seedReview'
 import { seedConsentsDemo } from './seedConsents'
+import { seedCommissioningDemo } from './seedCommissioning'
 import { DEMO_ACCOUNTS, DEMO_CURRENCY, DEMO_ORGANISATION, DEMO_OPTIONS, DEMO_PASSWORD, DEMO_PENDING_ACCOUNT, DEMO_SITES, DEMO_VERIFIED_AT, demoDailyFlows, type DemoOption, type DemoSite } from './demo-scenario'
 
 /** Hashes a password the same way the server does (nuxt-auth-utils' scrypt). */
@@ -55,6 +56,7 @@ export async function seedDemo(db: Kysely<Database>, hash: PasswordHasher): Prom
     for (const demo of DEMO_OPTIONS) created += await seedOption(trx, org.id, engineerId, demo)
     created += await seedReviewDemo(trx, org.id)
     created += await seedConsentsDemo(trx, org.id, engineerId)
+    created += await seedCommissioningDemo(trx, org.id)
     if (created) {
       await trx.insertInto('audit_log').values({ org_id: org.id, user_id: null, action: 'demo.seeded', detail: JSON.stringify({ accounts: DEMO_ACCOUNTS.length, sites: DEMO_SITES.length }) }).execute()
     }

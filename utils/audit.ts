@@ -40,7 +40,7 @@ export const AUDIT_ACTION_HINTS = [
 ] as const
 
 /** Target types offered in the filter. */
-export const AUDIT_TARGET_HINTS = ['site', 'option', 'assessment', 'attachment', 'user', 'organisation', 'invitation', 'summary_link'] as const
+export const AUDIT_TARGET_HINTS = ['site', 'option', 'assessment', 'attachment', 'user', 'organisation', 'invitation', 'summary_link', 'commissioning'] as const
 
 /** One line of an entry's details: a field, and its value before and after where the entry has both. */
 export interface AuditDetailRow {

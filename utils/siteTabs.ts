@@ -1,7 +1,7 @@
 // The sections of the site page and which one the address asks for.
 /** A section of the site page. */
 export type SiteTab = 'overview' | 'hydrology' | 'months' | 'options' | 'review' | 'sharing' | 'attachments'
-  | 'consents'
+  | 'consents' | 'commissioning'
 
 /** Sections in the order shown. */
 export const SITE_TABS: readonly { id: SiteTab; label: string }[] = [
@@ -13,6 +13,7 @@ export const SITE_TABS: readonly { id: SiteTab; label: string }[] = [
   { id: 'review', label: 'Review' },
   { id: 'sharing', label: 'Landowner links' },
   { id: 'attachments', label: 'Photos and documents' },
+  { id: 'commissioning', label: 'Commissioning' },
 ]
 
 /** The section named by `?tab=`, or the overview. */

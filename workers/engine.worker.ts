@@ -6,6 +6,8 @@
 // input they built from the database; the hydrology tab posts a site's stored days. Failures come back as values: an Error loses its class and
 // fields across the thread boundary.
 import { assess, assessWithUncertainty } from '../shared/engine/assess'
+import { commissioningCheck, type CommissioningMeasurement, type CommissioningResult } from '../shared/engine/commissioning'
+import { ENGINE_VERSION } from '../shared/engine/version'
 import type { AssessResult } from '../shared/engine/results'
 import { EngineInputError } from '../shared/engine/errors'
 import { fdcFromRecord, fdcStats, monthlyFdcs, reservedFlow, type DailyFlow, type ReservedFlowSetting } from '../shared/engine/hydrology'
@@ -32,6 +34,7 @@ export type EngineTask = (
   | { kind: 'sweep-input'; input: AssessInput; grid: SweepGrid }
   | { kind: 'design-at'; input: AssessInput; throatDiameter_m: number; units: number; throatDepth_m: number }
   | { kind: 'record-hydrology'; days: DailyFlow[]; reservedFlow: ReservedFlowSetting }
+  | { kind: 'commissioning-check'; input: AssessInput; measurement: CommissioningMeasurement }
 ) & { answer?: 'value' | 'json' }
 
 /** What each kind of task answers. */
@@ -45,6 +48,8 @@ export interface EngineResults {
   'design-at': AssessInput['option']
   /** A site's stored record as the hydrology tab shows it: its curve for charting, statistics, months, reserved flow. */
   'record-hydrology': Pick<HydrologyDto, 'points' | 'stats' | 'monthly' | 'count'> & { reservedFlow: number }
+  /** A commissioning measurement against a stored assessment's input: the engine's state at that one flow, with this engine's version. */
+  'commissioning-check': CommissioningResult & { engineVersion: string }
 }
 
 /** A field and what is wrong with it. */
@@ -112,6 +117,8 @@ function compute(task: EngineTask): EngineResults[EngineTask['kind']] {
       return sweep(task.input, task.grid)
     case 'design-at':
       return withDesign(task.input, task.throatDiameter_m, task.units, task.throatDepth_m).option
+    case 'commissioning-check':
+      return { ...commissioningCheck(task.input, task.measurement), engineVersion: ENGINE_VERSION }
     case 'record-hydrology': {
       const fdc = fdcFromRecord(task.days)
       const counts = new Array<number>(12).fill(0)

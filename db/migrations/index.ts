@@ -13,6 +13,7 @@ import * as m0011 from './0011_assessment_money'
 import * as m0012 from './0012_assessment_uncertainty'
 import * as m0013 from './0013_assessment_baseline'
 import * as m0015 from './0015_consents'
+import * as m0016 from './0016_commissioning'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
@@ -31,6 +32,7 @@ export const migrations: Record<string, Migration> = {
   '0012_assessment_uncertainty': m0012,
   '0013_assessment_baseline': m0013,
   '0015_consents': m0015,
+  '0016_commissioning': m0016,
 }
 
 /** Kysely migration provider over the static list above. */

@@ -29,6 +29,7 @@ import { organisationCurrency } from './organisations'
 import { commentMentionMail } from './mail/templates/commentMention'
 import { reviewDecidedMail } from './mail/templates/reviewDecided'
 import { reviewSubmittedMail } from './mail/templates/reviewSubmitted'
+import { latestCommissioningLine } from './commissioning'
 import { commentPointsAt, findMentions, reviewActionsIn, reviewBrief, reviewTransition } from './review'
 import { inTransaction } from './transaction'
 
@@ -345,6 +346,6 @@ export async function loadReviewBrief(db: Kysely<Database>, site: SiteRow): Prom
   const result = JSON.parse(payload.result_json) as AssessResult
   const setting = (payload.reserved_json ? JSON.parse(payload.reserved_json) : JSON.parse(site.reserved_flow)) as ReservedFlow
   const brief = reviewBrief(result, setting, payload.acceptable_loss_mgl)
-  const [currency, consents] = await Promise.all([organisationCurrency(db, site.org_id), loadConsentSummary(db, site.id)])
-  return { siteId: site.id, siteName: site.name, assessment, ...brief, money: { ...brief.money, currency }, consents }
+  const [currency, consents, commissioning] = await Promise.all([organisationCurrency(db, site.org_id), loadConsentSummary(db, site.id), latestCommissioningLine(db, site.id)])
+  return { siteId: site.id, siteName: site.name, assessment, ...brief, money: { ...brief.money, currency }, consents, commissioning }
 }

@@ -12,6 +12,7 @@ import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type Sum
 import { CAUTIONS } from '../../shared/utils/cautions'
 import { howSureOf, howSureSentences } from '../../shared/utils/howSure'
 import { loadConsentSummary } from './consents'
+import { latestCommissioningLine } from './commissioning'
 import { conflict } from './errors'
 import { hashLinkToken, linkTokenMatches, newLinkToken } from './tokens'
 
@@ -93,6 +94,8 @@ export interface SummarySources {
   } | null
   /** The consents list in one plain line, with the gauging-station warning. */
   permissions?: { line: string; gaugingWarning: string | null } | null
+  /** The latest commissioning record's plain line, if the scheme has been measured. */
+  commissioning?: string | null
 }
 
 /** The landowner summary from its sources: only the named fields, no ids, no e-mail addresses. */
@@ -167,6 +170,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
     contact: { organisationName: s.organisationName, preparedBy: s.creatorName },
     expiresAt: s.expiresAt,
     permissions: s.permissions ?? null,
+    commissioning: s.commissioning ?? null,
   }
 }
 
@@ -215,6 +219,7 @@ export async function loadPublicSummary(db: Kysely<Database>, link: SummaryLinkR
     creatorName: creator?.name ?? null,
     expiresAt: link.expires_at,
     permissions: { line: consents.line, gaugingWarning: consents.gaugingWarning },
+    commissioning: (await latestCommissioningLine(db, site.id))?.sentence ?? null,
     review: { state: review?.state ?? 'draft', reason: review?.reason ?? null, conditions: review?.conditions ?? null, decidedAt: review?.decided_at ?? null },
     assessment: row
       ? {

@@ -1,6 +1,7 @@
 import type { H3Event } from 'h3'
 import { assessmentById } from '../domain/assessments'
 import { liveAttachmentById } from '../domain/attachments'
+import { liveCommissioningRecordById } from '../domain/commissioning'
 import { grantedSiteRole, roleIn } from '../domain/members'
 import { liveOptionById } from '../domain/options'
 import { siteById } from '../domain/sites'
@@ -79,3 +80,12 @@ export async function requireAssessment(event: H3Event, assessmentId: number, ro
   return { user, role, site, option, assessment }
 }
 
+
+/** Loads a live commissioning record of a live site and checks the role as `requireSite` does; 404 otherwise. */
+export async function requireCommissioningRecord(event: H3Event, recordId: number, roles: readonly Role[]) {
+  await requireUser(event)
+  const record = await liveCommissioningRecordById(useDb(), recordId)
+  if (!record) throw notFoundError('Commissioning record not found')
+  const { user, role, site } = await requireSite(event, record.site_id, roles, { notFound: 'Commissioning record not found' })
+  return { user, role, site, record }
+}

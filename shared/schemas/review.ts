@@ -12,6 +12,7 @@ import type { ReservedFlow } from './site'
 import type { HowSure } from '../utils/howSure'
 import { CONSENT_KINDS, type ConsentKind } from '../utils/consents'
 import type { ConsentSummaryDto } from './consent'
+import type { CommissioningLine } from './commissioning'
 import type { Role } from '../utils/roles'
 
 /** Every state a site's review can be in; a site nobody has submitted is `draft`. */
@@ -231,4 +232,6 @@ export interface ReviewBriefDto {
   money: StoredMoney & Pick<MoneySummary, 'pays' | 'shortfalls' | 'breakEvenPrice'> & { currency: Currency }
   /** The site's consents list in brief: counts by status, refused and outstanding permissions, the gauging and eel checks. */
   consents: ConsentSummaryDto
+  /** The site's latest commissioning record against its assessment, in a line; null before the scheme is measured. */
+  commissioning: CommissioningLine | null
 }

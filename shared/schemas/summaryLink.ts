@@ -147,4 +147,6 @@ export interface PublicSummaryDto {
   expiresAt: string
   /** The site's consents list in one plain line ("Permissions: 3 of 10 granted, 2 applied for, 1 refused (flood-risk permit)"), and the gauging-station warning; null when the sources gave none. */
   permissions: { line: string; gaugingWarning: string | null } | null
+  /** The latest commissioning record in one plain line ("Measured on 12 May 2027: performs as assessed"); null before the scheme is measured. */
+  commissioning: string | null
 }

@@ -127,7 +127,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.equal(json.status, 200)
   assert.equal(json.cache, 'no-store', 'the summary is never cached')
   const body = json.body as Record<string, unknown>
-  assert.deepEqual(Object.keys(body).sort(), ['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'permissions', 'review', 'river', 'scheme', 'site'])
+  assert.deepEqual(Object.keys(body).sort(), ['basis', 'cautions', 'commissioning', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'permissions', 'review', 'river', 'scheme', 'site'])
   const shape = (o: unknown) => Object.keys(o as object).sort()
   assert.deepEqual(shape(body.site), ['grossHead_m', 'location', 'name', 'reach', 'riverName'])
   assert.deepEqual(shape(body.scheme), ['description', 'optionName', 'outletDiameter_m', 'throatDiameter_m', 'units'])

@@ -111,6 +111,11 @@ async function throwawaySite(caller: Caller) {
 }
 
 const uploadRecord = () => who.admin.client.upload(`/api/sites/${fx.siteA1}/flow-record`, { file: { name: 'a1.csv', type: 'text/csv', data: FLOW_CSV } })
+/** A commissioning record of A1 against its assessment. */
+const commissioningBody = (caller: Caller) => ({
+  assessmentId: fx.assessmentId, measuredAt: '2026-06-01T11:00', measuredBy: `Reading taken for ${caller}`, riverFlow_m3s: 4, waterTemp_C: 12,
+  manometerFluid: 'mercury', reading_m: 0.1, upstreamOxygen_mgL: 7, downstreamOxygen_mgL: 8, oxygenMeasuredAt: 'below-weir',
+})
 const uploadPng = () => who.admin.client.upload(`/api/sites/${fx.siteA1}/attachments`, { file: { name: 'crest.png', type: 'image/png', data: PNG } })
 const reviewState = async () => must(await who.admin.client.get(`/api/sites/${fx.siteA1}/review`), 200, 'review state').body.state as string
 const submitA1 = async () => must(await who.admin.client.post(`/api/sites/${fx.siteA1}/review/submit`, { assessmentId: fx.assessmentId }), 200, 'submit A1')
@@ -250,6 +255,7 @@ const RECIPES: Record<string, Recipe> = {
   'GET /api/sites/:id/flow-record': {},
   'GET /api/sites/:id/flow-record.csv': {},
   'GET /api/sites/:id/attachments': {},
+  'GET /api/sites/:id/commissioning': {},
   'GET /api/attachments/:id': {},
   'GET /api/sites/:id/options': {},
   'GET /api/sites/:id/consents': {},
@@ -330,6 +336,7 @@ const RECIPES: Record<string, Recipe> = {
   'POST /api/sites/:id/flow-record': { prepare: () => ({ upload: { file: { name: 'again.csv', type: 'text/csv', data: FLOW_CSV } } }) },
   'POST /api/sites/:id/attachments': { prepare: () => ({ upload: { file: { name: 'pool.png', type: 'image/png', data: PNG } } }) },
   'POST /api/sites/:id/options': { prepare: (caller) => ({ body: optionBody({ name: `Option by ${caller}` }) }) },
+  'POST /api/sites/:id/commissioning': { prepare: (caller) => ({ body: commissioningBody(caller) }) },
   'PATCH /api/options/:id': { prepare: async (caller) => ({ body: { version: await optionVersion(), notes: `Tuned by ${caller}` } }) },
   'PATCH /api/sites/:id/consents/:kind': { prepare: async (caller) => ({ params: { kind: 'heritage' }, body: { version: await consentVersion('heritage'), notes: `Listed-building search by ${caller}` } }) },
   'PATCH /api/sites/:id/constraints': { prepare: async () => ({ body: { version: await constraintsVersion(), nearestDwelling_m: 180 } }) },
@@ -364,6 +371,9 @@ const RECIPES: Record<string, Recipe> = {
     },
   },
   'DELETE /api/attachments/:id': { prepare: async () => ({ params: { id: must(await uploadPng(), 201, 'attachment before delete').body.id } }) },
+  'DELETE /api/commissioning/:id': {
+    prepare: async (caller) => ({ params: { id: must(await who.admin.client.post(`/api/sites/${fx.siteA1}/commissioning`, commissioningBody(caller)), 201, 'record before delete').body.id } }),
+  },
   'DELETE /api/summary-links/:id': {
     prepare: async () => ({ params: { id: must(await who.admin.client.post(`/api/sites/${fx.siteA1}/summary-links`, {}), 201, 'link before revoke').body.id } }),
   },

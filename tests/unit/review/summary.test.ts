@@ -31,7 +31,7 @@ describe('buildPublicSummary', () => {
   const s = buildPublicSummary(sources())
 
   it('has exactly the landowner fields and no ids', () => {
-    expect(Object.keys(s).sort()).toEqual(['basis', 'cautions', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'permissions', 'review', 'river', 'scheme', 'site'])
+    expect(Object.keys(s).sort()).toEqual(['basis', 'cautions', 'commissioning', 'contact', 'energy', 'expiresAt', 'howSure', 'money', 'permissions', 'review', 'river', 'scheme', 'site'])
     const keys: string[] = []
     const walk = (v: unknown) => {
       if (Array.isArray(v)) v.forEach(walk)

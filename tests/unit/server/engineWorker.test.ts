@@ -6,6 +6,8 @@ import { Piscina } from 'piscina'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { bundleNodeWorker } from '../../../build/nodeWorker'
 import { assess, assessWithUncertainty } from '../../../shared/engine/assess'
+import { commissioningCheck } from '../../../shared/engine/commissioning'
+import { ENGINE_VERSION } from '../../../shared/engine/version'
 import { fdcFromRecord, fdcStats, reservedFlow } from '../../../shared/engine/hydrology'
 import { sweep } from '../../../shared/engine/sweep'
 import runEngineTask, { type EngineOutcome, type EngineTask } from '../../../workers/engine.worker'
@@ -50,6 +52,18 @@ describe('runEngineTask', () => {
     expect(value.points).toHaveLength(200)
     expect(value.monthly.map((m) => m.month)).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12])
     expect(value.monthly.reduce((n, m) => n + m.days, 0)).toBe(fdc.count)
+  })
+
+  it('checks a commissioning measurement against a stored input, and answers 422 naming the field it refuses', () => {
+    const input = parse(draft())
+    const measurement = {
+      measuredAt: '2027-05-12T10:30', riverFlow_m3s: 8, waterTemp_C: 12, manometerFluid: 'mercury' as const, manometerDensity_kgm3: 13546,
+      reading_m: 0.1, readingUnit: 'm-of-manometer-fluid' as const, upstreamTapDiameter_m: null, dischargeCoefficient: null,
+      upstreamOxygen_mgL: 8.5, downstreamOxygen_mgL: 9.5, oxygenMeasuredAt: 'unit-outlet' as const,
+    }
+    expect(runEngineTask({ kind: 'commissioning-check', input, measurement })).toEqual({ ok: true, value: { ...commissioningCheck(input, measurement), engineVersion: ENGINE_VERSION } })
+    expect(runEngineTask({ kind: 'commissioning-check', input, measurement: { ...measurement, upstreamOxygen_mgL: 12 } }))
+      .toMatchObject({ ok: false, status: 422, message: expect.stringMatching(/^upstreamOxygen_mgL: is at or above saturation/) })
   })
 
   it('answers 400 naming the body for broken JSON and for prototype keys', () => {
