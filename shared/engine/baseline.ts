@@ -10,6 +10,7 @@ import {
 } from './baselineUnits'
 import { G } from './constants'
 import { annualEnergyFromFdc, annualEnergyFromSample, DAYS_IN_MONTH, loadFigures, type AnnualEnergy, type PowerAt } from './energy'
+import { handsOffOnly, leftInRiver, riverForTake, type FlowRules } from './flowRules'
 import { flowAtExceedance } from './hydrology'
 import { annualOpex, lcoe, npv, simplePayback } from './money'
 import { downstreamFromDeficitRatio, mixTwoStreams } from './oxygen'
@@ -30,6 +31,8 @@ export interface BaselineUnit {
   headLossFraction: number
   generatorEfficiency: number
   reserved_m3s: number
+  /** The same flow rules as the venturi scheme's (same site, same rules). */
+  rules: FlowRules
   /** The site's head table, sorted by flow once. */
   heads: readonly HeadPoint[]
   grossHead_m: number
@@ -40,7 +43,7 @@ export interface BaselineUnit {
 /** The baseline at one river flow. */
 export interface BaselineFlow {
   riverFlow_m3s: number
-  /** Water through the unit: min(river − reserved, design flow), 0 below the kind's least flow. */
+  /** Water through the unit: min(what the flow rules allow, design flow), 0 below the kind's least flow. */
   unitFlow_m3s: number
   grossHead_m: number
   netHead_m: number
@@ -49,20 +52,21 @@ export interface BaselineFlow {
   power_W: number
 }
 
-/** Design flow by the default rule: Q30 of the annual curve less the reserved flow, never below 0 (common practice, no source). */
-export function defaultDesignFlow(h: SiteHydrology, reserved_m3s: number): number {
-  return Math.max(0, flowAtExceedance(h.fdc, BASELINE_DEFAULTS.designFlowExceedance.value) - reserved_m3s)
+/** Design flow by the default rule: what the flow rules allow at Q30 of the annual curve (Q30 less the reserved flow, never below 0, with only a hands-off flow; common practice, no source). */
+export function defaultDesignFlow(h: SiteHydrology, reserved_m3s: number, rules: FlowRules = handsOffOnly(reserved_m3s)): number {
+  const q30 = flowAtExceedance(h.fdc, BASELINE_DEFAULTS.designFlowExceedance.value)
+  return Math.max(0, q30 - leftInRiver(rules, q30))
 }
 
 /** Resolve the option's baseline at a site: curve, design flow (given, or the default rule), rating. */
-export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s: number): BaselineUnit {
+export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s: number, rules: FlowRules = handsOffOnly(reserved_m3s)): BaselineUnit {
   const b = input.option.baseline
   const heads = [...input.site.headTable].sort((a, c) => a.flow_m3s - c.flow_m3s)
-  const designFlow = b.designFlow_m3s ?? defaultDesignFlow(h, reserved_m3s)
+  const designFlow = b.designFlow_m3s ?? defaultDesignFlow(h, reserved_m3s, rules)
   const curve = EFFICIENCY_CURVES[b.kind]
   const unit: BaselineUnit = {
     kind: b.kind, curve, designFlow_m3s: designFlow, designFlowFromRule: b.designFlow_m3s === null,
-    headLossFraction: b.headLossFraction, generatorEfficiency: b.generatorEfficiency, reserved_m3s, heads,
+    headLossFraction: b.headLossFraction, generatorEfficiency: b.generatorEfficiency, reserved_m3s, rules, heads,
     grossHead_m: input.site.grossHead_m, rating_W: 0,
   }
   // Rated at full load at the most head the site gives and 4 °C water (the densest): no flow or month passes it.
@@ -73,12 +77,12 @@ export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s:
 }
 
 /**
- * The unit at one river flow: Q = min(river − reserved, Q_d), H_net = H_gross(river)·(1 − head-loss
+ * The unit at one river flow: Q = min(take allowed by the flow rules, Q_d), H_net = H_gross(river)·(1 − head-loss
  * fraction), P = η(Q/Q_d)·ρ·g·Q·H_net·η_gen (hydropower equation).
  */
 export function baselineFlow(u: BaselineUnit, river_m3s: number, tC: number): BaselineFlow {
   const river = Math.max(0, river_m3s)
-  const take = Math.max(0, river - u.reserved_m3s)
+  const take = Math.max(0, river - leftInRiver(u.rules, river))
   const H = headAtFlow(u.heads, river, u.grossHead_m)
   const netHead = H * (1 - u.headLossFraction)
   const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
@@ -90,7 +94,7 @@ export function baselineFlow(u: BaselineUnit, river_m3s: number, tC: number): Ba
 /** baselineFlow's power, W, in water of density `rho`, without building its record: the energy integral asks it once a day of the record. */
 function baselinePower(u: BaselineUnit, river_m3s: number, rho: number): number {
   const river = Math.max(0, river_m3s)
-  const take = Math.max(0, river - u.reserved_m3s)
+  const take = Math.max(0, river - leftInRiver(u.rules, river))
   const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
   const eta = q > 0 ? partLoadEfficiency(u.curve, q / u.designFlow_m3s) : 0
   if (!(eta > 0)) return 0
@@ -170,6 +174,8 @@ export interface BaselineContext {
   input: AssessInput
   h: SiteHydrology
   reserved_m3s: number
+  /** The venturi scheme's flow rules (default: the hands-off flow reserved_m3s only). */
+  rules?: FlowRules
   curves: readonly MonthCurve[]
   months: readonly Conditions[]
   annual: Conditions
@@ -188,7 +194,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
   const { input, h, curves, months, annual } = ctx
   const st = input.settings
   const b = input.option.baseline
-  const u = baselineUnit(input, h, ctx.reserved_m3s)
+  const u = baselineUnit(input, h, ctx.reserved_m3s, ctx.rules ?? handsOffOnly(ctx.reserved_m3s))
   const p_atm = isaPressure(input.site.altitude_m)
   const energy = baselineEnergy(u, h, curves, months, annual, st.availability)
   const meanGain = meanNetGain(u, input.site, p_atm, ctx.states, months)
@@ -205,7 +211,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
 
   const givenUp = e - ctx.venturi.annualEnergy_MWh
   const oxygenGained = ctx.venturi.meanNetGain_mgL - meanGain
-  const designHead = headAtFlow(u.heads, u.designFlow_m3s + u.reserved_m3s, u.grossHead_m)
+  const designHead = headAtFlow(u.heads, riverForTake(u.rules, u.designFlow_m3s), u.grossHead_m)
   return {
     kind: b.kind,
     kindLabel: BASELINE_KIND_LABEL[b.kind],
@@ -230,7 +236,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
     energyGivenUpPerMgL: givenUp > 0 && oxygenGained > 0 ? finiteOrNull(givenUp / oxygenGained) : null,
     curveSource: u.curve.source,
     curve: u.curve.points.map((p) => ({ ...p })),
-    basis: `A ${BASELINE_KIND_LABEL[b.kind]} at the same weir takes what the river leaves above the reserved flow, up to its design flow, `
+    basis: `A ${BASELINE_KIND_LABEL[b.kind]} at the same weir takes what the flow rules allow above the hands-off flow, up to its design flow, `
       + `at the gross head less ${(b.headLossFraction * 100).toFixed(0)} % for losses; it stops below ${Math.round((u.curve.points[0]?.flowFraction ?? 0) * 100)} % of its design flow. `
       + 'P = η(Q/Q_d)·ρ·g·Q·H_net·η_gen, with the same availability and the same days or month curves as the scheme; it runs every month. '
       + 'Its water passes the unit at the upstream oxygen and misses the weir\'s aeration; the rest falls over the weir as the site\'s weir model says, and the two mix.',

@@ -123,7 +123,7 @@ interface DrawFigures {
 
 /** One draw: the year's energy and the month table's oxygen of `input` on the shared hydrology, and its money. */
 function runDraw(input: AssessInput, b: RunBasis): DrawFigures {
-  const s = buildScheme(input, b.reserved, b.annual)
+  const s = buildScheme(input, b.reserved, b.annual, b.rules)
   const e = yearEnergy(input, b.h, s, b.monthCond, b.curves).annualEnergy_MWh
   let worst = Infinity
   for (let m = 0; m < b.flows.length; m++) {

@@ -7,6 +7,7 @@ import type { TurbineState } from './airPath'
 import { moneySummary, type MoneySummary } from './money'
 import { diffuserLength } from './oxygen'
 import { NET_LOSS_TOLERANCE_mgL } from './flags'
+import { handsOffOnly, leftInRiver, type FlowRules } from './flowRules'
 import type { Regime, ShutReason } from './operation'
 import { evaluate, unitPoint, waterAt, type RiverCheck } from './schemeKernel'
 import { oxygenState, riverTestOxygen } from './schemeOxygen'
@@ -25,7 +26,10 @@ export interface Scheme {
   readonly input: AssessInput
   readonly geometry: UnitGeometry
   readonly p_atm: number
+  /** Hands-off flow, m³/s. */
   readonly reserved_m3s: number
+  /** The flow rules (flowRules.ts): what stays in the river at each flow. */
+  readonly flowRules: FlowRules
   readonly diffuserLength_m: number
   /** Electrical rating of one unit, W. */
   readonly ratedPerUnit_W: number
@@ -96,8 +100,8 @@ export interface FlowState extends PowerState {
   oxygen: OxygenState
 }
 
-/** Resolve geometry, atmosphere, reserved flow and the unit rating of an input. */
-export function buildScheme(input: AssessInput, reserved_m3s: number, design: Conditions): Scheme {
+/** Resolve geometry, atmosphere, reserved flow and the unit rating of an input; without `rules`, only the hands-off flow `reserved_m3s` applies. */
+export function buildScheme(input: AssessInput, reserved_m3s: number, design: Conditions, rules: FlowRules = handsOffOnly(reserved_m3s)): Scheme {
   const o = input.option
   const base = constrictionDefaults(o.constriction)
   const geometry: UnitGeometry = {
@@ -108,7 +112,7 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
     flowCoefficient: o.flowCoefficient ?? base.flowCoefficient,
   }
   const partial: Scheme = {
-    input, geometry, p_atm: isaPressure(input.site.altitude_m), reserved_m3s,
+    input, geometry, p_atm: isaPressure(input.site.altitude_m), reserved_m3s, flowRules: rules,
     diffuserLength_m: o.diffuserLength_m ?? diffuserLength(o.throatDiameter_m, o.outletDiameter_m, input.settings.diffuserHalfAngle_deg),
     ratedPerUnit_W: 0, ratingSizedToDesign: o.turbine.ratedPower_kW === null,
   }
@@ -146,7 +150,7 @@ function riverCheckOf(s: Scheme, c: Conditions): RiverCheck | null {
     const n = cand.units
     const ps: PowerState = {
       riverFlow_m3s: river, grossHead_m: H, regime: cand.regime, shutReason: null, unitsRunning: n,
-      unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: Math.min(river, s.reserved_m3s),
+      unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: leftInRiver(s.flowRules, river),
       workingHead_m: p.workingHead_m, throatVelocity_ms: p.throatVelocity_ms, suction_m: p.suction_m,
       operatingSuction_m: p.air.pumpPressure_Pa / (w.rho * G),
       cavitationMargin_m: p.cavitationMargin_m, cavitationIndex: p.cavitationIndex,
