@@ -12,6 +12,7 @@ import * as m0010 from './0010_civils_per_design_flow'
 import * as m0011 from './0011_assessment_money'
 import * as m0012 from './0012_assessment_uncertainty'
 import * as m0013 from './0013_assessment_baseline'
+import * as m0014 from './0014_flow_rules'
 
 // Listed by hand: a folder scan does not survive bundling into the built server.
 // Add each new migration here, in order; never rename or edit one that has shipped.
@@ -29,6 +30,7 @@ export const migrations: Record<string, Migration> = {
   '0011_assessment_money': m0011,
   '0012_assessment_uncertainty': m0012,
   '0013_assessment_baseline': m0013,
+  '0014_flow_rules': m0014,
 }
 
 /** Kysely migration provider over the static list above. */

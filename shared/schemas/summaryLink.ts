@@ -119,6 +119,8 @@ export interface PublicSummaryDto {
     months: { month: number; name: string; without_mgL: number; with_mgL: number; target_mgL: number }[]
     /** Plain words: the summer low-flow gain. */
     summary: string
+    /** Plain words: what always stays in the river under the flow rules; absent for a run stored before them. */
+    whatStays?: string
   } | null
   /** How sure the energy and oxygen figures are, in plain sentences made from the numbers beside them; null when the site has no assessment yet. */
   howSure: {
