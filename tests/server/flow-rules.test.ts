@@ -37,7 +37,7 @@ describe('flow rules on a site', () => {
       [{ ...HIGH, passFlow_m3s: -0.5 }, 'flowRules.passFlow_m3s: must be 0 or more'],
       [{ ...HIGH, maxTake: { kind: 'fixed', flow_m3s: 'lots' } }, 'flowRules.maxTake.flow_m3s: must be a number'],
       [{ ...HIGH, maxTake: { kind: 'mean-multiple', multiple: 11 } }, 'flowRules.maxTake.multiple: must be between 0 and 10'],
-      [{ ...HIGH, maxTake: { kind: 'forever' } }, "flowRules.maxTake: must be 'none', 'fixed' or 'mean-multiple'"],
+      [{ ...HIGH, maxTake: { kind: 'forever' } }, "flowRules.maxTake.kind: must be 'none', 'fixed' or 'mean-multiple'"],
       [{ ...HIGH, preset: 'strict' }, "flowRules.preset: must be 'none', 'low-sensitivity', 'high-sensitivity' or 'custom'"],
     ]
     for (const [flowRules, message] of cases) {
