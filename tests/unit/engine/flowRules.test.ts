@@ -4,6 +4,9 @@ import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { assess } from '../../../shared/engine/assess'
 import { depletedReach } from '../../../shared/engine/depletedReach'
+import { monteCarlo } from '../../../shared/engine/monteCarlo'
+import { sensitivity } from '../../../shared/engine/sensitivity'
+import { sweep } from '../../../shared/engine/sweep'
 import { handsOffOnly, leftInRiver, resolveFlowRules, riverForTake, takeAllowed } from '../../../shared/engine/flowRules'
 import { fdcFromPoints } from '../../../shared/engine/hydrology'
 import { runBasis } from '../../../shared/engine/runBasis'
@@ -175,4 +178,20 @@ describe('depleted reach in an assessment', () => {
     expect(never.reason).toMatch(/flow rules/)
     expect(never.reason).toMatch(/maximum take \(0\.010 m³\/s\)/)
   })
+})
+
+describe('flow rules reach every run of the scheme', () => {
+  // A maximum take of 0.8 m³/s: well below the two units' capacity, so every run must make less energy.
+  const free = parse(draft())
+  const capped = parse({ ...draft(), flowRules: { preset: 'custom', maxTake: { kind: 'fixed', flow_m3s: 0.8 } } })
+
+  it('the Monte Carlo, the sweep and the sensitivity run under the same rules', () => {
+    const mcFree = monteCarlo(free, 8, 7)!
+    const mcCapped = monteCarlo(capped, 8, 7)!
+    expect(mcCapped.energy_MWh.p50).toBeLessThan(mcFree.energy_MWh.p50)
+    const grid = { throatDiameters_m: [0.6], units: [2], throatDepths_m: [1.5] }
+    expect(sweep(capped, grid).points[0]!.annualEnergy_MWh).toBeCloseTo(assess(capped).summary.annualEnergy_MWh, 9)
+    expect(sweep(capped, grid).points[0]!.annualEnergy_MWh).toBeLessThan(sweep(free, grid).points[0]!.annualEnergy_MWh)
+    expect(sensitivity(capped).base.annualEnergy_MWh).toBeCloseTo(assess(capped).summary.annualEnergy_MWh, 9)
+  }, 60_000)
 })
