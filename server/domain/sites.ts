@@ -4,7 +4,7 @@
 import { sql, type ExpressionBuilder, type Kysely } from 'kysely'
 import type { Database, SiteRow } from '../../db/schema'
 import type { Catchment, FdcPointInput, HeadRow, HydrologySource, Month, Reach, ReservedFlow, SiteDto, SiteInput, SitePatch, Weir } from '../../shared/schemas/site'
-import { FlowRulesSchema } from '../../shared/schemas/flowRules'
+import type { FlowRulesSetting } from '../../shared/schemas/flowRules'
 import type { SiteListDto, SiteListQuery, SiteMapPoint, SiteSort } from '../../shared/schemas/siteList'
 import { conflict } from './errors'
 import { loadFlowRecord } from './flowRecords'
@@ -154,7 +154,7 @@ export async function siteDto(db: Kysely<Database>, site: SiteRow): Promise<Site
     weir: JSON.parse(site.weir) as Weir,
     headTable: JSON.parse(site.head_table) as HeadRow[],
     reservedFlow: JSON.parse(site.reserved_flow) as ReservedFlow,
-    flowRules: FlowRulesSchema.parse(JSON.parse(site.flow_rules)),
+    flowRules: JSON.parse(site.flow_rules) as FlowRulesSetting,
     months: JSON.parse(site.months) as Month[],
     catchment: site.catchment === null ? null : (JSON.parse(site.catchment) as Catchment),
     fdcPoints,
