@@ -54,6 +54,7 @@ export interface PerFlowRow {
   unitsRunning: number
   unitFlow_m3s: number
   spill_m3s: number
+  /** What the flow rules leave in the river at this flow (the hands-off flow with only that rule), m³/s; the spill comes on top. */
   reservedFlow_m3s: number
   grossHead_m: number
   workingHead_m: number
