@@ -1,5 +1,6 @@
 // Longer than most files: the whole invented demo scenario (people, sites, options, review) in one place.
 import type { SiteInput } from '../shared/schemas/site'
+import { NO_FLOW_RULES } from '../shared/schemas/flowRules'
 import type { OptionInputDraft } from '../shared/schemas/option'
 import type { Role } from '../shared/utils/roles'
 import type { ConsentKind, ConsentStatus } from '../shared/utils/consents'
@@ -101,6 +102,8 @@ export const DEMO_SITES: readonly DemoSite[] = [
       weir: { grossHead_m: 2.4, crestWidth_m: 18, shape: 'flat-broad-crested-irregular-step', waterQuality: 'clean' },
       headTable: [],
       reservedFlow: { kind: 'percentile', exceedance: 95 },
+      // The "low sensitivity" preset (illustrative; the regulator's figures for the reach replace it).
+      flowRules: { preset: 'low-sensitivity', maxTake: { kind: 'mean-multiple', multiple: 1.3 }, keptShare_pct: 0, passFlow_m3s: 0 },
       months: months(TEMPS, [12.6, 12.4, 11.8, 11.0, 10.1, 9.3, 8.8, 8.9, 9.6, 10.4, 11.5, 12.2], 'mg/L'),
       catchment: null,
       fdcPoints: [],
@@ -131,6 +134,7 @@ export const DEMO_SITES: readonly DemoSite[] = [
       },
       headTable: [],
       reservedFlow: { kind: 'fixed', flow: 1.1 },
+      flowRules: { ...NO_FLOW_RULES },
       months: months(TEMPS, [99, 99, 98, 97, 95, 91, 86, 85, 89, 94, 97, 98], '%sat', { flows: SKELBY_MONTH_FLOWS }),
       catchment: null,
       fdcPoints: SKELBY_FDC,
@@ -155,6 +159,7 @@ export const DEMO_SITES: readonly DemoSite[] = [
         { flow: 60, head: 0.5 },
       ],
       reservedFlow: { kind: 'percentile', exceedance: 95 },
+      flowRules: { ...NO_FLOW_RULES },
       // Nobody sampled the winter months (the outfall survey ran March to November): stand-in values.
       months: months(TEMPS, [11.9, 11.7, 11.1, 10.2, 9.2, 8.3, 7.6, 7.5, 8.4, 9.5, 10.8, 11.6], 'mg/L', { notMeasured: [12, 1, 2] }),
       // Below the Skelby gauge with a larger catchment: its curve scaled by area ratio.
@@ -326,7 +331,7 @@ export const DEMO_REVIEW = {
       month: 6,
       flagId: 'net-oxygen-loss',
     },
-    { by: 'engineer', body: 'Yes: the controller can hold them off by month; it costs about 1.3 MWh a year (see the option held off June to September). The gas check is clear at every flow.', flagId: 'gas-supersaturation' },
+    { by: 'engineer', body: 'Yes: the controller can hold them off by month; it costs about 1.2 MWh a year (see the option held off June to September). The gas check is clear at every flow.', flagId: 'gas-supersaturation' },
   ] satisfies DemoComment[],
   decision: {
     decision: 'accepted-with-conditions' as const,

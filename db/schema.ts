@@ -94,6 +94,8 @@ export interface SitesTable {
   head_table: ColumnType<string, string | undefined, string>
   /** JSON: { kind: 'fixed', flow } | { kind: 'percentile', exceedance }. */
   reserved_flow: string
+  /** JSON: { preset, maxTake, keptShare_pct, passFlow_m3s } (shared/schemas/flowRules.ts); the hands-off flow is reserved_flow. */
+  flow_rules: ColumnType<string, string | undefined, string>
   /** JSON: 12 × { waterTemp_C, upstreamOxygen: { value, unit, measured? }, flow_m3s? } (older rows lack the optional fields). */
   months: string
   /** JSON: { siteArea_km2, gaugeArea_km2 }, or null. */

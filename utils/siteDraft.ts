@@ -2,6 +2,7 @@
 // issues by field path in plain words; with these, useFormState runs the site's forms (SITE_FORM).
 import { MONTH_NAMES } from '#shared/utils/months'
 import type { OxygenUnit, Reach, SiteDto } from '#shared/schemas/site'
+import type { FlowRulePreset, MaxTake } from '#shared/schemas/flowRules'
 import type { WeirAerationModel } from '#shared/engine/weirAeration'
 import type { WaterQualityClass, WeirShapeClass } from '#shared/engine/oxygen'
 import { type CheckIssue, type FormMessages, samePlain } from './formState'
@@ -41,6 +42,15 @@ export interface SiteDraft extends HydraulicsDraft {
   reservedKind: 'fixed' | 'percentile'
   reservedFlow: number | null
   reservedExceedance: number | null
+  /** The flow rules' preset ('custom' once any value is edited away from it). */
+  flowRulesPreset: FlowRulePreset
+  maxTakeKind: MaxTake['kind']
+  /** Fixed maximum take, m³/s. */
+  maxTakeFlow: number | null
+  /** Maximum take as a multiple of the mean flow. */
+  maxTakeMultiple: number | null
+  keptShare_pct: number | null
+  passFlow_m3s: number | null
   siteArea_km2: number | null
   gaugeArea_km2: number | null
   targetOxygen_mgL: number | null
@@ -74,6 +84,12 @@ export function blankSiteDraft(): SiteDraft {
     reservedKind: 'percentile',
     reservedFlow: null,
     reservedExceedance: 95,
+    flowRulesPreset: 'none',
+    maxTakeKind: 'none',
+    maxTakeFlow: null,
+    maxTakeMultiple: null,
+    keptShare_pct: 0,
+    passFlow_m3s: 0,
     siteArea_km2: null,
     gaugeArea_km2: null,
     targetOxygen_mgL: 6,
@@ -106,6 +122,12 @@ export function draftFromSite(site: SiteDto): SiteDraft {
     reservedKind: site.reservedFlow.kind,
     reservedFlow: site.reservedFlow.kind === 'fixed' ? site.reservedFlow.flow : null,
     reservedExceedance: site.reservedFlow.kind === 'percentile' ? site.reservedFlow.exceedance : 95,
+    flowRulesPreset: site.flowRules.preset,
+    maxTakeKind: site.flowRules.maxTake.kind,
+    maxTakeFlow: site.flowRules.maxTake.kind === 'fixed' ? site.flowRules.maxTake.flow_m3s : null,
+    maxTakeMultiple: site.flowRules.maxTake.kind === 'mean-multiple' ? site.flowRules.maxTake.multiple : null,
+    keptShare_pct: site.flowRules.keptShare_pct,
+    passFlow_m3s: site.flowRules.passFlow_m3s,
     siteArea_km2: site.catchment?.siteArea_km2 ?? null,
     gaugeArea_km2: site.catchment?.gaugeArea_km2 ?? null,
     targetOxygen_mgL: site.targetOxygen_mgL,
@@ -146,6 +168,14 @@ function measuredRatioFromDraft(d: SiteDraft) {
   return blank ? null : { r: d.measuredR, temperature_C: d.measuredTemp_C, drowned: d.measuredDrowned, note: d.measuredNote.trim() }
 }
 
+/** The flow rules as the API takes them (unchecked). */
+export function flowRulesFromDraft(d: SiteDraft) {
+  const maxTake = d.maxTakeKind === 'fixed'
+    ? { kind: 'fixed' as const, flow_m3s: d.maxTakeFlow }
+    : d.maxTakeKind === 'mean-multiple' ? { kind: 'mean-multiple' as const, multiple: d.maxTakeMultiple } : { kind: 'none' as const }
+  return { preset: d.flowRulesPreset, maxTake, keptShare_pct: d.keptShare_pct, passFlow_m3s: d.passFlow_m3s }
+}
+
 /** The overview fields as the API takes them (unchecked: blanks stay null for the schema to report). */
 export function overviewFromDraft(d: SiteDraft) {
   const bothAreasBlank = d.siteArea_km2 === null && d.gaugeArea_km2 === null
@@ -165,6 +195,7 @@ export function overviewFromDraft(d: SiteDraft) {
       hydraulics: hydraulicsFromDraft(d),
     },
     reservedFlow: d.reservedKind === 'fixed' ? { kind: 'fixed' as const, flow: d.reservedFlow } : { kind: 'percentile' as const, exceedance: d.reservedExceedance },
+    flowRules: flowRulesFromDraft(d),
     catchment: bothAreasBlank ? null : { siteArea_km2: d.siteArea_km2, gaugeArea_km2: d.gaugeArea_km2 },
     targetOxygen_mgL: d.targetOxygen_mgL,
     notes: d.notes,

@@ -12,6 +12,7 @@ import * as m0010 from './0010_civils_per_design_flow'
 import * as m0011 from './0011_assessment_money'
 import * as m0012 from './0012_assessment_uncertainty'
 import * as m0013 from './0013_assessment_baseline'
+import * as m0014 from './0014_flow_rules'
 import * as m0015 from './0015_consents'
 import * as m0016 from './0016_commissioning'
 
@@ -31,6 +32,7 @@ export const migrations: Record<string, Migration> = {
   '0011_assessment_money': m0011,
   '0012_assessment_uncertainty': m0012,
   '0013_assessment_baseline': m0013,
+  '0014_flow_rules': m0014,
   '0015_consents': m0015,
   '0016_commissioning': m0016,
 }

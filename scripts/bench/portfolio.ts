@@ -50,6 +50,7 @@ export async function fillPortfolio(db: Kysely<Database>, { orgId, otherOrgId, u
     weir: JSON.stringify({ grossHead_m: 2, crestWidth_m: 15, shape: 'sharp-crested-vertical-face', waterQuality: 'clean' }),
     head_table: '[]',
     reserved_flow: JSON.stringify({ kind: 'percentile', exceedance: 95 }),
+    flow_rules: JSON.stringify({ preset: 'none', maxTake: { kind: 'none' }, keptShare_pct: 0, passFlow_m3s: 0 }),
     months: JSON.stringify(MONTHS),
     fdc_points: JSON.stringify(FDC),
   }

@@ -15,7 +15,7 @@ const PER_FLOW: Column<PerFlowRow>[] = [
   ['Shut reason (-)', (r) => r.shutReason ?? null],
   ['Flow per unit (m³/s)', (r) => r.unitFlow_m3s],
   ['Spill (m³/s)', (r) => r.spill_m3s],
-  ['Reserved flow (m³/s)', (r) => r.reservedFlow_m3s],
+  ['Left in the river by the flow rules (m³/s)', (r) => r.reservedFlow_m3s],
   ['Gross head (m)', (r) => r.grossHead_m],
   ['Working head (m)', (r) => r.workingHead_m],
   ['Throat velocity (m/s)', (r) => r.throatVelocity_ms],
@@ -89,6 +89,7 @@ function summaryRows(result: AssessResult, currency: Currency): (string | number
     ['Closed months', op ? op.closedMonths.join(' ') : null, 'month numbers'],
     ['Share of the year units run', op?.runningShare ?? null, 'fraction'],
     ['Energy given up for the river', op && op.modesCompared ? op.energyGivenUpForRiver_MWh : null, 'MWh/yr'],
+    ['Days a year at the hands-off flow only', result.depletedReach?.annualHandsOffOnly_d ?? null, 'd/yr'],
     ['Capital cost', m.capex, c],
     ['Design flow the civil works are priced on', m.designFlow_m3s ?? null, 'm³/s'],
     ['Operating cost', m.annualOpex, `${c}/yr`],
@@ -107,9 +108,18 @@ function summaryRows(result: AssessResult, currency: Currency): (string | number
 
 const cell = (v: string | number | null) => (v === null ? '' : v)
 
+/** The depleted reach's two curves; a run stored before flow rules has only the header. */
+function depletedReachCsv(result: AssessResult): string {
+  const d = result.depletedReach
+  const fields = ['Exceedance (% of time)', 'River flow without the scheme (m³/s)', 'Flow over the weir with the scheme (m³/s)']
+  if (!d) return Papa.unparse({ fields, data: [] })
+  return Papa.unparse({ fields, data: d.curve.map((r) => [r.exceedance, r.natural_m3s, r.withScheme_m3s]) })
+}
+
 /** One table of a stored result as CSV text (CRLF lines, header first); amounts are labelled with `currency`'s ISO code. */
 export function assessmentCsv(result: AssessResult, table: AssessmentTable, currency: Currency): string {
   if (table === 'perFlow') return Papa.unparse({ fields: PER_FLOW.map((c) => c[0]), data: result.perFlow.map((r) => PER_FLOW.map((c) => cell(c[1](r)))) })
+  if (table === 'depletedReach') return depletedReachCsv(result)
   if (table === 'months') return Papa.unparse({ fields: MONTHS.map((c) => c[0]), data: result.months.map((r) => MONTHS.map((c) => cell(c[1](r)))) })
   return Papa.unparse({ fields: ['Figure', 'Value', 'Unit'], data: summaryRows(result, currency).map((r) => r.map(cell)) })
 }

@@ -8,6 +8,7 @@ import type { AssessResult } from '../../shared/engine/results'
 import { AssessInputSchema, type AssessInput, type AssessInputDraft } from '../../shared/schemas/assess'
 import type { OptionDesign, OptionSettings } from '../../shared/schemas/option'
 import type { AssessmentCreate } from '../../shared/schemas/assessment'
+import type { FlowRulesSetting } from '../../shared/schemas/flowRules'
 import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../../shared/schemas/site'
 import { siteToEngine, SiteNotReadyError, type RecordForEngine } from '../../shared/utils/siteEngineInput'
 import { conflict, unprocessable } from './errors'
@@ -37,6 +38,7 @@ export function buildAssessInput(site: SiteRow, record: StoredRecord | null, opt
       headTable: JSON.parse(site.head_table) as HeadRow[],
       months: JSON.parse(site.months) as Month[],
       reservedFlow: JSON.parse(site.reserved_flow) as ReservedFlow,
+      flowRules: JSON.parse(site.flow_rules) as FlowRulesSetting,
       catchment: site.catchment === null ? null : (JSON.parse(site.catchment) as Catchment),
       fdcPoints: JSON.parse(site.fdc_points) as FdcPointInput[],
       targetOxygen_mgL: site.target_oxygen_mgl,

@@ -5,6 +5,7 @@ import type { AssessResult, FlagId } from '../../shared/engine/results'
 import type { ReviewBriefDto, ReviewDecision, ReviewState } from '../../shared/schemas/review'
 import { REVIEW_STATE_LABELS } from '../../shared/schemas/review'
 import type { ReservedFlow } from '../../shared/schemas/site'
+import { flowRulesLine, handsOffDaysLine } from '../../shared/utils/depletedReachWords'
 import { howSureOf } from '../../shared/utils/howSure'
 import { monthName } from '../../shared/utils/months'
 
@@ -99,7 +100,7 @@ export function reservedFlowBasis(setting: ReservedFlow, flow_m3s: number, hydro
 }
 
 /** Fields of the brief that come from the stored result alone (the route adds the site and assessment). */
-export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'howSure' | 'flags' | 'weirHeads'> & {
+export type ReviewBriefBody = Pick<ReviewBriefDto, 'reservedFlow' | 'oxygenByMonth' | 'netGainSummerLowFlow' | 'gasSupersaturation' | 'baseline' | 'flowRules' | 'howSure' | 'flags' | 'weirHeads'> & {
   money: Omit<ReviewBriefDto['money'], 'currency'>
 }
 
@@ -142,6 +143,9 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow, accepta
     },
     baseline: baselineLineOf(result),
     weirHeads: weirHeadsLine(result.perFlow),
+    flowRules: result.depletedReach
+      ? { rules: flowRulesLine(result.depletedReach), handsOffOnly_d: result.depletedReach.annualHandsOffOnly_d, handsOffDays: handsOffDaysLine(result.depletedReach) }
+      : null,
     howSure: howSureOf(result, acceptableOxygenLoss_mgL),
     // A result stored by an older engine has no level or share of time: its safety flag says which it was.
     flags: result.summary.flags.map((f) => ({

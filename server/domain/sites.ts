@@ -4,6 +4,7 @@
 import { sql, type ExpressionBuilder, type Kysely } from 'kysely'
 import type { Database, SiteRow } from '../../db/schema'
 import type { Catchment, FdcPointInput, HeadRow, HydrologySource, Month, Reach, ReservedFlow, SiteDto, SiteInput, SitePatch, Weir } from '../../shared/schemas/site'
+import type { FlowRulesSetting } from '../../shared/schemas/flowRules'
 import type { SiteListDto, SiteListQuery, SiteMapPoint, SiteSort } from '../../shared/schemas/siteList'
 import { conflict } from './errors'
 import { loadFlowRecord } from './flowRecords'
@@ -38,6 +39,7 @@ export function siteColumns(input: Partial<SiteInput>) {
   }
   if (input.headTable !== undefined) cols.head_table = JSON.stringify(input.headTable)
   if (input.reservedFlow !== undefined) cols.reserved_flow = JSON.stringify(input.reservedFlow)
+  if (input.flowRules !== undefined) cols.flow_rules = JSON.stringify(input.flowRules)
   if (input.months !== undefined) cols.months = JSON.stringify(input.months)
   if (input.catchment !== undefined) cols.catchment = input.catchment === null ? null : JSON.stringify(input.catchment)
   if (input.fdcPoints !== undefined) cols.fdc_points = JSON.stringify(input.fdcPoints)
@@ -69,6 +71,7 @@ export async function createSite(db: Kysely<Database>, args: { orgId: number; us
       target_oxygen_mgl: input.targetOxygen_mgL,
       weir: cols.weir!,
       reserved_flow: cols.reserved_flow!,
+      flow_rules: cols.flow_rules,
       months: cols.months!,
       reach: cols.reach ?? null,
       catchment: cols.catchment ?? null,
@@ -151,6 +154,7 @@ export async function siteDto(db: Kysely<Database>, site: SiteRow): Promise<Site
     weir: JSON.parse(site.weir) as Weir,
     headTable: JSON.parse(site.head_table) as HeadRow[],
     reservedFlow: JSON.parse(site.reserved_flow) as ReservedFlow,
+    flowRules: JSON.parse(site.flow_rules) as FlowRulesSetting,
     months: JSON.parse(site.months) as Month[],
     catchment: site.catchment === null ? null : (JSON.parse(site.catchment) as Catchment),
     fdcPoints,

@@ -10,6 +10,7 @@ import { REVIEW_STATE_LABELS, type ReviewState } from '../../shared/schemas/revi
 import type { Reach } from '../../shared/schemas/site'
 import { HOME_KWH_PER_YEAR, type PublicSummaryDto, type SummaryLinkDto, type SummaryLinkState } from '../../shared/schemas/summaryLink'
 import { CAUTIONS } from '../../shared/utils/cautions'
+import { whatStaysSentence } from '../../shared/utils/depletedReachWords'
 import { howSureOf, howSureSentences } from '../../shared/utils/howSure'
 import { loadConsentSummary } from './consents'
 import { latestCommissioningLine } from './commissioning'
@@ -119,6 +120,7 @@ export function buildPublicSummary(s: SummarySources): PublicSummaryDto {
         gain >= 0
           ? `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the scheme would add about ${fmt(gain)} mg/L of dissolved oxygen below the weir, compared with the weir alone.`
           : `At summer low flow (${monthName}, about ${fmt(slf.flow_m3s)} m³/s) the river below the weir would carry about ${fmt(-gain)} mg/L less dissolved oxygen than with the weir alone.`,
+      ...(a.result.depletedReach ? { whatStays: whatStaysSentence(a.result.depletedReach) } : {}),
     }
     // only where heads come from the weir's hydraulics: a site with a head table has no such line
     const heads = weirHeadsLine(a.result.perFlow)

@@ -3,6 +3,7 @@
 import type { AssessInput } from '../schemas/assess'
 import { assessBaseline } from './baseline'
 import { defaultsUsed } from './defaultsUsed'
+import { depletedReach } from './depletedReach'
 import { exceedanceGrid, fdcStats, flowAtExceedance } from './hydrology'
 import { yearByYear } from './recordYears'
 import { runBasis, type RunBasis } from './runBasis'
@@ -46,7 +47,7 @@ interface YearRun {
  * would cost the river.
  */
 function runYear(input: AssessInput, b: RunBasis, energyFirst?: YearRun): YearRun {
-  const s = buildScheme(input, b.reserved, b.annual, flowAtExceedance(b.h.fdc, 50))
+  const s = buildScheme(input, b.reserved, b.annual, b.rules, flowAtExceedance(b.h.fdc, 50))
   const energy = yearEnergy(input, b.h, s, b.monthCond, b.curves)
   const states = yearStates(s, b.monthCond, b.curves, energyFirst?.states)
   const year = judgeYear(s, b.curves, states)
@@ -204,7 +205,8 @@ export function assess(input: AssessInput, options: AssessOptions = {}): AssessR
     years: h.record && energy.byYear ? yearByYear(h.record.sample, energy.byYear, st.availability, main.states) : null,
     uncertainty: null,
     money,
-    baseline: assessBaseline({ input, h, reserved_m3s: reserved, curves, months: monthCond, annual, monthFlows_m3s: flows.map((f) => f.flow), venturi: { annualEnergy_MWh: energy.annualEnergy_MWh, meanNetGain_mgL: year.meanNetGain_mgL }, states: main.states }),
+    baseline: assessBaseline({ input, h, reserved_m3s: reserved, rules: basis.rules, curves, months: monthCond, annual, monthFlows_m3s: flows.map((f) => f.flow), venturi: { annualEnergy_MWh: energy.annualEnergy_MWh, meanNetGain_mgL: year.meanNetGain_mgL }, states: main.states }),
+    depletedReach: depletedReach(input.flowRules, basis.rules, main.states),
     defaultsUsed: defaultsUsed(input),
     engineVersion: ENGINE_VERSION,
   }

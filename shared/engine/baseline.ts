@@ -10,6 +10,7 @@ import {
 } from './baselineUnits'
 import { G } from './constants'
 import { annualEnergyFromFdc, annualEnergyFromSample, DAYS_IN_MONTH, loadFigures, type AnnualEnergy, type PowerAt } from './energy'
+import { handsOffOnly, leftInRiver, riverForTake, type FlowRules } from './flowRules'
 import { flowAtExceedance } from './hydrology'
 import { annualOpex, lcoe, npv, simplePayback } from './money'
 import { downstreamFromDeficitRatio, mixTwoStreams } from './oxygen'
@@ -32,6 +33,8 @@ export interface BaselineUnit {
   reserved_m3s: number
   /** Where the site's heads come from (the weir's hydraulics or the head table), as the scheme reads them. */
   heads: SiteHeads
+  /** The same flow rules as the venturi scheme's (same site, same rules). */
+  rules: FlowRules
   /** Electrical rating: full-load power at the design flow, the most head the site gives and 4 °C water, W. */
   rating_W: number
 }
@@ -39,7 +42,7 @@ export interface BaselineUnit {
 /** The baseline at one river flow. */
 export interface BaselineFlow {
   riverFlow_m3s: number
-  /** Water through the unit: min(river − reserved, design flow), 0 below the kind's least flow. */
+  /** Water through the unit: min(what the flow rules allow, design flow), 0 below the kind's least flow. */
   unitFlow_m3s: number
   grossHead_m: number
   netHead_m: number
@@ -48,20 +51,21 @@ export interface BaselineFlow {
   power_W: number
 }
 
-/** Design flow by the default rule: Q30 of the annual curve less the reserved flow, never below 0 (common practice, no source). */
-export function defaultDesignFlow(h: SiteHydrology, reserved_m3s: number): number {
-  return Math.max(0, flowAtExceedance(h.fdc, BASELINE_DEFAULTS.designFlowExceedance.value) - reserved_m3s)
+/** Design flow by the default rule: what the flow rules allow at Q30 of the annual curve (Q30 less the reserved flow, never below 0, with only a hands-off flow; common practice, no source). */
+export function defaultDesignFlow(h: SiteHydrology, reserved_m3s: number, rules: FlowRules = handsOffOnly(reserved_m3s)): number {
+  const q30 = flowAtExceedance(h.fdc, BASELINE_DEFAULTS.designFlowExceedance.value)
+  return Math.max(0, q30 - leftInRiver(rules, q30))
 }
 
 /** Resolve the option's baseline at a site: curve, design flow (given, or the default rule), rating. */
-export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s: number): BaselineUnit {
+export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s: number, rules: FlowRules = handsOffOnly(reserved_m3s)): BaselineUnit {
   const b = input.option.baseline
   const heads = siteHeads(input.site)
-  const designFlow = b.designFlow_m3s ?? defaultDesignFlow(h, reserved_m3s)
+  const designFlow = b.designFlow_m3s ?? defaultDesignFlow(h, reserved_m3s, rules)
   const curve = EFFICIENCY_CURVES[b.kind]
   const unit: BaselineUnit = {
     kind: b.kind, curve, designFlow_m3s: designFlow, designFlowFromRule: b.designFlow_m3s === null,
-    headLossFraction: b.headLossFraction, generatorEfficiency: b.generatorEfficiency, reserved_m3s, heads, rating_W: 0,
+    headLossFraction: b.headLossFraction, generatorEfficiency: b.generatorEfficiency, reserved_m3s, rules, heads, rating_W: 0,
   }
   // Rated at full load at the most head the site gives and 4 °C water (the densest): no flow or month passes it.
   // With the weir's hydraulics the head varies smoothly with flow: the most it gives over the site's flow curve.
@@ -74,12 +78,12 @@ export function baselineUnit(input: AssessInput, h: SiteHydrology, reserved_m3s:
 }
 
 /**
- * The unit at one river flow: Q = min(river − reserved, Q_d), H_net = H_gross(river)·(1 − head-loss
+ * The unit at one river flow: Q = min(take allowed by the flow rules, Q_d), H_net = H_gross(river)·(1 − head-loss
  * fraction), P = η(Q/Q_d)·ρ·g·Q·H_net·η_gen (hydropower equation).
  */
 export function baselineFlow(u: BaselineUnit, river_m3s: number, tC: number): BaselineFlow {
   const river = Math.max(0, river_m3s)
-  const take = Math.max(0, river - u.reserved_m3s)
+  const take = Math.max(0, river - leftInRiver(u.rules, river))
   const H = grossHeadAt(u.heads, river)
   const netHead = H * (1 - u.headLossFraction)
   const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
@@ -91,7 +95,7 @@ export function baselineFlow(u: BaselineUnit, river_m3s: number, tC: number): Ba
 /** baselineFlow's power, W, in water of density `rho`, without building its record: the energy integral asks it once a day of the record. */
 function baselinePower(u: BaselineUnit, river_m3s: number, rho: number): number {
   const river = Math.max(0, river_m3s)
-  const take = Math.max(0, river - u.reserved_m3s)
+  const take = Math.max(0, river - leftInRiver(u.rules, river))
   const q = u.designFlow_m3s > 0 ? Math.min(take, u.designFlow_m3s) : 0
   const eta = q > 0 ? partLoadEfficiency(u.curve, q / u.designFlow_m3s) : 0
   if (!(eta > 0)) return 0
@@ -171,6 +175,8 @@ export interface BaselineContext {
   input: AssessInput
   h: SiteHydrology
   reserved_m3s: number
+  /** The venturi scheme's flow rules (default: the hands-off flow reserved_m3s only). */
+  rules?: FlowRules
   curves: readonly MonthCurve[]
   months: readonly Conditions[]
   annual: Conditions
@@ -189,7 +195,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
   const { input, h, curves, months, annual } = ctx
   const st = input.settings
   const b = input.option.baseline
-  const u = baselineUnit(input, h, ctx.reserved_m3s)
+  const u = baselineUnit(input, h, ctx.reserved_m3s, ctx.rules ?? handsOffOnly(ctx.reserved_m3s))
   const p_atm = isaPressure(input.site.altitude_m)
   const energy = baselineEnergy(u, h, curves, months, annual, st.availability)
   const meanGain = meanNetGain(u, input.site, p_atm, ctx.states, months)
@@ -206,7 +212,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
 
   const givenUp = e - ctx.venturi.annualEnergy_MWh
   const oxygenGained = ctx.venturi.meanNetGain_mgL - meanGain
-  const designHead = grossHeadAt(u.heads, u.designFlow_m3s + u.reserved_m3s)
+  const designHead = grossHeadAt(u.heads, riverForTake(u.rules, u.designFlow_m3s))
   return {
     kind: b.kind,
     kindLabel: BASELINE_KIND_LABEL[b.kind],
@@ -231,7 +237,7 @@ export function assessBaseline(ctx: BaselineContext): BaselineResult {
     energyGivenUpPerMgL: givenUp > 0 && oxygenGained > 0 ? finiteOrNull(givenUp / oxygenGained) : null,
     curveSource: u.curve.source,
     curve: u.curve.points.map((p) => ({ ...p })),
-    basis: `A ${BASELINE_KIND_LABEL[b.kind]} at the same weir takes what the river leaves above the reserved flow, up to its design flow, `
+    basis: `A ${BASELINE_KIND_LABEL[b.kind]} at the same weir takes what the flow rules allow above the hands-off flow, up to its design flow, `
       + `at the gross head less ${(b.headLossFraction * 100).toFixed(0)} % for losses; it stops below ${Math.round((u.curve.points[0]?.flowFraction ?? 0) * 100)} % of its design flow. `
       + 'P = η(Q/Q_d)·ρ·g·Q·H_net·η_gen, with the same availability and the same days or month curves as the scheme; it runs every month. '
       + 'Its water passes the unit at the upstream oxygen and misses the weir\'s aeration; the rest falls over the weir as the site\'s weir model says, and the two mix.',

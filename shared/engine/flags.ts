@@ -27,6 +27,16 @@ function neverRunsReason(s: Scheme, grid: PowerState[]): string {
   }
   if (reasons.has('below-cut-in')) return 'Air would flow, but the turbine never reaches its cut-in power, so the units stay shut.'
   if (reasons.has('river-first')) return 'Running the units would always cost the river more oxygen than is acceptable, so river-first operation keeps them shut.'
+  const r = s.flowRules
+  if (r.beyondHandsOff) {
+    const rules = [
+      `the hands-off flow (${fmt(r.handsOff_m3s, 3)} m³/s)`,
+      ...(r.pass_m3s > 0 ? [`the pass flow (${fmt(r.pass_m3s, 3)} m³/s)`] : []),
+      ...(r.keptShare > 0 ? [`the ${fmt(r.keptShare * 100, 0)} % of the flow above them that stays in the river`] : []),
+      ...(r.maxTake_m3s < Infinity ? [`the maximum take (${fmt(r.maxTake_m3s, 3)} m³/s)`] : []),
+    ]
+    return `The flow rules never let the scheme take enough water to feed one unit at the head-pool level, so the units never start: ${rules.join(', ')}.`
+  }
   return `The river never carries enough water beyond the reserved flow (${fmt(s.reserved_m3s, 3)} m³/s) to feed one unit at the head-pool level, so the units never start.`
 }
 

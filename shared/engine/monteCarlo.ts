@@ -124,7 +124,7 @@ interface DrawFigures {
 
 /** One draw: the year's energy and the month table's oxygen of `input` on the shared hydrology, and its money. */
 function runDraw(input: AssessInput, b: RunBasis): DrawFigures {
-  const s = buildScheme(input, b.reserved, b.annual, flowAtExceedance(b.h.fdc, 50))
+  const s = buildScheme(input, b.reserved, b.annual, b.rules, flowAtExceedance(b.h.fdc, 50))
   const e = yearEnergy(input, b.h, s, b.monthCond, b.curves).annualEnergy_MWh
   let worst = Infinity
   for (let m = 0; m < b.flows.length; m++) {

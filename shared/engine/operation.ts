@@ -33,7 +33,7 @@ export interface FlowSplit {
   workingHead_m: number
   /** Flow over the weir beyond the reserved flow, m³/s: it falls the full gross head. */
   spill_m3s: number
-  /** Reserved flow actually passed (≤ river flow), m³/s: it falls the full gross head. */
+  /** Flow the flow rules leave in the river (the reserved, hands-off flow with no other rule; ≤ river flow), m³/s: it falls the full gross head. */
   reserved_m3s: number
   /** Why units that the water could feed stay shut; null when every unit the water can feed runs. */
   shutReason: ShutReason | null

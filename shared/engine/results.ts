@@ -54,6 +54,7 @@ export interface PerFlowRow {
   unitsRunning: number
   unitFlow_m3s: number
   spill_m3s: number
+  /** What the flow rules leave in the river at this flow (the hands-off flow with only that rule), m³/s; the spill comes on top. */
   reservedFlow_m3s: number
   grossHead_m: number
   workingHead_m: number
@@ -262,6 +263,24 @@ export interface AssessResult {
   money: MoneySummary
   /** Absent from results stored before the baseline was added. */
   baseline?: BaselineResult
+  /** The depleted reach under the flow rules (depletedReach.ts); absent from results stored before flow rules. */
+  depletedReach?: DepletedReach
   defaultsUsed: DefaultUsed[]
   engineVersion: string
+}
+
+/** The depleted reach (ENGINE.md §13): what stays over the weir, with and without the scheme. */
+export interface DepletedReach {
+  /** The site's preset, as stored ('none' when only the hands-off flow applies). */
+  preset: 'none' | 'low-sensitivity' | 'high-sensitivity' | 'custom'
+  handsOff_m3s: number
+  passFlow_m3s: number
+  /** Maximum take, m³/s; null when there is none. */
+  maxTake_m3s: number | null
+  keptShare_pct: number
+  /** Flow-duration curves of the river itself and of the flow left over the weir with the scheme. */
+  curve: Array<{ exceedance: number, natural_m3s: number, withScheme_m3s: number }>
+  /** Days a year the river below the weir runs at the hands-off (and pass) flow only. */
+  annualHandsOffOnly_d: number
+  basis: string
 }

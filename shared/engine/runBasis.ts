@@ -3,6 +3,7 @@
 // flow, the year's and each month's conditions, and the month table's flows. assess.ts and the Monte
 // Carlo (monteCarlo.ts) both start here.
 import type { AssessInput } from '../schemas/assess'
+import { resolveFlowRules, type FlowRules } from './flowRules'
 import { fdcFromPoints, flowAtExceedance, readRecord, recordCurves, reservedFlow, scaleFdcByAreaRatio, scaleSampleByAreaRatio } from './hydrology'
 import type { MonthRow } from './results'
 import type { Conditions } from './scheme'
@@ -12,6 +13,8 @@ import { monthCurves, type MonthCurve, type SiteHydrology } from './year'
 export interface RunBasis {
   h: SiteHydrology
   reserved: number
+  /** The flow rules resolved against the annual curve (hands-off flow = reserved). */
+  rules: FlowRules
   annual: Conditions
   monthCond: Conditions[]
   curves: MonthCurve[]
@@ -22,8 +25,9 @@ export interface RunBasis {
 export function runBasis(input: AssessInput): RunBasis {
   const h = siteHydrology(input)
   const curves = monthCurves(input, h)
+  const reserved = reservedFlow(input.reservedFlow, h.fdc)
   return {
-    h, reserved: reservedFlow(input.reservedFlow, h.fdc), annual: annualConditions(input), monthCond: monthConditions(input),
+    h, reserved, rules: resolveFlowRules(input.flowRules, reserved, h.fdc), annual: annualConditions(input), monthCond: monthConditions(input),
     curves, flows: monthFlows(h, curves),
   }
 }

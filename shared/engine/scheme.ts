@@ -7,6 +7,7 @@ import type { TurbineState } from './airPath'
 import { moneySummary, type MoneySummary } from './money'
 import { diffuserLength } from './oxygen'
 import { NET_LOSS_TOLERANCE_mgL } from './flags'
+import { handsOffOnly, leftInRiver, type FlowRules } from './flowRules'
 import type { Regime, ShutReason } from './operation'
 import { evaluate, unitPoint, waterAt, type RiverCheck } from './schemeKernel'
 import { oxygenState, riverTestOxygen } from './schemeOxygen'
@@ -26,7 +27,10 @@ export interface Scheme {
   readonly input: AssessInput
   readonly geometry: UnitGeometry
   readonly p_atm: number
+  /** Hands-off flow, m³/s. */
   readonly reserved_m3s: number
+  /** The flow rules (flowRules.ts): what stays in the river at each flow. */
+  readonly flowRules: FlowRules
   readonly diffuserLength_m: number
   /** Electrical rating of one unit, W. */
   readonly ratedPerUnit_W: number
@@ -113,10 +117,13 @@ export interface FlowState extends PowerState {
 }
 
 /**
- * Resolve geometry, atmosphere, reserved flow, heads and the unit rating of an input. `medianFlow_m3s`, the
- * median river flow, sets where the option's throat depth is read when heads come from the weir's hydraulics.
+ * Resolve geometry, atmosphere, reserved flow, flow rules, heads and the unit rating of an input. Without `rules`,
+ * only the hands-off flow `reserved_m3s` applies. `medianFlow_m3s`, the median river flow, sets where the option's
+ * throat depth is read when heads come from the weir's hydraulics.
  */
-export function buildScheme(input: AssessInput, reserved_m3s: number, design: Conditions, medianFlow_m3s: number | null = null): Scheme {
+export function buildScheme(
+  input: AssessInput, reserved_m3s: number, design: Conditions, rules: FlowRules = handsOffOnly(reserved_m3s), medianFlow_m3s: number | null = null,
+): Scheme {
   const o = input.option
   const base = constrictionDefaults(o.constriction)
   const geometry: UnitGeometry = {
@@ -132,7 +139,7 @@ export function buildScheme(input: AssessInput, reserved_m3s: number, design: Co
     heads,
     medianTail_m: median !== null ? tailDepthAt(heads, median) : null,
     designHead_m: median !== null ? grossHeadAt(heads, median) : input.site.grossHead_m,
-    input, geometry, p_atm: isaPressure(input.site.altitude_m), reserved_m3s,
+    input, geometry, p_atm: isaPressure(input.site.altitude_m), reserved_m3s, flowRules: rules,
     diffuserLength_m: o.diffuserLength_m ?? diffuserLength(o.throatDiameter_m, o.outletDiameter_m, input.settings.diffuserHalfAngle_deg),
     ratedPerUnit_W: 0, ratingSizedToDesign: o.turbine.ratedPower_kW === null,
   }
@@ -170,7 +177,7 @@ function riverCheckOf(s: Scheme, c: Conditions): RiverCheck | null {
     const n = cand.units
     const ps: PowerState = {
       riverFlow_m3s: river, grossHead_m: H, regime: cand.regime, shutReason: null, unitsRunning: n,
-      unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: Math.min(river, s.reserved_m3s),
+      unitFlow_m3s: cand.unitFlow_m3s, spill_m3s: cand.spill_m3s, reserved_m3s: leftInRiver(s.flowRules, river),
       throatDepth_m: p.throatDepth_m, tailDepth_m: tailDepthAt(s.heads, river),
       workingHead_m: p.workingHead_m, throatVelocity_ms: p.throatVelocity_ms, suction_m: p.suction_m,
       operatingSuction_m: p.air.pumpPressure_Pa / (w.rho * G),

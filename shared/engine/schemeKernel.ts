@@ -1,6 +1,7 @@
 // The inner loop of an assessment, kept apart from the scheme it serves (scheme.ts): per-scheme and
 // per-temperature constants worked out once, and scratch records written in place.
 import { airPathSetting, airPointInto, blankAirPoint, type AirOperatingPoint, type AirPathSetting } from './airPath'
+import { leftInRiver } from './flowRules'
 import { operate, type Candidate, type FlowSplit, type LevelControlInput, type ShutReason, type UnitCurve } from './operation'
 import {
   cavitationIndex, cavitationMargin, headAtFlow, headForUnitFlow, suctionHead,
@@ -218,6 +219,8 @@ export function evaluate(s: Scheme, flow_m3s: number, c: Conditions, riverCheck:
     k.hasCap = true
   }
   k.level.riverFlow_m3s = river
+  // The flow rules leave this much in the river at this flow; level control works on the rest.
+  k.level.reservedFlow_m3s = leftInRiver(s.flowRules, river)
   k.level.grossHead_m = H
   const w = ratedWaterAt(s, k, c.tC)
   const q = k.query

@@ -4,6 +4,7 @@ import { DEFAULTS, MAX_MONTE_CARLO_DRAWS } from '../engine/defaults'
 import { MONEY_DEFAULTS } from '../engine/money'
 import { BASELINE_DEFAULTS, BASELINE_KINDS } from '../engine/baselineUnits'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
+import { FlowRulesSchema } from './flowRules'
 
 const num = z.number({ error: 'must be a number' })
 const nonNegative = num.min(0, 'must be 0 or more')
@@ -280,6 +281,8 @@ export const AssessInputSchema = z.object({
   hydrology: HydrologyInputSchema,
   gaugeScaling: GaugeScalingSchema.nullable().default(null),
   reservedFlow: ReservedFlowInputSchema.default({ kind: 'percentile', exceedance: 95 }),
+  /** Flow rules beyond the hands-off flow (reservedFlow); the defaults have no effect. */
+  flowRules: FlowRulesSchema.prefault({}),
   option: EngineOptionSchema,
   settings: SettingsInputSchema.prefault({}),
 })

@@ -22,12 +22,12 @@ export type AssessmentCreate = z.infer<typeof AssessmentCreateSchema>
 export const AssessmentParamsSchema = z.object({ id: IdSchema })
 
 /** Tables of a stored assessment that export as CSV. */
-export const ASSESSMENT_TABLES = ['perFlow', 'months', 'summary'] as const
+export const ASSESSMENT_TABLES = ['perFlow', 'months', 'summary', 'depletedReach'] as const
 export type AssessmentTable = (typeof ASSESSMENT_TABLES)[number]
 
 const EXPORT_FILES = ASSESSMENT_TABLES.map((t) => `${t}.csv` as const) as [`${AssessmentTable}.csv`, ...`${AssessmentTable}.csv`[]]
 
-/** Route parameters of GET /api/assessments/[id]/export/[table].csv (the last segment is `perFlow.csv`, `months.csv` or `summary.csv`). */
+/** Route parameters of GET /api/assessments/[id]/export/[table].csv (the last segment is `perFlow.csv`, `months.csv`, `summary.csv` or `depletedReach.csv`). */
 export const AssessmentExportParamsSchema = z
   .object({
     id: IdSchema,

@@ -224,6 +224,8 @@ export interface ReviewBriefDto {
   weirHeads?: WeirHeadsLine | null
   /** A conventional turbine at the same weir, for the one plain line on what the river gains for the energy given up; null for a run stored before it. */
   baseline: BaselineLine | null
+  /** The flow rules the run obeyed and the days a year the river runs at the hands-off flow only, in plain words; null for a run stored before flow rules. */
+  flowRules: { rules: string; handsOffOnly_d: number; handsOffDays: string } | null
   /** How sure the energy and oxygen figures are: the Monte Carlo's P90/P50 energy and chance of a net oxygen loss, the record's P90 and driest years (`stored: false` for a run before them). */
   howSure: HowSure
   /** Every flag of the assessment, raised or clear, with its level, the share of the year it is raised and its reason. */

@@ -7,6 +7,7 @@ import { z } from 'zod'
 import { WATER_QUALITY_A, WEIR_SHAPE_B, type WaterQualityClass, type WeirShapeClass } from '../engine/oxygen'
 import type { WeirAerationModel } from '../engine/weirAeration'
 import { MAX_FLOW_M3S, WeirHydraulicsInputSchema, areaRatioProblem } from './assess'
+import { FlowRulesSchema, NO_FLOW_RULES, type FlowRulesSetting } from './flowRules'
 import { IdSchema, NameSchema } from './common'
 import type { FlowRecordSummary } from './flowRecord'
 import type { Currency } from './organisation'
@@ -190,6 +191,8 @@ const siteFields = {
   weir: WeirSchema,
   headTable: HeadTableSchema,
   reservedFlow: ReservedFlowSchema,
+  /** Flow rules beyond the hands-off flow (reservedFlow): maximum take, share kept, pass flow. */
+  flowRules: FlowRulesSchema,
   months: MonthsSchema,
   catchment: CatchmentSchema.nullable(),
   fdcPoints: FdcPointsSchema,
@@ -209,6 +212,7 @@ export const SiteInputSchema = z.object({
   altitude_m: siteFields.altitude_m.default(0),
   headTable: siteFields.headTable.default([]),
   reservedFlow: siteFields.reservedFlow.default({ ...DEFAULT_RESERVED_FLOW }),
+  flowRules: siteFields.flowRules.prefault({ ...NO_FLOW_RULES }),
   catchment: siteFields.catchment.default(null),
   fdcPoints: siteFields.fdcPoints.default([]),
   targetOxygen_mgL: siteFields.targetOxygen_mgL.default(DEFAULT_TARGET_OXYGEN_MGL),
@@ -256,6 +260,7 @@ export interface SiteDto {
   weir: Weir
   headTable: HeadRow[]
   reservedFlow: ReservedFlow
+  flowRules: FlowRulesSetting
   months: Month[]
   catchment: Catchment | null
   fdcPoints: FdcPointInput[]

@@ -121,6 +121,8 @@ export interface PublicSummaryDto {
     summary: string
     /** Plain words on how the fall at the weir changes with the river, when heads come from the weir's hydraulics (absent before it). */
     weirHeads?: string | null
+    /** Plain words: what always stays in the river under the flow rules; absent for a run stored before them. */
+    whatStays?: string
   } | null
   /** How sure the energy and oxygen figures are, in plain sentences made from the numbers beside them; null when the site has no assessment yet. */
   howSure: {

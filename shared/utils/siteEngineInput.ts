@@ -5,6 +5,7 @@ import { isaPressure } from '../engine/atmosphere'
 import { DEFAULTS } from '../engine/defaults'
 import { oxygenSaturation } from '../engine/oxygenSaturation'
 import type { AssessInputDraft } from '../schemas/assess'
+import type { FlowRulesSetting } from '../schemas/flowRules'
 import type { Catchment, FdcPointInput, HeadRow, Month, ReservedFlow, Weir } from '../schemas/site'
 
 /** What the mapping needs of a site. */
@@ -14,6 +15,8 @@ export interface SiteForEngine {
   headTable: HeadRow[]
   months: Month[]
   reservedFlow: ReservedFlow
+  /** Flow rules beyond the hands-off flow; left out, none. */
+  flowRules?: FlowRulesSetting
   catchment: Catchment | null
   fdcPoints: FdcPointInput[]
   targetOxygen_mgL: number
@@ -26,7 +29,7 @@ export interface RecordForEngine {
 }
 
 /** The site's part of an engine input, and the downstream oxygen target the site's regulator sets. */
-export type EngineSitePart = Pick<AssessInputDraft, 'site' | 'hydrology' | 'gaugeScaling' | 'reservedFlow'> & { targetOxygen_mgL: number }
+export type EngineSitePart = Pick<AssessInputDraft, 'site' | 'hydrology' | 'gaugeScaling' | 'reservedFlow' | 'flowRules'> & { targetOxygen_mgL: number }
 
 /** The site cannot be assessed as it stands; `field` names what to fix (e.g. `site.hydrology`). */
 export class SiteNotReadyError extends Error {
@@ -106,6 +109,7 @@ export function siteToEngine(site: SiteForEngine, record: RecordForEngine | null
     hydrology,
     gaugeScaling,
     reservedFlow: site.reservedFlow,
+    ...(site.flowRules ? { flowRules: site.flowRules } : {}),
     targetOxygen_mgL: site.targetOxygen_mgL,
   }
 }

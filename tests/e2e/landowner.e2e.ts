@@ -73,6 +73,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.match(await page.innerText('[data-testid=summary-scheme]'), /2 venturi units set in the weir[\s\S]*0\.55 m throat[\s\S]*2\.4 m at the weir/)
   assert.match(await page.innerText('[data-testid=summary-river]'), /At summer low flow \([A-Z][a-z]+, about \d+\.\d\d m³\/s\)[\s\S]*mg\/L/)
   assert.match(await page.innerText('[data-testid=summary-river-words]'), /With the scheme the river would carry/)
+  assert.match(await page.innerText('[data-testid=summary-what-stays]'), /^At least \d+\.\d+ m³\/s always stays in the river over the weir; on a typical day about \d+ % of the river's flow still goes over the weir\./)
   assert.equal(await page.locator('[data-testid=summary-river] [data-testid=oxygen-table] tbody tr').count(), 12, 'one oxygen row a month')
 
   // 3. The review state, the reason and the conditions, and who to contact.
@@ -134,7 +135,7 @@ async function landownerJourney(browser: Browser, ids: { orgId: number; siteId: 
   assert.deepEqual(shape(body.basis), ['assessedAt', 'engineVersion', 'kind'])
   assert.deepEqual(shape(body.energy), ['annualEnergy_MWh', 'annualUsePerHome_kWh', 'assumption', 'baseline', 'homesEquivalent', 'source'])
   assert.deepEqual(shape(body.howSure), ['energyP90_MWh', 'netLossProbability', 'recordP90Energy_MWh', 'sentences'])
-  assert.deepEqual(shape(body.river), ['months', 'summary', 'target_mgL'])
+  assert.deepEqual(shape(body.river), ['months', 'summary', 'target_mgL', 'whatStays'])
   assert.deepEqual(shape(body.review), ['conditions', 'decidedAt', 'decisionText', 'state', 'stateLabel'])
   assert.deepEqual(shape(body.contact), ['organisationName', 'preparedBy'])
   assert.deepEqual(shape(body.permissions), ['gaugingWarning', 'line'])

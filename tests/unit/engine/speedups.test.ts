@@ -20,6 +20,7 @@ import { annualEnergyFromFdc } from '../../../shared/engine/energy'
 import { exceedanceGrid, fdcFromPoints, fdcFromRecord, flowAtExceedance, monthlyFdcs, readRecord, recordCurves, sortFlows, type DailyFlow } from '../../../shared/engine/hydrology'
 import { rememberRecent } from '../../../shared/engine/memo'
 import { buildScheme, flowState, powerSample, powerState, type Conditions, type OxygenState, type PowerState, type Scheme } from '../../../shared/engine/scheme'
+import { handsOffOnly } from '../../../shared/engine/flowRules'
 import { monthConditions } from '../../../shared/engine/runBasis'
 import { oxygenState } from '../../../shared/engine/schemeOxygen'
 import { NET_LOSS_TOLERANCE_mgL } from '../../../shared/engine/flags'
@@ -223,7 +224,7 @@ describe('the scheme kernel against a direct evaluation', () => {
   it('gives the same power state, field by field and in the same order, at every flow and temperature', () => {
     fc.assert(fc.property(inputArb, flowsArb, num(0, 5), (input, flows, reserved) => {
       const months = monthConditions(input)
-      const s = buildScheme(input, reserved, months[0]!, 4)
+      const s = buildScheme(input, reserved, months[0]!, handsOffOnly(reserved), 4)
       flows.forEach((q, i) => {
         // alternate the temperature every other flow, so the per-temperature records are switched between
         const c = months[(i >> 1) % months.length]!
@@ -255,7 +256,7 @@ describe('the scheme kernel against a direct evaluation', () => {
   it('gives the same oxygen state', () => {
     fc.assert(fc.property(inputArb, flowsArb, (input, flows) => {
       const months = monthConditions(input)
-      const s = buildScheme(input, 0.8, months[0]!, 4)
+      const s = buildScheme(input, 0.8, months[0]!, handsOffOnly(0.8), 4)
       flows.forEach((q, i) => {
         const c = months[i % months.length]!
         const fs = flowState(s, q, c)

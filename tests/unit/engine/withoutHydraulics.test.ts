@@ -49,8 +49,19 @@ describe('a site without the weir hydraulics', () => {
         delete row.tailDepth_m
         delete row.weirDrowned
       }
+      // The flow rules, which came after the file was written, add the depleted reach and reword the
+      // baseline's basis (their own test holds their defaults to the hands-off flow alone): set both aside.
+      const was = structuredClone(before[k]) as { baseline?: { basis?: string } }
+      const is = now as unknown as { baseline?: { basis?: string }, depletedReach?: unknown }
+      expect(is.depletedReach).toBeDefined()
+      delete is.depletedReach
+      if (was.baseline && is.baseline) {
+        expect(is.baseline.basis).toContain('what the flow rules allow above the hands-off flow')
+        delete was.baseline.basis
+        delete is.baseline.basis
+      }
       // identity with the earlier engine, no outside source
-      expect(now).toStrictEqual(before[k])
+      expect(now).toStrictEqual(was)
     })
   }, 60_000)
 })

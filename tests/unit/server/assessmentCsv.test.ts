@@ -66,3 +66,21 @@ describe('assessment CSV', () => {
     expect(assessmentCsv(older, 'summary', GBP).split('\r\n')).toContain('Operating mode,,-')
   })
 })
+
+describe('depleted reach CSV', () => {
+  it('gives the two flow-duration curves at each exceedance, and only the header for a run stored before flow rules', () => {
+    const result = assess(parse(draft()))
+    const rows = table(assessmentCsv(result, 'depletedReach', GBP))
+    expect(rows).toHaveLength(13)
+    rows.forEach((r, i) => {
+      const c = result.depletedReach!.curve[i]!
+      expect(Number(r['Exceedance (% of time)'])).toBe(c.exceedance)
+      expect(Number(r['River flow without the scheme (m³/s)'])).toBeCloseTo(c.natural_m3s, 12)
+      expect(Number(r['Flow over the weir with the scheme (m³/s)'])).toBeCloseTo(c.withScheme_m3s, 12)
+    })
+    const summary = table(assessmentCsv(result, 'summary', GBP))
+    expect(Number(summary.find((r) => r['Figure'] === 'Days a year at the hands-off flow only')!['Value'])).toBeCloseTo(result.depletedReach!.annualHandsOffOnly_d, 9)
+    const { depletedReach: _, ...older } = result
+    expect(assessmentCsv(older, 'depletedReach', GBP).trim()).toBe('Exceedance (% of time),River flow without the scheme (m³/s),Flow over the weir with the scheme (m³/s)')
+  })
+})

@@ -17,7 +17,7 @@ const demoSite = (name: string): SiteInput => DEMO_SITES.find((s) => s.site.name
 function rowOf(site: SiteInput): SiteRow {
   return {
     altitude_m: site.altitude_m, weir: JSON.stringify(site.weir), months: JSON.stringify(site.months), head_table: JSON.stringify(site.headTable),
-    reserved_flow: JSON.stringify(site.reservedFlow), fdc_points: JSON.stringify(site.fdcPoints),
+    reserved_flow: JSON.stringify(site.reservedFlow), flow_rules: JSON.stringify(site.flowRules), fdc_points: JSON.stringify(site.fdcPoints),
     catchment: site.catchment ? JSON.stringify(site.catchment) : null, target_oxygen_mgl: site.targetOxygen_mgL,
   } as unknown as SiteRow
 }

@@ -4,7 +4,7 @@ import { organisationCurrency } from '~~/server/domain/organisations'
 import { AssessmentExportParamsSchema } from '#shared/schemas/assessment'
 import { READER_ROLES } from '#shared/utils/roles'
 
-// GET /api/assessments/[id]/export/perFlow.csv | months.csv | summary.csv: one table of the stored
+// GET /api/assessments/[id]/export/perFlow.csv | months.csv | summary.csv | depletedReach.csv: one table of the stored
 // result as CSV with units in the header, as a download. Every role of the organisation may export.
 export default defineEventHandler(async (event) => {
   const { id, table } = await getValidatedRouterParams(event, validator(AssessmentExportParamsSchema, 'params'))
