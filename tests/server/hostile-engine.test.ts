@@ -30,7 +30,9 @@ const NULLABLE = new Set(['cavitationIndex', 'cavitationMargin_m', 'minCavitatio
   'oxygenPerMWhGivenUp', 'energyGivenUpPerMgL', 'capexCrossCheck_usd2014',
   // no energy, no break-even price; no record, no years; no Monte Carlo asked for, none run; a percentile
   // outside the draws' or years' plotting positions, or an LCOE of draws that make no energy, is not given (money.ts, recordYears.ts, monteCarlo.ts)
-  'breakEvenPrice', 'years', 'uncertainty', 'p90', 'p50', 'p10', 'p50Energy_MWh', 'p90Energy_MWh', 'driest', 'worstYearNetGain_mgL'])
+  'breakEvenPrice', 'years', 'uncertainty', 'p90', 'p50', 'p10', 'p50Energy_MWh', 'p90Energy_MWh', 'driest', 'worstYearNetGain_mgL',
+  // no tail level where heads come from the head table (weirHydraulics.ts); no maximum take in the flow rules (depletedReach.ts)
+  'tailDepth_m', 'maxTake_m3s'])
 
 /** Nulls outside NULLABLE (a NaN or Infinity that JSON turned into null), and any non-finite number, with their paths. */
 function brokenNumbers(v: unknown, nullable: Set<string>, path = '$', key = ''): string[] {

@@ -17,7 +17,7 @@ describe('assess: shape and bookkeeping', () => {
   const r = assess(parse(draft()))
   it('returns every part, 12 months and the engine version', () => {
     expect(r.engineVersion).toBe(ENGINE_VERSION)
-    expect(r.engineVersion).toBe('0.3.0')
+    expect(r.engineVersion).toBe('0.4.0')
     expect(r.months).toHaveLength(12)
     expect(r.perFlow.length).toBeGreaterThan(10)
     expect(r.summary.flags.map((f) => f.id).sort()).toEqual(['cavitation', 'does-not-pay', 'gas-supersaturation', 'net-oxygen-loss', 'never-runs', 'oxygen-below-target', 'scheme-below-target'])
