@@ -1,4 +1,5 @@
-// Series, colours and ticks of an assessment's charts (no Chart.js here, so they unit-test in node).
+// Series, colours, ticks and shared options of an assessment's charts (Chart.js's types only, so they unit-test in node).
+import type { ChartOptions } from 'chart.js'
 import type { MonthRow, PerFlowRow } from '#shared/engine/results'
 import type { SensitivityResult } from '#shared/engine/sensitivity'
 
@@ -83,4 +84,24 @@ export function logTick(value: number | string): string {
   const lead = Math.round((v / 10 ** Math.floor(Math.log10(v))) * 1000) / 1000
   if (lead !== 1 && lead !== 2 && lead !== 5) return ''
   return v >= 100 ? v.toFixed(0) : String(Number(v.toPrecision(2)))
+}
+
+/**
+ * Options of a flow-duration chart: exceedance 0–100 % across, flow on a log axis up, the legend below
+ * and a tooltip in m³/s (the site's FDC with its bands, and the depleted reach).
+ */
+export function exceedanceFlowOptions(formatFlow: (v: number) => string): ChartOptions<'scatter'> {
+  return {
+    responsive: true,
+    maintainAspectRatio: false,
+    animation: false,
+    scales: {
+      x: { type: 'linear', min: 0, max: 100, title: { display: true, text: 'Exceedance (% of time)', color: CHART_COLOURS.text }, ticks: { stepSize: 10, color: CHART_COLOURS.text }, grid: { color: CHART_COLOURS.grid } },
+      y: { type: 'logarithmic', title: { display: true, text: 'Flow (m³/s, log scale)', color: CHART_COLOURS.text }, ticks: { callback: logTick, color: CHART_COLOURS.text, autoSkip: false }, grid: { color: CHART_COLOURS.grid } },
+    },
+    plugins: {
+      legend: { position: 'bottom', labels: { color: CHART_COLOURS.text, font: chartFont } },
+      tooltip: { callbacks: { label: (i) => `${i.dataset.label}: ${formatFlow(i.parsed.y ?? 0)} m³/s at ${i.parsed.x} %` } },
+    },
+  }
 }

@@ -2,7 +2,7 @@
 // check. Shared by server/api/sites/[id]/commissioning*, server/api/commissioning/[id], the
 // commissioning form and its preview. Keep the exported names stable: the UI imports them.
 import { z } from 'zod'
-import { MANOMETER_FLUIDS, type CommissioningResult, type ManometerFluid, type OxygenPoint, type Verdict } from '../engine/commissioning'
+import { MANOMETER_FLUIDS, type CommissioningMeasurement, type CommissioningResult, type ManometerFluid, type OxygenPoint, type Verdict } from '../engine/commissioning'
 import type { ReadingUnit } from '../engine/metering'
 import { IdSchema } from './common'
 
@@ -66,27 +66,15 @@ export type CommissioningDraft = z.input<typeof CommissioningInputSchema>
 /** Route parameters of DELETE /api/commissioning/[id]. */
 export const CommissioningParamsSchema = z.object({ id: IdSchema })
 
-/** One stored commissioning record. */
-export interface CommissioningRecordDto {
+/** One stored commissioning record: the measurement as the engine takes it, and who, which assessment and what came of it. */
+export interface CommissioningRecordDto extends CommissioningMeasurement {
   id: number
   siteId: number
   optionId: number | null
   optionName: string | null
   assessmentId: number | null
-  measuredAt: string
   measuredBy: string
   enteredBy: { id: number; name: string } | null
-  riverFlow_m3s: number
-  waterTemp_C: number
-  manometerFluid: ManometerFluid
-  manometerDensity_kgm3: number
-  reading_m: number
-  readingUnit: ReadingUnit
-  upstreamTapDiameter_m: number | null
-  dischargeCoefficient: number | null
-  upstreamOxygen_mgL: number
-  downstreamOxygen_mgL: number
-  oxygenMeasuredAt: OxygenPoint
   notes: string
   /** The figures and verdicts as computed when it was stored, with that engine's version. */
   result: CommissioningResult
