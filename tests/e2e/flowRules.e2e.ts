@@ -4,7 +4,7 @@
 //   npm run build && node scripts/e2e.mjs tests/e2e/flowRules.e2e.ts
 import assert from 'node:assert/strict'
 import type { Browser } from 'playwright-core'
-import { BASE, openPage, runJourney, shot, signIn, waitForChart } from './journey'
+import { BASE, openPage, openSiteFromPortfolio, runJourney, shot, signIn, waitForChart } from './journey'
 
 const ENGINEER = 'idris@tarnbeck.example'
 // An FDC site of the demo with no flow rules yet (Hollin Mill weir has the low-sensitivity preset).
@@ -13,9 +13,7 @@ const SITE = 'Skelby gauging weir'
 async function engineerJourney(browser: Browser) {
   const page = await openPage(browser)
   await signIn(page, ENGINEER)
-  await page.locator('[data-testid=site-table] tbody tr', { hasText: SITE }).locator('a').first().click()
-  await page.waitForURL(/\/sites\/\d+$/)
-  const siteId = Number(new URL(page.url()).pathname.split('/').pop())
+  const siteId = await openSiteFromPortfolio(page, SITE)
   await page.waitForSelector('[data-testid=site-overview-form] [data-testid=flow-rules]')
   assert.equal(await page.inputValue('#f-flowRules-preset'), 'none', 'the demo site starts with the hands-off flow only')
 

@@ -84,6 +84,13 @@ export async function signIn(page: Page, email: string, password = PASSWORD) {
   await page.waitForSelector('[data-testid=site-table] tbody tr')
 }
 
+/** Opens a site from the portfolio table by its name (as a user clicks it) and answers its id. */
+export async function openSiteFromPortfolio(page: Page, siteName: string): Promise<number> {
+  await page.locator('[data-testid=site-table] tbody tr', { hasText: siteName }).locator('a').first().click()
+  await page.waitForURL(/\/sites\/\d+$/)
+  return Number(new URL(page.url()).pathname.split('/').pop())
+}
+
 /**
  * Waits until the first canvas inside `selector` has at least `min` painted (not fully transparent)
  * pixels and answers how many it has: a chart that mounted but drew nothing never passes.

@@ -15,7 +15,7 @@ import assert from 'node:assert/strict'
 import { readFileSync } from 'node:fs'
 import type { Browser, Page } from 'playwright-core'
 import { CAUTIONS } from '../../shared/utils/cautions'
-import { BASE, openPage, runJourney, shot, signIn, waitForChart } from './journey'
+import { BASE, openPage, openSiteFromPortfolio, runJourney, shot, signIn, waitForChart } from './journey'
 
 const ENGINEER = 'idris@tarnbeck.example'
 const SITE = 'Hollin Mill weir'
@@ -47,9 +47,7 @@ async function engineerJourney(browser: Browser) {
   await signIn(page, ENGINEER)
 
   // 1. The demo site with a record, its options tab: the three demo options with their figures.
-  await page.locator('[data-testid=site-table] tbody tr', { hasText: SITE }).locator('a').first().click()
-  await page.waitForURL(/\/sites\/\d+$/)
-  const siteId = Number(new URL(page.url()).pathname.split('/').pop())
+  const siteId = await openSiteFromPortfolio(page, SITE)
   // Tabs switched before the overview's map has finished drawing raise no error: a map torn down
   // while Leaflet was still building it is quietly let go (plugins/leafletTeardown.client.ts).
   for (let i = 0; i < 4; i++) {

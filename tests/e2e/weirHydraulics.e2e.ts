@@ -4,7 +4,7 @@
 // Run: npm run build && node scripts/e2e.mjs tests/e2e/weirHydraulics.e2e.ts
 import assert from 'node:assert/strict'
 import type { Browser } from 'playwright-core'
-import { BASE, openPage, runJourney, shot, signIn } from './journey'
+import { BASE, openPage, openSiteFromPortfolio, runJourney, shot, signIn } from './journey'
 
 const ENGINEER = 'idris@tarnbeck.example'
 const SITE = 'Cragg Foot drop'
@@ -12,9 +12,7 @@ const SITE = 'Cragg Foot drop'
 async function engineerJourney(browser: Browser) {
   const page = await openPage(browser)
   await signIn(page, ENGINEER)
-  await page.locator('[data-testid=site-table] tbody tr', { hasText: SITE }).locator('a').first().click()
-  await page.waitForURL(/\/sites\/\d+$/)
-  const siteId = Number(new URL(page.url()).pathname.split('/').pop())
+  const siteId = await openSiteFromPortfolio(page, SITE)
   await page.waitForSelector('[data-testid=site-overview-form] .leaflet-container')
 
   // 1. Heads from the weir hydraulics: the fields, the caution about weir works, then one bad value named.
