@@ -351,6 +351,29 @@ async function engineerJourney(browser: Browser) {
   await page.context().close()
 }
 
+/**
+ * Every demo option's editor loaded afresh by address, as each demo role: what the server draws must be
+ * what the browser draws (a mismatch is a console error, which the journey counts), with every field on show.
+ */
+async function optionPagesLoadedDirectly(browser: Browser) {
+  for (const email of [ENGINEER, 'elspeth@fellside-agency.example']) {
+    const page = await openPage(browser)
+    await signIn(page, email)
+    const ids = await page.evaluate(async () => {
+      const me = (await (await fetch('/api/me')).json()) as { memberships: Array<{ orgId: number }> }
+      const list = (await (await fetch(`/api/orgs/${me.memberships[0]!.orgId}/options`)).json()) as { sites: Array<{ siteId: number, options: Array<{ id: number }> }> }
+      return list.sites.flatMap((s) => s.options.map((o) => [s.siteId, o.id] as const))
+    })
+    assert.ok(ids.length >= 5, `the demo options are listed (${ids.length})`)
+    for (const [siteId, optionId] of ids) {
+      await page.goto(`${BASE}/sites/${siteId}/options/${optionId}`)
+      await page.waitForSelector('[data-testid=option-form]')
+    }
+    await page.context().close()
+  }
+}
+
 await runJourney('options', async (browser) => {
+  await optionPagesLoadedDirectly(browser)
   await engineerJourney(browser)
 })
