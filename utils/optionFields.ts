@@ -118,7 +118,7 @@ export const OPTION_FIELDS: readonly OptionField[] = [
     choices: BASELINE_KINDS.map((k) => ({ value: k, label: BASELINE_KIND_LABEL[k].replace(/^./, (c) => c.toUpperCase()) })),
     hint: 'each kind has its own part-load efficiency curve, shown with its source in the results',
   },
-  { path: 'design.baseline.designFlow_m3s', label: 'Design flow', unit: 'm³/s', group: 'baseline', kind: 'number', blankMeans: 'the flow exceeded 30 % of the time, less the reserved flow (common practice)' },
+  { path: 'design.baseline.designFlow_m3s', label: 'Design flow', unit: 'm³/s', group: 'baseline', kind: 'number', blankMeans: 'what the flow rules allow at the flow exceeded 30 % of the time (common practice)' },
   { path: 'design.baseline.headLossFraction', label: 'Head lost before the runner', unit: 'fraction', group: 'baseline', kind: 'number', defaultOf: fixed(BASELINE_DEFAULTS.headLossFraction), hint: 'screen, channel and draft tube: 0.05 means 5 % of the gross head' },
   { path: 'design.baseline.generatorEfficiency', label: 'Generator efficiency', unit: 'fraction', group: 'baseline', kind: 'number', defaultOf: fixed(BASELINE_DEFAULTS.generatorEfficiency) },
   { path: 'design.baseline.costs.ratedPowerPrice', label: 'Installed cost per kW', unit: 'currency/kW', group: 'baseline', kind: 'number', defaultOf: byBaselineKind, hint: 'civil works, consents and plant together' },

@@ -91,7 +91,7 @@ export const BASELINE_DEFAULTS = {
   headLossFraction: { value: 0.05, unit: '-', source: 'illustrative: intake screen, channel and draft-tube losses as a share of the gross head' },
   generatorEfficiency: { value: 0.92, unit: '-', source: 'from memory: small generators with their gearbox or drive 0.90–0.95 (as the venturi turbine\'s default)' },
   fixedCost: { value: 0, unit: 'currency', source: 'the Local Government Association per-kW figure already holds civil works and consents' },
-  designFlowExceedance: { value: 30, unit: '%', source: 'common practice, no source: the flow exceeded 30 % of the time, less the reserved flow' },
+  designFlowExceedance: { value: 30, unit: '%', source: 'common practice, no source: what the flow rules allow the scheme to take at the flow exceeded 30 % of the time' },
 } as const satisfies Record<string, SourcedValue>
 
 /**

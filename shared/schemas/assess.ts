@@ -205,7 +205,7 @@ export const OperationInputSchema = z.object({
 /** The conventional low-head unit the option is set against (ENGINE.md §11); every field has a default. */
 export const BaselineInputSchema = z.object({
   kind: z.enum(BASELINE_KINDS, { error: `must be one of ${BASELINE_KINDS.join(', ')}` }).default('screw'),
-  /** Flow through the unit at full load, m³/s; null takes the flow exceeded 30 % of the time less the reserved flow. */
+  /** Flow through the unit at full load, m³/s; null takes what the flow rules allow at the flow exceeded 30 % of the time. */
   designFlow_m3s: positive.max(MAX_FLOW_M3S, `must be ${MAX_FLOW_M3S.toLocaleString('en-GB')} m³/s or less`).nullable().default(null),
   /** Share of the gross head lost before the runner (screen, channel, draft tube). */
   headLossFraction: num.min(0, 'must be between 0 and 0.5').max(0.5, 'must be between 0 and 0.5').default(BASELINE_DEFAULTS.headLossFraction.value),
