@@ -114,10 +114,14 @@ const FLOW_TOLERANCE = 1e-9
 export function reviewBrief(result: AssessResult, setting: ReservedFlow, acceptableOxygenLoss_mgL: number | null): ReviewBriefBody {
   const reserved = result.hydrology.reservedFlow_m3s
   // At every flow of the table, what stays in the river (the reserve plus any spill) must be at least
-  // the reserved flow, or the whole river when it is lower than that.
+  // the hands-off flow and the pass flow on top of it (or the whole river when it is lower than that),
+  // and the units may never take more than the maximum take (a result stored before the flow rules has neither).
+  const pass = result.depletedReach?.passFlow_m3s ?? 0
+  const maxTake = result.depletedReach?.maxTake_m3s ?? null
   const keptAtEveryFlow = result.perFlow.every((row) => {
-    const leftInRiver = row.riverFlow_m3s - row.unitsRunning * row.unitFlow_m3s
-    return leftInRiver + FLOW_TOLERANCE >= Math.min(reserved, row.riverFlow_m3s)
+    const taken = row.unitsRunning * row.unitFlow_m3s
+    const leftInRiver = row.riverFlow_m3s - taken
+    return leftInRiver + FLOW_TOLERANCE >= Math.min(reserved + pass, row.riverFlow_m3s) && (maxTake === null || taken <= maxTake + FLOW_TOLERANCE)
   })
   const gas = result.summary.flags.find((f) => f.id === 'gas-supersaturation')
   const slf = result.summary.summerLowFlow

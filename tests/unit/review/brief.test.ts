@@ -23,6 +23,24 @@ describe('reviewBrief', () => {
     expect(reviewBrief(robbed, input.reservedFlow, input.settings.acceptableOxygenLoss_mgL).reservedFlow.keptAtEveryFlow).toBe(false)
   })
 
+  it('judges the flow rules at every flow: the pass flow kept on top of the hands-off flow, and never more taken than the maximum', () => {
+    // common practice, no source: what a regulator's flow rules require of every flow
+    const ruled = parse({ ...draft(), flowRules: { preset: 'custom', maxTake: { kind: 'fixed', flow_m3s: 4.5 }, keptShare_pct: 0, passFlow_m3s: 0.2 } })
+    const r = assess(ruled)
+    expect(reviewBrief(r, ruled.reservedFlow, null).reservedFlow.keptAtEveryFlow).toBe(true)
+    // units that take the pass flow too, down to the hands-off flow alone
+    const intoPass = structuredClone(r)
+    const hof = r.hydrology.reservedFlow_m3s
+    const row = intoPass.perFlow.find((x) => x.unitsRunning > 0 && x.riverFlow_m3s - hof - 0.1 <= 4.5)!
+    row.unitFlow_m3s = (row.riverFlow_m3s - hof - 0.1) / row.unitsRunning // half the pass flow taken, still under the maximum
+    expect(reviewBrief(intoPass, ruled.reservedFlow, null).reservedFlow.keptAtEveryFlow).toBe(false)
+    // units that take more than the maximum at a high flow
+    const overCap = structuredClone(r)
+    const high = overCap.perFlow.find((x) => x.unitsRunning > 0 && x.riverFlow_m3s > 10)!
+    high.unitFlow_m3s = 5 / high.unitsRunning
+    expect(reviewBrief(overCap, ruled.reservedFlow, null).reservedFlow.keptAtEveryFlow).toBe(false)
+  })
+
   it('gives oxygen by month without and with the scheme against the target', () => {
     expect(brief.oxygenByMonth).toHaveLength(12)
     brief.oxygenByMonth.forEach((m, i) => {
