@@ -57,3 +57,6 @@ export const DEFAULT_FORM_MESSAGES: Required<FormMessages> = {
   refused: () => FIELDS_NEED_ATTENTION,
   failed: (fields, message) => (Object.keys(fields).length ? FIELDS_NEED_ATTENTION : message),
 }
+
+/** What the leave guard asks before unsaved edits are thrown away (composables/useLeaveGuard.ts). */
+export const LEAVE_QUESTION = 'You have changes that are not saved. Leave this page and lose them?'

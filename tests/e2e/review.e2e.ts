@@ -141,6 +141,8 @@ async function adminJourney(browser: Browser, siteId: number, summaryUrl: string
   await page.selectOption('#f-invite-site', String(siteId))
   await page.click('[data-testid=invite-send]')
   await page.waitForSelector('[data-testid=invite-done]')
+  // The list reloads after the answer: wait for the new invitation at its head (a busy machine was seen reading the list before it).
+  await page.locator('[data-testid=invitation-table] tbody tr').first().filter({ hasText: INVITED }).waitFor()
   assert.match(await page.innerText('[data-testid=invitation-table] tbody tr'), new RegExp(`${INVITED}[\\s\\S]*Reviewer[\\s\\S]*${SITE}[\\s\\S]*Waiting`))
 
   // The organisation's summary links: revoke the landowner's, with a confirm.
