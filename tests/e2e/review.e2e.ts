@@ -111,6 +111,18 @@ async function reviewerJourney(browser: Browser, siteId: number) {
   await shot(page, 'r03-reviewer-brief-errors')
   await page.fill('#f-decision-conditions', 'Keep the reserved flow at all times.\nMeasure dissolved gas below the weir through the first summer.')
   await page.click('[data-testid=decision-send]')
+  // Nothing is recorded yet: the form shows what will be sent and waits for a second, explicit press.
+  await page.waitForSelector('[data-testid=decision-confirm]')
+  assert.equal(await page.innerText('[data-testid=decision-confirm-decision]'), 'Accept with conditions')
+  assert.match(await page.innerText('[data-testid=decision-confirm]'), /Measure dissolved gas below the weir/)
+  // Going back to change it, then changing the form, takes the summary away until it is checked again.
+  await page.click('[data-testid=decision-confirm-back]')
+  assert.equal(await page.locator('[data-testid=decision-confirm]').count(), 0)
+  await page.click('[data-testid=decision-send]')
+  await page.fill('#f-decision-reason', 'Oxygen gain is real in the dry months; gas stays under the limit (checked twice).')
+  assert.equal(await page.locator('[data-testid=decision-confirm]').count(), 0, 'an edit after the check asks for a new check')
+  await page.click('[data-testid=decision-send]')
+  await page.click('[data-testid=decision-confirm-send]')
   await page.waitForSelector('[data-testid=review-state][data-state=accepted-with-conditions]')
   assert.match(await page.innerText('[data-testid=review-decision]'), /Measure dissolved gas/)
 
