@@ -112,3 +112,19 @@ export function monthsBelowTarget(rows: readonly OxygenRow[]): { without: string
     with: rows.filter((r) => r.with < r.target).map((r) => r.name),
   }
 }
+
+/** What the brief shows first: the raised flags, the month the river fares worst, and the months whose upstream oxygen stands in. */
+export interface BriefLead {
+  raised: ReviewBriefDto['flags']
+  /** The month with the lowest net oxygen change (null with no months). */
+  worstMonth: ReviewBriefDto['oxygenByMonth'][number] | null
+  upstream: { measured: number; standIn: string[] }
+}
+
+/** The lead of the reviewer brief, from the brief's own figures (a month stored before the measured flag counts as measured). */
+export function briefLead(brief: Pick<ReviewBriefDto, 'flags' | 'oxygenByMonth'>): BriefLead {
+  const months = brief.oxygenByMonth
+  const worstMonth = months.reduce<BriefLead['worstMonth']>((w, m) => (w === null || m.netGain_mgL < w.netGain_mgL ? m : w), null)
+  const standIn = months.filter((m) => m.upstreamMeasured === false).map((m) => m.name)
+  return { raised: brief.flags.filter((f) => f.raised), worstMonth, upstream: { measured: months.length - standIn.length, standIn } }
+}

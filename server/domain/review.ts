@@ -138,6 +138,7 @@ export function reviewBrief(result: AssessResult, setting: ReservedFlow, accepta
       netGain_mgL: m.netGain_mgL,
       meetsTargetWithout: m.downstreamWithout_mgL >= m.target_mgL,
       meetsTargetWith: m.downstreamWith_mgL >= m.target_mgL,
+      upstreamMeasured: m.upstreamMeasured ?? true,
     })),
     netGainSummerLowFlow: { value_mgL: result.summary.netOxygenGainSummerLowFlow_mgL, month: slf.month, flow_m3s: slf.flow_m3s, temperature_C: slf.temperature_C, basis: slf.basis },
     gasSupersaturation: {

@@ -217,6 +217,8 @@ export interface ReviewBriefDto {
     netGain_mgL: number
     meetsTargetWithout: boolean
     meetsTargetWith: boolean
+    /** False where nobody measured the month's upstream oxygen and a stand-in value was used (absent in a brief stored before: measured). */
+    upstreamMeasured?: boolean
   }[]
   netGainSummerLowFlow: { value_mgL: number; month: number; flow_m3s: number; temperature_C: number; basis: string }
   gasSupersaturation: { raised: boolean; reason: string; maxUnitTotalDissolvedGas: number }

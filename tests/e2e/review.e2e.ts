@@ -95,6 +95,15 @@ async function reviewerJourney(browser: Browser, siteId: number) {
     return brief.compareDocumentPosition(form) & Node.DOCUMENT_POSITION_FOLLOWING
   })
   assert.ok(order, 'the brief comes before the decision form')
+  // Its first block is the finding: the raised flags (the demo scheme does not pay), the worst month, the upstream oxygen's status.
+  const lead = await page.evaluate(() => document.querySelector('[data-testid=review-brief] [data-testid^=brief-]')?.getAttribute('data-testid'))
+  assert.equal(lead, 'brief-lead', 'the brief leads with its finding')
+  const flagsShown = await page.locator('[data-testid=brief-lead-flag]').allInnerTexts()
+  assert.ok(flagsShown.some((t) => /^Does not pay: revenue/.test(t)), `the raised money flag is in the lead (${flagsShown.join(' | ')})`)
+  assert.match(await page.innerText('[data-testid=brief-lead]'), new RegExp(`^${flagsShown.length} flags? (is|are) raised:`))
+  assert.ok(flagsShown.every((t) => !/^(.+?)\. \1/.test(t)), 'no flag repeats its own title')
+  assert.match(await page.innerText('[data-testid=brief-lead-worst]'), /^Worst month for the river: [A-Z][a-z]{2}, [+−]?\d+\.\d\d mg\/L with the scheme/)
+  assert.match(await page.innerText('[data-testid=brief-lead-upstream]'), /^Upstream oxygen: measured in (all 12 months|\d+ of 12 months; in .+ a value nobody measured stands in)/)
   assert.match(await page.innerText('[data-testid=brief-reserved]'), /\d\.\d\d m³\/s always left in the river/)
   assert.match(await page.innerText('[data-testid=brief-gain]'), /[+-]?\d+\.\d\d mg\/L/)
   assert.match(await page.innerText('[data-testid=brief-gas]'), /(Flag raised|Clear) · \d+ % total dissolved gas/)
