@@ -6,9 +6,9 @@ import { defaultsUsed } from './defaultsUsed'
 import { depletedReach } from './depletedReach'
 import { exceedanceGrid, fdcStats, flowAtExceedance } from './hydrology'
 import { yearByYear } from './recordYears'
-import { runBasis, type RunBasis } from './runBasis'
+import { basisScheme, runBasis, type RunBasis } from './runBasis'
 import { monteCarlo } from './monteCarlo'
-import { buildScheme, flowState, powerState, riverFirstState, schemeMoney, type FlowState, type Scheme } from './scheme'
+import { flowState, powerState, riverFirstState, schemeMoney, type FlowState, type Scheme } from './scheme'
 import { buildFlags, moneyFlag, withMoneyAtP50 } from './flags'
 import type { AssessResult, MethodsComparison, ModeFigures, MonthRow, PerFlowRow, SummerLowFlow } from './results'
 import { recoveredFraction, throatAreaRatio } from './venturi'
@@ -47,7 +47,7 @@ interface YearRun {
  * would cost the river.
  */
 function runYear(input: AssessInput, b: RunBasis, energyFirst?: YearRun): YearRun {
-  const s = buildScheme(input, b.reserved, b.annual, b.rules, flowAtExceedance(b.h.fdc, 50))
+  const s = basisScheme(input, b)
   const energy = yearEnergy(input, b.h, s, b.monthCond, b.curves)
   const states = yearStates(s, b.monthCond, b.curves, energyFirst?.states)
   const year = judgeYear(s, b.curves, states)

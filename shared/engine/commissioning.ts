@@ -9,8 +9,8 @@ import { EngineInputError } from './errors'
 import type { SourcedValue } from './defaults'
 import { flowFromDifferential, manometerDifferential, type ReadingUnit } from './metering'
 import { oxygenSaturation } from './oxygenSaturation'
-import { runBasis } from './runBasis'
-import { buildScheme, flowState } from './scheme'
+import { basisScheme, runBasis } from './runBasis'
+import { flowState } from './scheme'
 import { constrictionDefaults } from './venturi'
 import { waterDensity } from './water'
 import { G } from './constants'
@@ -223,7 +223,7 @@ export function commissioningCheck(input: AssessInput, m: CommissioningMeasureme
     altitude_m: input.site.altitude_m, salinity_gkg: input.site.salinity_gkg,
   })
   const basis = runBasis(input)
-  const s = buildScheme(input, basis.reserved, basis.annual)
+  const s = basisScheme(input, basis)
   const fs = flowState(s, m.riverFlow_m3s, { month: monthOf(m.measuredAt), tC: m.waterTemp_C, upstreamO2_mgL: m.upstreamOxygen_mgL })
   const ox = fs.oxygen
   const unitOutlet = input.settings.oxygenMethod === 'field-transfer' ? ox.unitFieldTransfer_mgL : ox.unitBubbleModel_mgL

@@ -4,12 +4,11 @@
 // month table's oxygen) from the same hydrology (runBasis.ts), so a draw costs a year's energy, not a
 // whole assessment. The same seed always gives the same draws.
 import type { AssessInput } from '../schemas/assess'
-import { flowAtExceedance } from './hydrology'
 import { atExceedance } from './recordYears'
 import { LEVERS, type LeverKey } from './levers'
 import { drawFrom, seededRandom, type Spread } from './random'
-import { runBasis, type RunBasis } from './runBasis'
-import { buildScheme, flowState, schemeMoney } from './scheme'
+import { basisScheme, runBasis, type RunBasis } from './runBasis'
+import { flowState, schemeMoney } from './scheme'
 import { yearEnergy } from './year'
 
 /** The inputs the Monte Carlo draws. */
@@ -124,7 +123,7 @@ interface DrawFigures {
 
 /** One draw: the year's energy and the month table's oxygen of `input` on the shared hydrology, and its money. */
 function runDraw(input: AssessInput, b: RunBasis): DrawFigures {
-  const s = buildScheme(input, b.reserved, b.annual, b.rules, flowAtExceedance(b.h.fdc, 50))
+  const s = basisScheme(input, b)
   const e = yearEnergy(input, b.h, s, b.monthCond, b.curves).annualEnergy_MWh
   let worst = Infinity
   for (let m = 0; m < b.flows.length; m++) {

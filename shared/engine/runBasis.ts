@@ -6,7 +6,7 @@ import type { AssessInput } from '../schemas/assess'
 import { resolveFlowRules, type FlowRules } from './flowRules'
 import { fdcFromPoints, flowAtExceedance, readRecord, recordCurves, reservedFlow, scaleFdcByAreaRatio, scaleSampleByAreaRatio } from './hydrology'
 import type { MonthRow } from './results'
-import type { Conditions } from './scheme'
+import { buildScheme, type Conditions, type Scheme } from './scheme'
 import { monthCurves, type MonthCurve, type SiteHydrology } from './year'
 
 /** Inputs every run of one option shares. */
@@ -71,4 +71,13 @@ function annualConditions(input: AssessInput): Conditions {
 /** Each month's conditions, January first: its temperature and upstream oxygen. */
 export function monthConditions(input: AssessInput): Conditions[] {
   return input.site.months.map((m, k) => ({ month: k + 1, tC: m.temperature_C, upstreamO2_mgL: m.upstreamOxygen_mgL }))
+}
+
+/**
+ * The scheme every run of `input` works with: its flow rules, and the median flow where heads come from
+ * the weir's hydraulics (the option's throat depth is read there). The assessment, each Monte Carlo draw
+ * and a commissioning check all build it here, so they judge the same scheme.
+ */
+export function basisScheme(input: AssessInput, b: RunBasis): Scheme {
+  return buildScheme(input, b.reserved, b.annual, b.rules, flowAtExceedance(b.h.fdc, 50))
 }

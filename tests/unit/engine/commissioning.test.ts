@@ -125,6 +125,13 @@ describe('commissioning check against a stored assessment input', () => {
   // A reading that makes exactly the assessed unit flow: Q ∝ √h.
   const h = 0.1 * (first.assessed.unitFlow_m3s / first.measured.flow.flow_m3s) ** 2
 
+  it('reads the assessment under the site\'s flow rules: a maximum take below one unit\'s flow keeps every unit shut', () => {
+    // the scheme the assessment itself ran (assess.ts builds it with the rules); common practice, no source
+    const capped = parse({ ...draft(), flowRules: { preset: 'custom', maxTake: { kind: 'fixed', flow_m3s: first.assessed.unitFlow_m3s / 2 }, keptShare_pct: 0, passFlow_m3s: 0 } })
+    const check = commissioningCheck(capped, base)
+    expect(check.assessed.unitsRunning).toBe(0)
+    expect(check.flowVerdict.kind).toBe('not-comparable')
+  })
   it('the engine runs units at this flow, with the option\'s own discharge coefficient', () => {
     expect(first.assessed.unitsRunning).toBeGreaterThan(0)
     expect(first.measured.dischargeCoefficient).toBe(0.98)
