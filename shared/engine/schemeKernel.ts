@@ -8,7 +8,7 @@ import {
   throatVelocity, unitCapacity, vapourSuctionLimit, type HeadPoint,
 } from './venturi'
 import { vapourPressure, waterDensity } from './water'
-import { crestHead, tailDepth, throatDepthAt } from './weirHydraulics'
+import { grossHeadWith, tailDepth, throatDepthAt } from './weirHydraulics'
 import type { Conditions, Scheme } from './scheme'
 
 // An assessment evaluates the units at a few thousand river flows (the energy integral, the summary
@@ -210,7 +210,7 @@ export function evaluate(s: Scheme, flow_m3s: number, c: Conditions, riverCheck:
   else {
     // heads from the weir's hydraulics (weirHydraulics.ts); siteHeads.grossHeadAt gives the same figure
     tail = tailDepth(hyd, river)
-    H = Math.max(0, hyd.crestHeight_m + crestHead(hyd, river) - tail)
+    H = grossHeadWith(hyd, river, tail)
     if (s.medianTail_m !== null) d = throatDepthAt(d, tail, s.medianTail_m)
   }
   if (!k.hasCap || !Object.is(k.capHead, H)) {

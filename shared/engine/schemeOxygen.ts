@@ -11,6 +11,7 @@ import { crestDischargePerMetre, crestFormOf, headOverCrest, WEIR_DISCHARGE_COEF
 import type { AssessInput } from '../schemas/assess'
 import type { Conditions, OxygenState, PowerState, Scheme } from './scheme'
 import { siteHeads, tailDepthAt } from './siteHeads'
+import { drownedWith } from './weirHydraulics'
 
 type Site = AssessInput['site']
 
@@ -56,7 +57,7 @@ function unitSide(s: Scheme, ps: PowerState, c: Conditions, n2In: number): UnitS
  */
 function drownedAt(site: Site, overWeir_m3s: number, fall_m: number, river_m3s: number): boolean {
   const heads = siteHeads(site)
-  if (heads.hydraulics !== null) return (tailDepthAt(heads, river_m3s) as number) > heads.hydraulics.crestHeight_m
+  if (heads.hydraulics !== null) return drownedWith(heads.hydraulics, tailDepthAt(heads, river_m3s) as number)
   const L = site.crestLength_m
   const form = crestFormOf(site.weirShape)
   if (L === undefined || !(L > 0) || form === null || !(overWeir_m3s > 0)) return false

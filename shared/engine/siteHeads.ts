@@ -3,7 +3,7 @@
 // the ordinary gross head as its fallback (venturi.ts headAtFlow). One answer for the scheme and the baseline.
 import type { AssessInput } from '../schemas/assess'
 import { headAtFlow, type HeadPoint } from './venturi'
-import { crestHead, resolveWeirHydraulics, tailDepth, type WeirHydraulics } from './weirHydraulics'
+import { grossHeadWith, resolveWeirHydraulics, tailDepth, type WeirHydraulics } from './weirHydraulics'
 
 type Site = AssessInput['site']
 
@@ -34,7 +34,7 @@ export function grossHeadAt(h: SiteHeads, flow_m3s: number): number {
   const hyd = h.hydraulics
   if (hyd === null) return headAtFlow(h.table, flow_m3s, h.grossHead_m)
   const Q = Math.max(0, flow_m3s)
-  return Math.max(0, hyd.crestHeight_m + crestHead(hyd, Q) - tailDepth(hyd, Q))
+  return grossHeadWith(hyd, Q, tailDepth(hyd, Q))
 }
 
 /** Tail depth at river flow Q by the hydraulics, m; null without them (the head table knows no tail). */

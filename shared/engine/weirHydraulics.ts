@@ -10,7 +10,7 @@ import { G } from './constants'
 import type { SourcedValue } from './defaults'
 import { checkNumber, EngineInputError } from './errors'
 import type { WeirShapeClass } from './oxygen'
-import { crestFormOf, WEIR_DISCHARGE_COEFFICIENT } from './weirAeration'
+import { crestFormOf, isDrowned, WEIR_DISCHARGE_COEFFICIENT } from './weirAeration'
 
 /** One row of a stage–discharge table for the tail pool: river flow and the depth of water over the tail-pool bed. */
 export interface TailRow {
@@ -182,6 +182,16 @@ export function crestHead(h: WeirHydraulics, flow_m3s: number): number {
   return flow_m3s > 0 ? (flow_m3s / h.crestConstant) ** (2 / 3) : 0
 }
 
+/** Gross head at river flow Q with the tail at `tail_m`: crest height + head over the crest, less the tail, never below 0, m. */
+export function grossHeadWith(h: WeirHydraulics, flow_m3s: number, tail_m: number): number {
+  return Math.max(0, h.crestHeight_m + crestHead(h, flow_m3s) - tail_m)
+}
+
+/** Whether the weir is drowned with the tail at `tail_m` (it stands above the crest; weirAeration.ts isDrowned). */
+export function drownedWith(h: WeirHydraulics, tail_m: number): boolean {
+  return isDrowned(tail_m, h.crestHeight_m)
+}
+
 /** Everything the hydraulics say at one river flow. */
 export interface HydraulicState {
   riverFlow_m3s: number
@@ -198,9 +208,8 @@ export interface HydraulicState {
 /** Pool, tail, gross head and drowning at river flow Q. */
 export function hydraulicState(h: WeirHydraulics, flow_m3s: number): HydraulicState {
   const Q = Math.max(0, flow_m3s)
-  const pool = h.crestHeight_m + crestHead(h, Q)
   const tail = tailDepth(h, Q)
-  return { riverFlow_m3s: Q, poolLevel_m: pool, tailDepth_m: tail, grossHead_m: Math.max(0, pool - tail), drowned: tail > h.crestHeight_m }
+  return { riverFlow_m3s: Q, poolLevel_m: h.crestHeight_m + crestHead(h, Q), tailDepth_m: tail, grossHead_m: grossHeadWith(h, Q, tail), drowned: drownedWith(h, tail) }
 }
 
 /**
