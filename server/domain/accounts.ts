@@ -101,3 +101,11 @@ export async function changePassword(db: Kysely<Database>, userId: number, passw
     return endSessionsOf(trx, userId)
   })
 }
+
+/** Names of the given user ids. */
+export async function peopleById(db: Kysely<Database>, ids: readonly (number | null)[]): Promise<Map<number, string>> {
+  const wanted = [...new Set(ids.filter((id): id is number => id !== null))]
+  if (!wanted.length) return new Map()
+  const rows = await db.selectFrom('users').select(['id', 'name']).where('id', 'in', wanted).execute()
+  return new Map(rows.map((r) => [r.id, r.name]))
+}

@@ -18,16 +18,9 @@ import {
   type ConsentKind,
   type ConsentStatus,
 } from '../../shared/utils/consents'
+import { peopleById } from './accounts'
 import { conflict, unprocessable } from './errors'
 import { inTransaction } from './transaction'
-
-/** Names of the given user ids. */
-async function namesOf(db: Kysely<Database>, ids: readonly (number | null)[]): Promise<Map<number, string>> {
-  const wanted = [...new Set(ids.filter((id): id is number => id !== null))]
-  if (!wanted.length) return new Map()
-  const rows = await db.selectFrom('users').select(['id', 'name']).where('id', 'in', wanted).execute()
-  return new Map(rows.map((r) => [r.id, r.name]))
-}
 
 /** A permission row as the list shows it; `row` undefined gives the unsaved kind (not started, version 0). */
 function consentDto(kind: ConsentKind, row: SiteConsentRow | undefined, names: Map<number, string>): ConsentDto {
@@ -65,7 +58,7 @@ function constraintsDto(row: SiteConstraintsRow | undefined): ConstraintsDto {
 export async function siteConsents(db: Kysely<Database>, siteId: number): Promise<ConsentDto[]> {
   const rows = await db.selectFrom('site_consents').selectAll().where('site_id', '=', siteId).execute()
   const byKind = new Map(rows.map((r) => [r.kind, r]))
-  const names = await namesOf(db, rows.map((r) => r.updated_by))
+  const names = await peopleById(db, rows.map((r) => r.updated_by))
   return CONSENT_KINDS.map((k) => consentDto(k, byKind.get(k), names))
 }
 
@@ -234,7 +227,7 @@ export async function updateConsent(
       .returningAll()
       .executeTakeFirstOrThrow()
   })
-  const names = await namesOf(db, [row.updated_by])
+  const names = await peopleById(db, [row.updated_by])
   return { consent: consentDto(kind, row, names), changed }
 }
 

@@ -22,6 +22,7 @@ import {
 import type { ReservedFlow } from '../../shared/schemas/site'
 import type { Role } from '../../shared/utils/roles'
 import { CONSENT_KINDS, requiredConsentsLine, type ConsentKind } from '../../shared/utils/consents'
+import { peopleById } from './accounts'
 import { loadConsentSummary } from './consents'
 import { conflict, unprocessable } from './errors'
 import { sendAll, type Mailer } from './mail/outbox'
@@ -36,14 +37,6 @@ import { inTransaction } from './transaction'
 // The review as stored: submitting a site for review and deciding it (the state machine of
 // review.ts applied in a transaction), comments, the reviewer's brief, loading a site's review,
 // history and comments as the API shows them, and who the review's e-mails go to.
-
-/** Names of the given user ids. */
-export async function peopleById(db: Kysely<Database>, ids: readonly (number | null)[]): Promise<Map<number, string>> {
-  const wanted = [...new Set(ids.filter((id): id is number => id !== null))]
-  if (!wanted.length) return new Map()
-  const rows = await db.selectFrom('users').select(['id', 'name']).where('id', 'in', wanted).execute()
-  return new Map(rows.map((r) => [r.id, r.name]))
-}
 
 const ref = (names: Map<number, string>, id: number | null): PersonRef | null => (id !== null && names.has(id) ? { id, name: names.get(id)! } : null)
 
