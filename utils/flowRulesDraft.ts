@@ -2,7 +2,7 @@
 // value edited away from them makes the preset 'custom' (the values stay editable either way).
 import type { FlowRulePreset } from '#shared/schemas/flowRules'
 import { FLOW_RULE_PRESET_VALUES, holdsPreset } from '#shared/utils/flowRulePresets'
-import { flowRulesFromDraft, type SiteDraft } from './siteDraft'
+import { flowRulesFromDraft, reservedFlowFromDraft, type SiteDraft } from './siteDraft'
 
 type RulesDraft = Pick<SiteDraft, 'flowRulesPreset' | 'reservedKind' | 'reservedFlow' | 'reservedExceedance' | 'maxTakeKind' | 'maxTakeFlow' | 'maxTakeMultiple' | 'keptShare_pct' | 'passFlow_m3s'>
 
@@ -28,8 +28,7 @@ export function choosePreset(d: RulesDraft, p: FlowRulePreset): void {
 
 /** After an edit: 'custom' when the values no longer hold the chosen preset's, else the preset unchanged. */
 export function presetAfterEdit(d: RulesDraft): FlowRulePreset {
-  const reserved = d.reservedKind === 'fixed' ? { kind: 'fixed', flow: d.reservedFlow } : { kind: 'percentile', exceedance: d.reservedExceedance }
-  return holdsPreset(d.flowRulesPreset, reserved, flowRulesFromDraft(d as SiteDraft)) ? d.flowRulesPreset : 'custom'
+  return holdsPreset(d.flowRulesPreset, reservedFlowFromDraft(d), flowRulesFromDraft(d as SiteDraft)) ? d.flowRulesPreset : 'custom'
 }
 
 /** The values a watcher on the draft's rules should follow. */

@@ -168,6 +168,11 @@ function measuredRatioFromDraft(d: SiteDraft) {
   return blank ? null : { r: d.measuredR, temperature_C: d.measuredTemp_C, drowned: d.measuredDrowned, note: d.measuredNote.trim() }
 }
 
+/** The hands-off flow as the API takes it (unchecked). */
+export function reservedFlowFromDraft(d: Pick<SiteDraft, 'reservedKind' | 'reservedFlow' | 'reservedExceedance'>) {
+  return d.reservedKind === 'fixed' ? { kind: 'fixed' as const, flow: d.reservedFlow } : { kind: 'percentile' as const, exceedance: d.reservedExceedance }
+}
+
 /** The flow rules as the API takes them (unchecked). */
 export function flowRulesFromDraft(d: SiteDraft) {
   const maxTake = d.maxTakeKind === 'fixed'
@@ -194,7 +199,7 @@ export function overviewFromDraft(d: SiteDraft) {
       measuredDeficitRatio: measuredRatioFromDraft(d),
       hydraulics: hydraulicsFromDraft(d),
     },
-    reservedFlow: d.reservedKind === 'fixed' ? { kind: 'fixed' as const, flow: d.reservedFlow } : { kind: 'percentile' as const, exceedance: d.reservedExceedance },
+    reservedFlow: reservedFlowFromDraft(d),
     flowRules: flowRulesFromDraft(d),
     catchment: bothAreasBlank ? null : { siteArea_km2: d.siteArea_km2, gaugeArea_km2: d.gaugeArea_km2 },
     targetOxygen_mgL: d.targetOxygen_mgL,
